@@ -1,0 +1,1 @@
+"""Reports: the result model, and one writer module per output format."""
