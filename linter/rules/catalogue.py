@@ -1,0 +1,1 @@
+"""Imports every rule family so that its rules and inspectors are registered."""
