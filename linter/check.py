@@ -40,7 +40,8 @@ def submitted_files(paths: Iterable[str]) -> list[str]:
             found.extend(
                 str(p)
                 for p in sorted(path.rglob("*"))
-                if p.is_file() and p.suffix.lower() in SUPPORTED_SUFFIXES
+                if p.is_file()
+                and p.suffix.lower() in SUPPORTED_SUFFIXES
                 and not any(part.startswith(".") for part in p.relative_to(path).parts)
             )
         else:
@@ -53,8 +54,10 @@ def governing(path: str, contracts: Sequence[Contract]) -> tuple[Contract | None
     posix = PurePath(path).as_posix()
     for contract in contracts:
         for table in contract.tables:
-            if any(fnmatch(posix, g) or fnmatch(posix, f"*/{g}") or fnmatch(PurePath(path).name, g)
-                   for g in table.applies_to):
+            if any(
+                fnmatch(posix, g) or fnmatch(posix, f"*/{g}") or fnmatch(PurePath(path).name, g)
+                for g in table.applies_to
+            ):
                 return contract, table
     if len(contracts) == 1 and len(contracts[0].tables) == 1:
         return contracts[0], contracts[0].tables[0]
@@ -77,8 +80,18 @@ def unreadable_result(path: str, sha: str, error: UnreadableFile) -> TableResult
         place=Place(file=path),
         fix=error.fix,
     )
-    return TableResult(path, None, sha, PurePath(path).suffix.lstrip(".").lower() or "unknown",
-                       0, 0, None, None, None, (finding,))
+    return TableResult(
+        path,
+        None,
+        sha,
+        PurePath(path).suffix.lstrip(".").lower() or "unknown",
+        0,
+        0,
+        None,
+        None,
+        None,
+        (finding,),
+    )
 
 
 def run_inspectors(subject: Subject) -> list[Finding]:
@@ -90,18 +103,21 @@ def run_inspectors(subject: Subject) -> list[Finding]:
         try:
             findings.extend(inspect(subject))
         except Exception as error:  # a bug in one check must not cost the provider the others
-            findings.append(Finding(
-                rule=INTERNAL_RULE,
-                severity=Severity.ERROR,
-                message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
-                        f"{type(error).__name__}: {error}. Please report this to the data manager.",
-                place=Place(file=subject.table.source, sheet=subject.table.sheet),
-            ))
+            findings.append(
+                Finding(
+                    rule=INTERNAL_RULE,
+                    severity=Severity.ERROR,
+                    message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
+                    f"{type(error).__name__}: {error}. Please report this to the data manager.",
+                    place=Place(file=subject.table.source, sheet=subject.table.sheet),
+                )
+            )
     return sorted(findings, key=sort_key)
 
 
-def check_paths(paths: Sequence[str], contracts: Sequence[Contract],
-                fail_on: Severity = Severity.ERROR) -> Report:
+def check_paths(
+    paths: Sequence[str], contracts: Sequence[Contract], fail_on: Severity = Severity.ERROR
+) -> Report:
     """Check every named file (folders expanded) and return the whole report."""
     import linter.rules.catalogue  # noqa: F401  (registers every rule family)
 
@@ -125,13 +141,19 @@ def check_paths(paths: Sequence[str], contracts: Sequence[Contract],
     for g in governed:
         frame = frames[id(g)]
         subject = Subject(g.table, frame, g.rules, by_name)
-        results.append(TableResult(
-            file=g.table.source, sheet=g.table.sheet, sha256=g.sha256, format=g.table.format,
-            rows=len(frame.rows), columns=len(frame.names),
-            contract=g.contract.id if g.contract else None,
-            contract_version=g.contract.version if g.contract else None,
-            table=g.rules.name if g.rules else None,
-            findings=tuple(run_inspectors(subject)), encoding=g.table.encoding,
-        ))
-    return Report(__version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on,
-                  tuple(results))
+        results.append(
+            TableResult(
+                file=g.table.source,
+                sheet=g.table.sheet,
+                sha256=g.sha256,
+                format=g.table.format,
+                rows=len(frame.rows),
+                columns=len(frame.names),
+                contract=g.contract.id if g.contract else None,
+                contract_version=g.contract.version if g.contract else None,
+                table=g.rules.name if g.rules else None,
+                findings=tuple(run_inspectors(subject)),
+                encoding=g.table.encoding,
+            )
+        )
+    return Report(__version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results))

@@ -1,4 +1,4 @@
-"""Project settings (`weir.toml`, or `[tool.weir]` in `pyproject.toml`): which contracts govern which files."""
+"""Project settings (`weir.toml` or `[tool.weir]` in `pyproject.toml`): which contracts govern what."""
 
 from __future__ import annotations
 

@@ -1,8 +1,8 @@
 """The `weir` command: one module per command, each a thin typer function returning an exit code."""
 
-from linter.cli.app import app
 from linter.cli import check as _check  # noqa: F401  (registers the command)
 from linter.cli import explain as _explain  # noqa: F401
+from linter.cli.app import app
 
 
 def main() -> None:

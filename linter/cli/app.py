@@ -39,14 +39,18 @@ def guarded(command: F) -> F:
             print("weir: interrupted", file=sys.stderr)
             raise typer.Exit(130) from None
         except OSError as error:
-            print(f"weir: {error.strerror or error}: {error.filename or ''}".rstrip(": "),
-                  file=sys.stderr)
+            print(
+                f"weir: {error.strerror or error}: {error.filename or ''}".rstrip(": "),
+                file=sys.stderr,
+            )
             raise typer.Exit(2) from None
         except (typer.Exit, typer.Abort):
             raise
         except Exception as error:  # the last line of defence: a bug must not show a traceback
-            print(f"weir: internal error ({type(error).__name__}: {error}); please report it",
-                  file=sys.stderr)
+            print(
+                f"weir: internal error ({type(error).__name__}: {error}); please report it",
+                file=sys.stderr,
+            )
             raise typer.Exit(2) from None
         raise typer.Exit(int(code or 0))
 

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from linter.table import Table
+
 SUPPORTED_SUFFIXES = frozenset({".csv", ".tsv", ".txt", ".xlsx", ".xlsm", ".parquet"})
 
 
@@ -16,6 +18,6 @@ class UnreadableFile(Exception):
         self.fix = fix
 
 
-def read_path(path: str) -> list:  # type: ignore[type-arg]
+def read_path(path: str) -> list[Table]:
     """Read one file into its tables (one per Excel sheet). Raises UnreadableFile or OSError."""
     raise NotImplementedError("the reader lands with the read/ package")

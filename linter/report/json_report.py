@@ -38,7 +38,8 @@ def table_record(result: TableResult, fail_on_rank: int) -> dict[str, Any]:
         "columns": result.columns,
         "contract": (
             {"id": result.contract, "version": result.contract_version, "table": result.table}
-            if result.contract else None
+            if result.contract
+            else None
         ),
         "verdict": "returned" if failed else "accepted",
         "counts": counts,
