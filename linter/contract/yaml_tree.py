@@ -150,8 +150,9 @@ class _Budget:
             raise WeirError(f"{at}: YAML tag {node.tag!r} is not allowed in a contract")
         try:
             value = self.yaml.constructor.construct_object(node, deep=True)
-        except (YAMLError, ValueError) as error:
-            raise WeirError(f"{at}: cannot read value {node.value!r}: {error}") from None
+        except Exception:  # an explicit tag (!!bool, !!float...) on text that is not such a value
+            kind = node.tag.rsplit(":", 1)[-1]
+            raise WeirError(f"{at}: {node.value!r} is not a valid YAML {kind}") from None
         quote = node.style if node.style in ("'", '"') else ""
         return YNode(value, at, text=str(node.value), key_position=key_at, quote=quote or "")
 
