@@ -75,14 +75,14 @@ def attempt(path: Path, data: bytes) -> None:
         assert message.startswith(path.name) and "\n" not in message, message
 
 
-@settings(max_examples=150, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
 @given(position=st.integers(0, len(SEED)), cut=st.integers(0, 6), insert=st.lists(YAML_BITS, max_size=4))
 def test_mutated_contracts_fail_cleanly(tmp_path: Path, position: int, cut: int, insert: list[str]) -> None:
     text = SEED[:position] + "".join(insert) + SEED[position + cut :]
     attempt(tmp_path / "m.yaml", text.encode("utf-8"))
 
 
-@settings(max_examples=100, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
 @given(data=st.binary(max_size=200))
 def test_random_bytes_fail_cleanly(tmp_path: Path, data: bytes) -> None:
     attempt(tmp_path / "b.yaml", data)
