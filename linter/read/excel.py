@@ -142,7 +142,10 @@ def read_workbook(path: str, limits: ReadLimits) -> list[Table]:
     try:
         # Not read-only mode: that mode exposes neither merged ranges nor hidden rows.
         # data_only gives the values cached by the program that saved the file.
-        workbook = load_workbook(path, read_only=False, data_only=True, keep_links=False)
+        # A handle, not the name: openpyxl refuses names without a workbook extension, but the
+        # bytes have already shown this is a workbook.
+        with open(path, "rb") as handle:
+            workbook = load_workbook(handle, read_only=False, data_only=True, keep_links=False)
     except OSError:
         raise
     except Exception as error:  # openpyxl raises many kinds on damaged XML; all mean "corrupt"
