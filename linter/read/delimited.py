@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import csv
+import io
 from collections import Counter
 from collections.abc import Iterator
 from contextlib import contextmanager
@@ -22,7 +23,9 @@ SAMPLE_RECORDS = 50
 
 def records_of(text: str, delimiter: str) -> list[list[str]]:
     try:
-        return list(csv.reader(text.splitlines(keepends=True), delimiter=delimiter, strict=False))
+        # StringIO with newline="" splits at CR and LF only, as csv does; str.splitlines would
+        # also split at characters like U+001E or U+0085 that are ordinary text in a cell.
+        return list(csv.reader(io.StringIO(text, newline=""), delimiter=delimiter, strict=False))
     except csv.Error:
         return []
 
@@ -81,6 +84,19 @@ def trimmed(record: list[str], width: int) -> list[str]:
 
 def read_delimited(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab: bool) -> Table:
     """Read a delimited text file; header rows stay in the grid, row numbers are physical lines."""
+    try:
+        return decoded_table(path, decoding, limits, prefer_tab)
+    except UnicodeDecodeError as error:
+        # choose_decoding checked the whole file; this is the safety net for a codec that
+        # accepts bytes one way and refuses them another.
+        raise UnreadableFile(
+            "file.encoding-unknown",
+            f"The file cannot be decoded as {decoding.encoding} ({error.reason} at byte {error.start}).",
+            "Open the file in the program that made it and save it as CSV UTF-8.",
+        ) from None
+
+
+def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab: bool) -> Table:
     with open(path, encoding=decoding.encoding, newline="") as handle:
         sample = handle.read(SAMPLE_CHARS + 1)
     delimiter = choose_delimiter(sample[:SAMPLE_CHARS], len(sample) <= SAMPLE_CHARS, prefer_tab)
