@@ -58,22 +58,6 @@ def cell_limit(chars: int) -> Iterator[None]:
         csv.field_size_limit(previous)
 
 
-class RecordSource:
-    """Feeds physical lines to csv while remembering the raw lines of the current record."""
-
-    def __init__(self, scanner: LineScanner) -> None:
-        self.lines = iter(scanner)
-        self.raw: list[str] = []
-
-    def __iter__(self) -> Iterator[str]:
-        return self
-
-    def __next__(self) -> str:
-        line = next(self.lines)
-        self.raw.append(line)
-        return line
-
-
 def trimmed(record: list[str], width: int) -> list[str]:
     """Drop empty cells past the header's width: a trailing delimiter is not an extra column."""
     end = len(record)
@@ -107,8 +91,7 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
     last_raw: list[str] = []
     with open(path, encoding=decoding.encoding, newline="") as handle, cell_limit(limits.max_cell_chars):
         scanner = LineScanner(handle, limits.max_line_chars)
-        source = RecordSource(scanner)
-        reader = csv.reader(source, delimiter=delimiter, quotechar='"', doublequote=True, strict=False)
+        reader = csv.reader(iter(scanner), delimiter=delimiter, quotechar='"', doublequote=True, strict=False)
         consumed = 0
         while True:
             start = consumed + 1
@@ -124,8 +107,8 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
                     "Close the quote or shorten the cell, then send the file again.",
                 ) from None
             consumed = reader.line_num
-            last_raw = list(source.raw)
-            source.raw.clear()
+            last_raw = scanner.raw
+            scanner.raw = []
             if not any(record):
                 blank_lines.append(start)
                 continue
@@ -152,7 +135,7 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
         )
     notes = list(decoding.notes)
     width = len(rows[0])
-    rows = [trimmed(r, width) for r in rows]
+    rows = [trimmed(r, width) if len(r) > width else r for r in rows]
     ragged = [(line, len(r)) for line, r in zip(starts, rows, strict=True) if len(r) != width]
     if ragged:
         notes.append(

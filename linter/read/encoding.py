@@ -44,9 +44,9 @@ def first_invalid_utf8(path: str) -> tuple[int, bool] | None:
             try:
                 decoder.decode(chunk)
             except UnicodeDecodeError as error:
-                seen_multibyte = seen_multibyte or any(b >= 0x80 for b in chunk[: error.start])
+                seen_multibyte = seen_multibyte or not chunk[: error.start].isascii()
                 return offset + error.start, seen_multibyte
-            seen_multibyte = seen_multibyte or any(b >= 0x80 for b in chunk)
+            seen_multibyte = seen_multibyte or not chunk.isascii()
             offset += len(chunk)
         try:
             decoder.decode(b"", final=True)
