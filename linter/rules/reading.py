@@ -20,6 +20,7 @@ from linter.rules.reading_rules import (
     MIXED_ENCODING,
     NUL_BYTES,
     RAGGED_ROWS,
+    STREAMED,
     UNCLOSED_QUOTE,
 )
 from linter.rules.registry import Rule, inspector
@@ -61,6 +62,7 @@ NOTE_RULES: dict[str, NoteRule] = {
     ),
     "hidden-sheet": NoteRule(HIDDEN_SHEET, "Unhide the sheet, or delete it if it is not part of the data."),
     "empty-sheets": NoteRule(EMPTY_SHEETS, "Delete empty sheets before sending the workbook."),
+    "streamed-workbook": NoteRule(STREAMED, "Send the data as CSV UTF-8, or in smaller workbooks."),
 }
 """Every note kind the reader writes; a test checks none is missing."""
 

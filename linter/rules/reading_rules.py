@@ -174,3 +174,15 @@ EMPTY_SHEETS = define_rule(
     Good: a workbook with only `results`.
     """,
 )
+STREAMED = define_rule(
+    "sheet.streamed",
+    "A large workbook was read without its sheet layout",
+    Severity.NOTE,
+    """
+    Finds workbooks so large that Weir read them in streaming mode, which keeps memory bounded
+    but cannot see merged cells or hidden rows and columns; those checks did not run.
+
+    Bad: a 300 MB `.xlsx` whose merged and hidden cells Weir cannot vouch for.
+    Good: the same data as CSV UTF-8 (no layout to hide), or split into smaller workbooks.
+    """,
+)

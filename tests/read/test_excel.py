@@ -167,3 +167,13 @@ def test_csv_named_xlsx_is_read_as_text_and_noted() -> None:
     assert cells(tables[0])[1] == ["VB-014", "4.2"]
     note = next(n for n in tables[0].notes if n.kind == "misnamed")
     assert re.search(r"\.xlsx", note.message)
+
+
+def test_large_workbook_is_streamed_with_the_same_cells(workbook: Path) -> None:
+    full = read_path(str(workbook))
+    streamed = read_path(str(workbook), ReadLimits(full_workbook_bytes=0))
+    assert [cells(t) for t in streamed] == [cells(t) for t in full]
+    assert [t.row_numbers for t in streamed] == [t.row_numbers for t in full]
+    assert "streamed-workbook" in kinds(streamed[0])
+    assert "hidden-sheet" in kinds(streamed[1])
+    assert streamed[0].merged_ranges == ()  # streaming mode cannot see them; the note says so

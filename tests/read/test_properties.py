@@ -11,7 +11,12 @@ from hypothesis import strategies as st
 
 from linter.read import UnreadableFile, read_path
 
-FAST = settings(max_examples=100, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+FAST = settings(
+    max_examples=100,
+    deadline=None,
+    database=None,  # no example database: tests write only under tmp_path
+    suppress_health_check=[HealthCheck.function_scoped_fixture],
+)
 
 
 @FAST
