@@ -17,6 +17,7 @@ from openpyxl.worksheet.worksheet import Worksheet
 
 from linter.read.cells import cell_text
 from linter.read.errors import UnreadableFile
+from linter.read.formulas import uncached_formulas
 from linter.read.limits import ReadLimits
 from linter.table import ReadNote, Table, column_letter
 
@@ -170,6 +171,20 @@ def read_sheet(ws: Worksheet | ReadOnlyWorksheet, path: str, limits: ReadLimits)
     )
 
 
+def with_uncached(table: Table, missing: tuple[int, list[str]] | None) -> Table:
+    """Tag a sheet whose formulas were saved without values (Weir reads them as empty)."""
+    if missing is None:
+        return table
+    count, refs = missing
+    note = ReadNote(
+        "uncached-formulas",
+        f"{count} formula cell(s) were saved without their calculated value, so they read as empty.",
+        rows=tuple(sorted({int(re.sub(r"^[A-Z]+", "", r)) for r in refs if re.fullmatch(r"[A-Z]+\d+", r)})),
+        examples=tuple(refs),
+    )
+    return replace(table, notes=(*table.notes, note))
+
+
 def read_workbook(path: str, limits: ReadLimits) -> list[Table]:
     """Every worksheet with content, hidden ones included; formulas are never evaluated."""
     streamed = check_archive(path, limits) > limits.full_workbook_bytes
@@ -188,10 +203,12 @@ def read_workbook(path: str, limits: ReadLimits) -> list[Table]:
                     empty.append(ws.title)
                 else:
                     tables.append(table)
+            missing = uncached_formulas(path)
         except (OSError, UnreadableFile):
             raise
         except Exception as error:  # openpyxl raises many kinds on damaged XML; all mean "corrupt"
             raise corrupt(f"{type(error).__name__}: {error}") from None
+    tables = [with_uncached(t, missing.get(t.sheet or "")) for t in tables]
     if not tables:
         raise UnreadableFile(
             "file.empty",

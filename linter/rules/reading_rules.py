@@ -186,3 +186,16 @@ STREAMED = define_rule(
     Good: the same data as CSV UTF-8 (no layout to hide), or split into smaller workbooks.
     """,
 )
+UNCACHED_FORMULAS = define_rule(
+    "sheet.formula-without-value",
+    "Formulas were saved without their values",
+    Severity.WARNING,
+    """
+    Finds formula cells stored without a calculated value (files written by scripts, or saved
+    with calculation switched off). Weir never calculates formulas, so these cells read as
+    empty although a spreadsheet program shows a number once it recalculates.
+
+    Bad: `E2` holds `=C2*2` and no saved value.
+    Good: the workbook opened and saved once by a spreadsheet program, or the value typed in.
+    """,
+)

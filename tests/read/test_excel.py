@@ -122,8 +122,14 @@ def test_formula_without_cached_value_is_empty_not_evaluated(tmp_path: Path) -> 
     ws.append(["a", "b"])
     ws.append([1, "=A2+1"])
     wb.save(tmp_path / "f.xlsx")
-    grid = cells(read_path(str(tmp_path / "f.xlsx"))[0])
-    assert grid[1] == ["1", None]
+    (table,) = read_path(str(tmp_path / "f.xlsx"))
+    assert cells(table)[1] == ["1", None]
+    note = next(n for n in table.notes if n.kind == "uncached-formulas")
+    assert note.examples == ("B2",) and note.rows == (2,)
+
+
+def test_formula_with_cached_value_is_not_noted(workbook: Path) -> None:
+    assert "uncached-formulas" not in kinds(read_path(str(workbook))[0])
 
 
 def test_truncated_workbook_is_corrupt(workbook: Path) -> None:
