@@ -64,7 +64,7 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
         return  # a key column is missing: the key cannot be judged (columns.missing says why)
     flagged = sorted(set(result.failures.loc[result.failures["kind"] == "unique", "row"].astype(int)))
     typed = result.typed.loc[flagged, keys]
-    typed = typed[typed.notna().all(axis=1)]  # an empty key cell is keys.missing, not a duplicate
+    # dropna: an empty key cell is keys.missing, never a duplicate of another empty one.
     groups = typed.groupby(keys, sort=False, dropna=True).groups
     for rows_index in groups.values():
         rows = sorted(int(r) for r in rows_index)
