@@ -65,9 +65,9 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
     flagged = sorted(set(result.failures.loc[result.failures["kind"] == "unique", "row"].astype(int)))
     typed = result.typed.loc[flagged, keys]
     # dropna: an empty key cell is keys.missing, never a duplicate of another empty one.
-    groups = typed.groupby(keys, sort=False, dropna=True).groups
-    for rows_index in groups.values():
-        rows = sorted(int(r) for r in rows_index)
+    group_of = typed.groupby(keys, sort=False, dropna=True).ngroup()
+    for _, members in group_of[group_of >= 0].groupby(group_of[group_of >= 0], sort=True):
+        rows = sorted(int(r) for r in members.index)
         if len(rows) < 2:
             continue
         shown = ", ".join(f"{k}={written(subject, k, rows[:1])[0]}" for k in keys)
