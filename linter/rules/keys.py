@@ -82,6 +82,7 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
             f"(rows {', '.join(map(str, rows))})",
             evidence={"key": keys, "rows": rows},
         )
+    result.raise_if_unrun("unique")
 
 
 @inspector(needs_contract=True)

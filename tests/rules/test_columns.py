@@ -35,8 +35,8 @@ CASES = (
     Case(
         "required column absent",
         ("site_id", "result"),
-        (("columns.missing", ("sampled_on",), ()),),
-        fix="add a column headed sampled_on",
+        (("columns.missing", ("sampled_on",), ("C",)),),
+        fix="add a column headed sampled_on, for example as column C",
     ),
     Case(
         "misspelt column replaces missing + unexpected",

@@ -55,3 +55,38 @@ def test_a_failing_check_does_not_hide_the_others(check_family: Callable[..., li
     )
     found = check_family([["site_id"], ["VB-014"], ["VB-999"]], broken, "")
     assert [(f.rule, f.place.rows) for f in found] == [("values.not-in-code-list", (3,))]
+
+
+def test_header_only_and_empty_tables_raise_nothing(check_family: Callable[..., list[Finding]]) -> None:
+    header_only = check_family([["site_id", "sampled_on", "analyte", "result"]], CONTRACT, "")
+    assert [f.rule for f in header_only if f.rule != "file.header-only"] == ["columns.missing"]
+    empty = check_family([], CONTRACT, "")
+    assert all(not f.rule.startswith("weir.") for f in empty)
+
+
+def test_a_check_pandera_cannot_run_is_reported_not_silent(
+    check_family: Callable[..., list[Finding]],
+) -> None:
+    # A date-time minimum compared with times written with offsets: Weir compares them in UTC;
+    # should pandera ever fail to run the check, its inspector must say so rather than pass.
+    contract = TableContract(
+        "field", "one reading", (), (Variable("taken_at", VarType.DATETIME, minimum="2026-01-01"),)
+    )
+    rows = [
+        ["taken_at"],
+        ["2026-03-02T10:00:00+01:00"],
+        ["2025-12-31T23:30:00-01:00"],
+        ["2025-06-01T08:00:00"],
+    ]
+    found = check_family(rows, contract, "")
+    assert [(f.rule, f.place.rows) for f in found] == [("values.out-of-range", (4,))]
+
+
+def test_a_range_check_that_cannot_run_fails_alone(check_family: Callable[..., list[Finding]]) -> None:
+    # A minimum on a text variable (the loader refuses it; the engine must not hide it either).
+    contract = TableContract(
+        "sites", "one site", (), (Variable("site_id", minimum=5.0, pattern=r"VB-\d{3}"),)
+    )
+    found = check_family([["site_id"], ["VB-014"], ["VB-14"]], contract, "")
+    assert [f.rule for f in found] == ["values.pattern-mismatch", "weir.inspector-failed"]
+    assert "range check of site_id could not run" in found[1].message
