@@ -274,3 +274,21 @@ def test_unquoted_yaml_date_and_quoted_iso_text_agree(tmp_path: Path) -> None:
     assert sampled is not None
     # Source: ISO 8601-1 calendar date, complete representation YYYY-MM-DD, as read by Python's date
     assert date.fromisoformat(str(sampled.minimum)) == date(2020, 1, 1)
+
+
+@pytest.mark.parametrize("item", ["depth_m >= 0 and result <= 5", "'depth_m >= 0 and result <= 5'"])
+def test_rule_positions_in_a_block_list(tmp_path: Path, item: str) -> None:
+    text = GOOD.replace('rules: ["depth_m >= 0", "0 <= result and result < 500"]\n', f"rules:\n  - {item}\n")
+    assert text != GOOD
+    path = write(tmp_path, text)
+    first, second = load_contract(path).tables[0].comparisons
+    line = text.splitlines().index(f"  - {item}") + 1
+    assert (first.position.line, first.position.column) == (
+        line,
+        text.splitlines()[line - 1].index("depth_m") + 1,
+    )
+    assert second.position.column == text.splitlines()[line - 1].index("result") + 1
+    with pytest.raises(
+        WeirError, match=rf"^{path}:{line}:{text.splitlines()[line - 1].index('resul') + 1}: "
+    ):
+        load_contract(write(tmp_path, text.replace("result <= 5", "resul <= 5")))
