@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import re
+
 from linter.contract import entries
 from linter.contract.expressions import parse_rule
 from linter.contract.model import Comparison, Contract, Position, TableContract
@@ -25,6 +27,7 @@ TABLE_KEYS = (
 SINGLE_KEYS = (*HEADER_KEYS, *(k for k in TABLE_KEYS if k != "description"))
 BUNDLE_KEYS = (*HEADER_KEYS, "tables")
 EXTRA_COLUMNS = ("error", "warn", "allow")
+NAME = re.compile(r"^[^.\s]+$")
 
 
 def load_contract(path: str) -> Contract:
@@ -43,18 +46,30 @@ def contract_from_tree(tree: YNode, path: str) -> Contract:
                 f"{value.where}: {key!r} belongs inside one of the tables of a bundle (under 'tables:')"
             )
     top = entries.check_keys(tree, allowed, "the contract")
-    contract_id = entries.text(entries.require(top, "contract", tree, "a contract"), "contract")
+    id_node = entries.require(top, "contract", tree, "a contract")
+    contract_id = table_name(id_node, entries.text(id_node, "contract"))
     version = entries.text(entries.require(top, "version", tree, "a contract"), "version", numbers_ok=True)
     title = entries.text(top["title"], "title") if "title" in top else ""
     if bundle:
         named = entries.mapping(top["tables"], "tables")
         if not named:
             raise WeirError(f"{top['tables'].position}: a bundle needs at least one table under 'tables:'")
-        tables = tuple(load_table(name, node, path) for name, node in named.items())
+        tables = tuple(
+            load_table(table_name(YNode(name, node.where), name), node, path) for name, node in named.items()
+        )
     else:
         tables = (load_table(contract_id, tree, path, single=True),)
     check_bundle_references(tables)
     return Contract(id=contract_id, version=version, title=title, tables=tables, path=path)
+
+
+def table_name(node: YNode, name: str) -> str:
+    """Tables are named in references as `table.column`, so a name holds no dot and no space."""
+    if not NAME.match(name):
+        raise WeirError(
+            f"{node.position}: name {name!r} may not contain dots or spaces (it is used in table.column)"
+        )
+    return name
 
 
 def load_table(name: str, node: YNode, path: str, single: bool = False) -> TableContract:

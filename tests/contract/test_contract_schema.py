@@ -139,6 +139,11 @@ AGREE: dict[str, tuple[str, bool]] = {
     "version true": (MINIMAL.replace("version: 1", "version: true"), False),
     "blank title": (MINIMAL + "title: ' '\n", False),
     "null variable": (MINIMAL + "  q:\n", False),
+    "dotted contract id": (MINIMAL.replace("contract: c", "contract: c.v2"), False),
+    "table name with a space": (
+        "contract: b\nversion: 1\ntables:\n  site list: {observational_unit: x, variables: {a: string}}\n",
+        False,
+    ),
 }
 
 # Semantic cases no JSON Schema can express: the schema accepts them, the loader must refuse them.
