@@ -6,7 +6,7 @@ import re
 
 from linter.contract import entries
 from linter.contract.expressions import parse_rule
-from linter.contract.model import Comparison, Contract, Position, TableContract
+from linter.contract.model import Comparison, Contract, Position, TableContract, Variable, VarType
 from linter.contract.variables import load_variable
 from linter.contract.yaml_tree import YNode, parse_yaml, read_text
 from linter.errors import WeirError
@@ -97,7 +97,7 @@ def load_table(name: str, node: YNode, path: str, single: bool = False) -> Table
         applies_to=entries.text_list(given["applies_to"], "applies_to") if "applies_to" in given else (),
         # an empty cell is missing whatever else the contract lists
         missing=missing if "" in missing else ("", *missing),
-        comparisons=comparisons(given.get("rules"), tuple(declared)),
+        comparisons=typed_comparisons(comparisons(given.get("rules"), tuple(declared)), variables),
         complete_over=complete_over,
         extra_columns=(
             entries.one_of(given["extra_columns"], EXTRA_COLUMNS, "extra_columns")
@@ -138,6 +138,40 @@ def comparisons(node: YNode | None, known: tuple[str, ...]) -> tuple[Comparison,
             raise WeirError(f"{item.position}: a rule must be text like 'min_temp <= max_temp'")
         found.extend(parse_rule(item.value, rule_start(item), known))
     return tuple(found)
+
+
+FAMILIES = {
+    VarType.INTEGER: "number",
+    VarType.NUMBER: "number",
+    VarType.DATE: "date",
+    VarType.DATETIME: "date",
+    VarType.STRING: "text",
+    VarType.CATEGORY: "text",
+    VarType.BOOLEAN: "true/false",
+}
+"""Values of one family can be compared with each other; numbers and dates also by order."""
+
+
+def typed_comparisons(
+    found: tuple[Comparison, ...], variables: tuple[Variable, ...]
+) -> tuple[Comparison, ...]:
+    """Refuse rules that cannot be judged: a date against a number, text ordered with `<`, ..."""
+    types = {v.name: v.type for v in variables}
+    for rule in found:
+        left = FAMILIES[types[rule.left]]
+        right = FAMILIES[types[str(rule.right)]] if rule.right_is_variable else "number"
+        if left != right:
+            shown = f"{rule.right!r} ({types[str(rule.right)]})" if rule.right_is_variable else "a number"
+            raise WeirError(
+                f"{rule.position}: rule {rule.text!r} compares {rule.left!r} ({types[rule.left]}) "
+                f"with {shown}; both sides must be numbers, both dates, or both text"
+            )
+        if left not in ("number", "date") and rule.operator not in ("==", "!="):
+            raise WeirError(
+                f"{rule.position}: rule {rule.text!r} orders {left} values with {rule.operator}; "
+                "only numbers and dates have an order (use == or !=)"
+            )
+    return found
 
 
 def rule_start(item: YNode) -> Position:

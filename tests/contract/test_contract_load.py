@@ -73,6 +73,12 @@ def test_happy_path_fills_the_model(tmp_path: Path) -> None:
     )
 
 
+def test_text_variables_may_be_compared_for_equality(tmp_path: Path) -> None:
+    text = GOOD.replace('"depth_m >= 0"', '"site_id != analyte"')
+    (rule, *_) = load_contract(write(tmp_path, text)).tables[0].comparisons
+    assert (rule.left, rule.operator, rule.right) == ("site_id", "!=", "analyte")
+
+
 def test_key_variables_are_never_nullable(tmp_path: Path) -> None:
     table = load_contract(write(tmp_path, GOOD)).tables[0]
     assert all(not table.variable(k).nullable for k in table.keys)  # type: ignore[union-attr]
@@ -210,6 +216,18 @@ BROKEN = {
         15,
         "(depth",
         "unexpected character '('",
+    ),
+    "rule on a date and a number": (
+        GOOD.replace('"depth_m >= 0"', '"sampled_on >= 0"'),
+        15,
+        "sampled_on",
+        "compares 'sampled_on' (date) with a number",
+    ),
+    "rule ordering text": (
+        GOOD.replace('"depth_m >= 0"', '"site_id < analyte"'),
+        15,
+        "site_id",
+        "only numbers and dates have an order",
     ),
     "nullable key": (
         GOOD.replace("{type: date, min", "{type: date, nullable: true, min"),

@@ -156,6 +156,7 @@ LOADER_ONLY: dict[str, str] = {
     "code list escaping the folder": MINIMAL + "  q: {type: category, codes: ../up.yaml}\n",
     "rule with a call": MINIMAL + "rules: ['len(ph) > 0']\n",
     "rule naming no variable": MINIMAL + "rules: ['pH > 0']\n",
+    "rule ordering text": MINIMAL + "rules: ['site_id > 0']\n",
     "nullable key": MINIMAL.replace("{type: string, pattern", "{type: string, nullable: true, pattern"),
 }
 
