@@ -96,6 +96,8 @@ def parse_yaml(text: str, file: str) -> YNode:
         raise WeirError(f"{where}: broken YAML: {problem}") from None
     except YAMLError as error:
         raise WeirError(f"{file}:1:1: broken YAML: {str(error).splitlines()[0]}") from None
+    except RecursionError:  # ruamel's composer recurses once per nesting level
+        raise WeirError(f"{file}:1:1: contract nests deeper than {MAX_DEPTH} levels") from None
     if root is None:
         raise WeirError(f"{file}:1:1: contract file holds no YAML document")
     budget = _Budget(file, yaml)
