@@ -73,7 +73,7 @@ def resolve_inside(reference: str, contract_path: str, at: Position) -> Path:
     if ".." in PurePosixPath(reference.replace("\\", "/")).parts:
         raise WeirError(f"{at}: code-list path {reference!r} may not leave the contract's folder ('..')")
     folder = Path(contract_path).resolve().parent
-    target = (folder / reference).resolve()
+    target = (folder / reference.replace("\\", "/")).resolve()  # a path written on Windows works too
     if not target.is_relative_to(folder):
         # a symbolic link can still lead outside; the folder is the trust boundary
         raise WeirError(f"{at}: code-list path {reference!r} leads outside the contract's folder")

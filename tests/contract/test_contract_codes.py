@@ -124,3 +124,8 @@ def test_unreadable_csv_code_list(tmp_path: Path) -> None:
     path = contract_with(tmp_path, "q.csv", {"contracts/q.csv": huge})
     with pytest.raises(WeirError, match=r"^contracts/q\.csv:1:1: not a readable CSV code list"):
         load_contract(path)
+
+
+def test_windows_separators_in_a_code_list_path(tmp_path: Path) -> None:
+    path = contract_with(tmp_path, "'codes\\counties.yaml'", {"contracts/codes/counties.yaml": "- ALD\n"})
+    assert codes_of(path) == (("ALD",), {})
