@@ -197,6 +197,31 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
     return runs
 
 
+CODE_LABEL = re.compile(r"^([a-z]{1,2})(\d+)$")
+
+
+def _code_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
+    """Runs of 3+ headers crossing a short code with a number (m014, m1524, f014): two variables."""
+    runs: list[tuple[list[str], str]] = []
+    current: list[str] = []
+    for label in [*frame.labels, ""]:
+        if label not in taken and CODE_LABEL.match(label):
+            current.append(label)
+            continue
+        if len(current) >= 3:
+            parts = [CODE_LABEL.match(c) for c in current]
+            by_code: dict[str, set[str]] = {}
+            for part in parts:
+                if part:
+                    by_code.setdefault(part[1], set()).add(part[2])
+            numbers = list(by_code.values())
+            crossed = len(by_code) >= 2 and bool(set.intersection(*numbers))
+            if crossed and len({_body_kind(frame, c) for c in current} - {"empty"}) <= 1:
+                runs.append((current, "code"))
+        current = []
+    return runs
+
+
 def find_values_in_headers(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = first_row_header(table)
     if not frame.labels:
@@ -205,6 +230,7 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
     runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
     taken = grouped | {c for r, _ in runs for c in r}
     runs += _stem_runs(frame, taken)
+    runs += _code_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []
     present = set(frame.labels)
     for run, kind in runs:
