@@ -1,4 +1,4 @@
-"""`weir tidy INPUT --out OUTDIR`: find (or re-run) the recipe that makes a table tidy and write the result."""
+"""`weir tidy INPUT --out OUTDIR`: find (or re-run) the recipe that makes a table tidy, write it."""
 
 from __future__ import annotations
 
@@ -15,8 +15,12 @@ from linter.errors import WeirError
 def tidy(
     input: Path = typer.Argument(..., help="The submitted file (CSV, TSV, xlsx or Parquet); never modified."),
     out: Path = typer.Option(..., "--out", "-o", help="Folder for the tidy CSV, recipe.json and audit.json."),
-    contract: Path | None = typer.Option(None, "--contract", "-c", help="Contract whose keys guide the choice."),
-    recipe: Path | None = typer.Option(None, "--recipe", help="Re-run this saved recipe instead of searching."),
+    contract: Path | None = typer.Option(
+        None, "--contract", "-c", help="Contract whose keys guide the choice."
+    ),
+    recipe: Path | None = typer.Option(
+        None, "--recipe", help="Re-run this saved recipe instead of searching."
+    ),
     drop_empty: bool = typer.Option(False, "--drop-empty", help="Drop rows kept only for an empty cell."),
 ) -> int:
     """Reshape a table into tidy form; exit 0 when written, 2 if Weir could not."""

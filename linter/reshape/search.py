@@ -6,11 +6,11 @@ from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
-import numpy as np
 import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.reshape.apply import Reshaped, apply_recipe
+from linter.reshape.audit import audit
 from linter.reshape.recipe import Recipe
 from linter.reshape.steps import STEPS, RecipeError, step_from_json
 from linter.reshape.tidiness import Tidiness, derived_split, tidiness
@@ -84,9 +84,15 @@ def layout_detectors() -> list[Detector]:
     ]
 
 
-def as_table(frame: pd.DataFrame, rows: Sequence[int], source: str) -> Table:
-    """An output frame as a Table again (header row first) so the detectors can look at it."""
-    header = pd.DataFrame([[str(c) for c in frame.columns]], columns=range(frame.shape[1]))
+def as_table(
+    frame: pd.DataFrame, rows: Sequence[int], source: str, blank_names: frozenset[str] = frozenset()
+) -> Table:
+    """An output frame as a Table again (header row first) so the detectors can look at it.
+
+    `blank_names` are labels the engine made up for blank header cells; they are blank again here.
+    """
+    names = [None if c in blank_names else str(c) for c in frame.columns]
+    header = pd.DataFrame([names], columns=range(frame.shape[1]))
     body = pd.DataFrame(frame.to_numpy(dtype=object), columns=range(frame.shape[1]))
     grid = pd.concat([header, body], ignore_index=True).astype(object)
     grid = grid.where(grid.notna(), None)
@@ -94,22 +100,8 @@ def as_table(frame: pd.DataFrame, rows: Sequence[int], source: str) -> Table:
     return Table(source=source, sheet=None, grid=grid, row_numbers=(first, *map(int, rows)))
 
 
-def conserved(table: Table, result: Reshaped) -> bool:
-    """True when every non-empty input cell lives on in the output or was dropped on purpose."""
-    grid = table.grid.to_numpy(dtype=object)
-    filled = np.vectorize(lambda v: v is not None and str(v).strip() != "", otypes=[bool])(grid)
-    needed = set((result.index.base_codes(0)[filled] // 2).tolist()) if grid.size else set()
-    seen: set[int] = set()
-    for frame in result.provenance.values():
-        codes = frame.to_numpy(dtype=np.int64).ravel()
-        seen.update((codes[codes >= 0] // 2).tolist())
-    for header in result.headers.values():
-        seen.update(c // 2 for codes in header.values() for c in codes if c >= 0)
-    for dropped in result.dropped:
-        seen.update(c // 2 for c in dropped.codes if c >= 0)
-    seen.update(c // 2 for c, _ in result.carried if c >= 0)
-    seen.update(c // 2 for c in result.renamed if c >= 0)
-    return needed <= seen
+def _grid_only(steps: Sequence[Step]) -> bool:
+    return all(STEPS[s["step"]].grid_level and s["step"] != "header" for s in steps)
 
 
 def _ordered(steps: Sequence[Step], new: Step) -> tuple[Step, ...]:
@@ -124,22 +116,33 @@ def _ordered(steps: Sequence[Step], new: Step) -> tuple[Step, ...]:
     return (*grid, new, *header, *rest)
 
 
+MARGIN_STEPS = frozenset({"drop_rows", "drop_columns"})
+Move = list[Step]
+
+
 def _proposals(
     table: Table, contract: TableContract | None, derived: frozenset[str], columns: Sequence[str]
-) -> tuple[list[Step], list[str]]:
-    """Next steps the detectors propose for `table`, and the rule ids they report."""
+) -> tuple[list[Move], list[str]]:
+    """Next moves (one or more steps) the detectors propose for `table`, and the rule ids they report."""
     steps: list[Step] = []
     rules: list[str] = []
     for column in derived:
         split = derived_split(table, column)
         if split is not None:
             steps.append(split)
+    margins: list[Step] = []
     for detect in layout_detectors():
         for finding in detect(table, contract):
             rules.append(finding.rule)
-            if finding.step is not None:
+            if finding.step is None:
+                continue
+            if finding.step["step"] in MARGIN_STEPS:
+                margins.append(dict(finding.step))
+            else:
                 steps.append(dict(finding.step))
-    return steps, rules
+    if margins:  # rows and columns that are not data go first, all together, before any reshaping
+        return [margins], rules
+    return [[s] for s in steps], rules
 
 
 def _prepared(step: Step, columns: Sequence[str], keep_empty: bool) -> list[Step]:
@@ -173,19 +176,19 @@ def _evaluate(
     steps: tuple[Step, ...],
     contract: TableContract | None,
     derived: frozenset[str],
-) -> tuple[Candidate, list[Step]] | None:
+) -> tuple[Candidate, list[Move]] | None:
     result = _run(table, steps)
     if result is None or len(result.tables) != 1:
         return None
     name = next(iter(result.tables))
     output = result.tables[name]
     rows = result.rows[name]
-    view = as_table(output, rows, table.source)
+    made_up = frozenset(str(c) for c, codes in result.headers[name].items() if not codes)
+    view = as_table(output, rows, table.source, made_up if not steps or _grid_only(steps) else frozenset())
     derived = frozenset(d for d in derived if d in output.columns)
     proposals, remaining = _proposals(view, contract, derived, list(output.columns))
-    candidate = Candidate(
-        steps, output, tidiness(output, contract), conserved(table, result), tuple(remaining), derived
-    )
+    lossless = audit(table, result).lossless
+    candidate = Candidate(steps, output, tidiness(output, contract), lossless, tuple(remaining), derived)
     return candidate, proposals
 
 
@@ -202,41 +205,55 @@ def contract_names(output: pd.DataFrame, contract: TableContract | None) -> dict
     return mapping
 
 
-def search(
-    table: Table, contract: TableContract | None = None, *, keep_empty: bool = True
-) -> SearchResult:
+def _fingerprint(frame: pd.DataFrame) -> int:
+    return hash((tuple(map(str, frame.columns)), frame.to_csv(index=False)))
+
+
+def search(table: Table, contract: TableContract | None = None, *, keep_empty: bool = True) -> SearchResult:
     """Beam search over recipes; only lossless recipes are ever chosen (the empty recipe always is)."""
     start = _evaluate(table, (), contract, frozenset())
     if start is None:
         raise RecipeError("the table cannot be read as a table with a header")
     seen: dict[tuple[str, ...], Candidate] = {(): start[0]}
-    beam: list[tuple[Candidate, list[Step]]] = [start]
+    beam: list[tuple[Candidate, list[Move]]] = [start]
+    outputs = {_fingerprint(start[0].output)}
     for _ in range(DEPTH):
-        grown: list[tuple[Candidate, list[Step]]] = []
+        grown: list[tuple[Candidate, list[Move]]] = []
         for candidate, proposals in beam:
-            for proposal in proposals[:BRANCH]:
+            for move in proposals[:BRANCH]:
                 steps = candidate.steps
-                for step in _prepared(proposal, list(candidate.output.columns), keep_empty):
-                    steps = _ordered(steps, step)
+                for proposal in move:
+                    for step in _prepared(proposal, list(candidate.output.columns), keep_empty):
+                        steps = _ordered(steps, step)
                 key = tuple(map(repr, steps))
                 if key in seen:
                     continue
-                derived = candidate.derived | _derived_names(proposal)
+                derived = candidate.derived.union(*(_derived_names(p) for p in move))
                 evaluated = _evaluate(table, steps, contract, derived)
                 if evaluated is None:
                     continue
                 seen[key] = evaluated[0]
-                if evaluated[0].lossless:
+                fingerprint = _fingerprint(evaluated[0].output)
+                if evaluated[0].lossless and fingerprint not in outputs:
+                    outputs.add(fingerprint)
                     grown.append(evaluated)
         if not grown:
             break
         grown.sort(key=lambda pair: -pair[0].score)
         beam = grown[:BEAM]
-    ranked = sorted((c for c in seen.values() if c.lossless), key=lambda c: -c.score)
+    unique: dict[int, Candidate] = {}
+    for c in seen.values():
+        if c.lossless:
+            key = _fingerprint(c.output)
+            if key not in unique or c.score > unique[key].score:
+                unique[key] = c
+    ranked = sorted(unique.values(), key=lambda c: -c.score)
     best = ranked[0] if ranked else start[0]
     renames = contract_names(best.output, contract)
     if renames:
-        named = _evaluate(table, (*best.steps, {"step": "rename", "columns": renames}), contract, best.derived)
+        named = _evaluate(
+            table, (*best.steps, {"step": "rename", "columns": renames}), contract, best.derived
+        )
         if named is not None and named[0].lossless:
             best = named[0]
     return SearchResult(best, tuple(c for c in ranked if c is not best)[:5])

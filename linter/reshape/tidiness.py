@@ -102,8 +102,12 @@ def derived_split(table: Table, column: str) -> dict[str, Any] | None:
     name = slug(column)
     if len(letters) == 1:
         prefix = re.escape(next(iter(letters)))
-        return {"step": "split_column", "column": column, "pattern": f"^{prefix}_?(?P<{name}>\\d+)$",
-                "into": [name]}
+        return {
+            "step": "split_column",
+            "column": column,
+            "pattern": f"^{prefix}_?(?P<{name}>\\d+)$",
+            "into": [name],
+        }
     if all(len(x) <= 2 for x in letters):
         return {
             "step": "split_column",

@@ -158,8 +158,10 @@ def _value_runs(frame: Frame, contract: TableContract | None) -> list[tuple[list
         needed = 2 if kinds & {"year", "date", "month", "level"} else 3
         run = labels[i : j + 1]
         # A trailing "Don't know" style column of the same kind belongs to the run.
-        if j + 1 == len(labels) - 1 and len(run) >= 3 and _body_kind(frame, labels[j + 1]) == _body_kind(
-            frame, run[-1]
+        if (
+            j + 1 == len(labels) - 1
+            and len(run) >= 3
+            and _body_kind(frame, labels[j + 1]) == _body_kind(frame, run[-1])
         ):
             run = [*run, labels[j + 1]]
         if len(run) >= needed and len({_body_kind(frame, c) for c in run} - {"empty"}) <= 1:
@@ -237,7 +239,9 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
         if len(run) == len(frame.labels) and table.grid.shape[0] <= 1:
             continue
         names_to = kind.split(":", 1)[1] if kind.startswith("level:") else kind
-        values_to = _measured(contract, present, names_to) or ("count" if _all_counts(frame, run) else "value")
+        values_to = _measured(contract, present, names_to) or (
+            "count" if _all_counts(frame, run) else "value"
+        )
         step = {"step": "gather", "columns": run, "names_to": names_to, "values_to": values_to}
         step["keep_empty"] = True
         findings.append(
@@ -297,8 +301,7 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
                 table,
                 f"{len(by_id)} groups of the columns {shown(sorted(sets[0]))} repeat side by side "
                 f"({shown(columns)}): each group is one observation.",
-                f"Write one row per {names_to} with one column per member: "
-                f"{', '.join(sorted(sets[0]))}.",
+                f"Write one row per {names_to} with one column per member: {', '.join(sorted(sets[0]))}.",
                 {"step": "gather_groups", "pattern": pattern, "names_to": names_to, "keep_empty": True},
                 rows=table.row_numbers[:1],
                 columns=columns,
@@ -385,7 +388,9 @@ def find_no_header(table: Table, contract: TableContract | None = None) -> list[
     if all(header_value_kind(str(v)) == "year" for v in first) or not _looks_like_data(first, frame):
         return []
     numbers = [str(v).strip() for v in first if not blank(v) and is_number(str(v))]
-    if len(numbers) >= 3 and numbers == [str(n) for n in range(int(numbers[0]), int(numbers[0]) + len(numbers))]:
+    if len(numbers) >= 3 and numbers == [
+        str(n) for n in range(int(numbers[0]), int(numbers[0]) + len(numbers))
+    ]:
         return []  # 1,2,3,... across the top is a row of labels
     width = grid.shape[1]
     if contract is not None and len(contract.variables) == width:

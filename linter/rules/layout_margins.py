@@ -94,8 +94,18 @@ def find_totals_and_notes(table: Table, contract: TableContract | None = None) -
                 totals.append(i)
     findings: list[Finding] = []
     for indexes, reason, what, fix in (
-        (titles, "title", "title rows above the header", "Remove the title rows; start the file with the header."),
-        (totals, "total", "total or subtotal rows", "Remove total rows; totals are recomputed from the data."),
+        (
+            titles,
+            "title",
+            "title rows above the header",
+            "Remove the title rows; start the file with the header.",
+        ),
+        (
+            totals,
+            "total",
+            "total or subtotal rows",
+            "Remove total rows; totals are recomputed from the data.",
+        ),
         (sorted(notes), "notes", "notes or footnotes", "Move the notes out of the data sheet."),
     ):
         if not indexes:

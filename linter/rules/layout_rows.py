@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import itertools
 import re
 from collections.abc import Iterable
 
@@ -99,7 +100,9 @@ SAME_AS_ABOVE = define_rule(
     """,
 )
 
-PAIRED = re.compile(r"(^|[_ .-])(min|max|lo|hi|low|high|mean|start|end|first|last)($|[_ .-])|^t?(min|max)", re.I)
+PAIRED = re.compile(
+    r"(^|[_ .-])(min|max|lo|hi|low|high|mean|start|end|first|last)($|[_ .-])|^t?(min|max)", re.I
+)
 
 
 def find_variables_in_rows(table: Table, contract: TableContract | None = None) -> list[Finding]:
@@ -123,9 +126,7 @@ def find_variables_in_rows(table: Table, contract: TableContract | None = None) 
             continue
         if not body.duplicated(subset=others).any():
             continue
-        by_kind = {
-            dominant_kind(body.loc[names == level, values_col])[0] for level in levels
-        } - {"empty"}
+        by_kind = {dominant_kind(body.loc[names == level, values_col])[0] for level in levels} - {"empty"}
         signal = (
             len(declared & set(levels)) >= 2
             or len(by_kind) >= 2
@@ -205,7 +206,7 @@ def find_section_titles(table: Table, contract: TableContract | None = None) -> 
         and not TOTAL_LABEL.match(str(grid.iat[i, 0]))
         and not NOTE_LABEL.match(str(grid.iat[i, 0]))
     ]
-    if not titles or titles[0] != 1 or any(b - a < 2 for a, b in zip(titles, titles[1:], strict=False)):
+    if not titles or titles[0] != 1 or any(b - a < 2 for a, b in itertools.pairwise(titles)):
         return []
     texts = [str(grid.iat[i, 0]).strip() for i in titles]
     into = "section"

@@ -17,11 +17,24 @@ NUMBER = re.compile(r"^[<>]?\s*[+-]?(\d{1,3}(,\d{3})+|\d+)?(\.\d+)?([eE][+-]?\d+
 ISO_DATE = re.compile(r"^\d{4}-\d{2}(-\d{2})?([T ]\d{2}:\d{2}(:\d{2})?)?$")
 DMY_DATE = re.compile(r"^\d{1,2}[/.]\d{1,2}[/.]\d{2,4}$")
 YEAR = re.compile(r"^(1[89]|20)\d{2}$")
-MONTHS = (
-    "january february march april may june july august september october november december".split()
-)
+MONTHS = [
+    "january",
+    "february",
+    "march",
+    "april",
+    "may",
+    "june",
+    "july",
+    "august",
+    "september",
+    "october",
+    "november",
+    "december",
+]
 MONTH_WORDS = frozenset(MONTHS) | frozenset(m[:3] for m in MONTHS) | {"sept"}
-RANGE = re.compile(r"^[<>≤≥]?\s*\$?\d+(\.\d+)?k?\s*([-–]|to)\s*\$?\d+(\.\d+)?k?$|^[<>≤≥]\s*\$?\d+(\.\d+)?k?$|^\$?\d+(\.\d+)?k?\+$")
+RANGE = re.compile(
+    r"^[<>≤≥]?\s*\$?\d+(\.\d+)?k?\s*([-–]|to)\s*\$?\d+(\.\d+)?k?$|^[<>≤≥]\s*\$?\d+(\.\d+)?k?$|^\$?\d+(\.\d+)?k?\+$"
+)
 
 
 def blank(value: object) -> bool:

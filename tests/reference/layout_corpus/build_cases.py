@@ -198,8 +198,11 @@ def same_as_above(rng: random.Random) -> None:
 
 def multi_row_header(rng: random.Random) -> None:
     for i, (groups, subs) in enumerate(
-        [(["nitrate", "phosphate"], ["min", "max"]), (["Spring", "Autumn"], ["count", "taxa"]),
-         (["temp", "flow", "ph"], ["am", "pm"])]
+        [
+            (["nitrate", "phosphate"], ["min", "max"]),
+            (["Spring", "Autumn"], ["count", "taxa"]),
+            (["temp", "flow", "ph"], ["am", "pm"]),
+        ]
     ):
         top = ["site_id"] + [g if k == 0 else "" for g in groups for k in range(len(subs))]
         second = [""] + [s for _ in groups for s in subs]
@@ -271,8 +274,18 @@ def multi_step(rng: random.Random) -> None:
 
 
 BUILDERS: list[Callable[[random.Random], None]] = [
-    values_in_headers, repeated_groups, packed, list_cells, variables_in_rows, transposed,
-    sections, same_as_above, multi_row_header, no_header, margins, multi_step,
+    values_in_headers,
+    repeated_groups,
+    packed,
+    list_cells,
+    variables_in_rows,
+    transposed,
+    sections,
+    same_as_above,
+    multi_row_header,
+    no_header,
+    margins,
+    multi_step,
 ]
 
 

@@ -42,10 +42,12 @@ def tidy_tables(rng: random.Random) -> dict[str, Rows]:
     t["tidy-long-chemistry"] = long
     t["tidy-sites"] = [["site_id", "site_name", "river", "lat", "lon", "established"]] + [
         [s, f"{r} at mile {k}", r, f(rng, 54, 55, 4), f(rng, -2.9, -2.1, 4), str(rng.randint(1988, 2024))]
-        for k, (s, r) in enumerate(zip(rng.sample(SITES, 7), [rng.choice(RIVERS) for _ in range(7)]))
+        for k, (s, r) in enumerate(
+            zip(rng.sample(SITES, 7), [rng.choice(RIVERS) for _ in range(7)], strict=False)
+        )
     ]
     t["tidy-volunteer-groups"] = [["group_name", "site_id", "joined_on", "members"]] + [
-        [g, s, day(rng), str(rng.randint(3, 40))] for g, s in zip(GROUPS, rng.sample(SITES, 4))
+        [g, s, day(rng), str(rng.randint(3, 40))] for g, s in zip(GROUPS, rng.sample(SITES, 4), strict=False)
     ]
     counts = [["site_id", "surveyed_on", "taxon", "count"]]
     for s in rng.sample(SITES, 3):
@@ -88,13 +90,22 @@ def tidy_tables(rng: random.Random) -> dict[str, Rows]:
         [s, loc, f(rng, 6, 8)]
         for s, loc in zip(
             rng.sample(SITES, 7),
-            ["Mill bridge / north bank", "Ford / ds", "Weir pool", "Old quarry / outfall", "Railway culvert",
-             "Church lane / ford", "Sheep wash"],
+            [
+                "Mill bridge / north bank",
+                "Ford / ds",
+                "Weir pool",
+                "Old quarry / outfall",
+                "Railway culvert",
+                "Church lane / ford",
+                "Sheep wash",
+            ],
+            strict=False,
         )
     ]
     t["tidy-sample-codes"] = [["sample_code", "site_id", "bottle", "volume_ml"]] + [
         [f"{s.replace('-', '')}-{b}", s, b, str(rng.choice([250, 500, 1000]))]
-        for s in rng.sample(SITES, 3) for b in ("A", "B")
+        for s in rng.sample(SITES, 3)
+        for b in ("A", "B")
     ]
     t["tidy-repeated-ids"] = [["site_id", "sampled_on", "ph"]] + [
         [s, f"2025-09-{k * 7 + 1:02d}", f(rng, 6, 8)] for s in rng.sample(SITES, 3) for k in range(3)
@@ -107,27 +118,40 @@ def tidy_tables(rng: random.Random) -> dict[str, Rows]:
         for s in rng.sample(SITES, 6)
     ]
     t["tidy-optional-numbers"] = [["site_id", "sampled_on", "ph", "turbidity_ntu"]] + [
-        [s, day(rng), f(rng, 6, 8), "" if k % 3 == 0 else f(rng, 0, 40)] for k, s in enumerate(rng.sample(SITES, 9))
+        [s, day(rng), f(rng, 6, 8), "" if k % 3 == 0 else f(rng, 0, 40)]
+        for k, s in enumerate(rng.sample(SITES, 9))
     ]
     t["tidy-units-in-headers"] = [["site_id", "Temp (C)", "Flow (m3/s)", "Depth (m)"]] + [
         [s, f(rng, 2, 18), f(rng, 0.1, 9, 2), f(rng, 0.2, 3)] for s in rng.sample(SITES, 5)
     ]
     t["tidy-censored-results"] = [["site_id", "analyte", "result_mg_l"]] + [
-        [s, a, rng.choice(["<0.01", "<0.05", f(rng, 0.05, 2, 2)])] for s in rng.sample(SITES, 3) for a in ANALYTES[:3]
+        [s, a, rng.choice(["<0.01", "<0.05", f(rng, 0.05, 2, 2)])]
+        for s in rng.sample(SITES, 3)
+        for a in ANALYTES[:3]
     ]
     t["tidy-sex-codes"] = [["fish_id", "site_id", "species", "sex", "length_mm"]] + [
-        [f"F{k:03d}", rng.choice(SITES[:4]), rng.choice(["brown trout", "bullhead", "minnow"]),
-         rng.choice(["F", "M", "U"]), str(rng.randint(30, 420))]
+        [
+            f"F{k:03d}",
+            rng.choice(SITES[:4]),
+            rng.choice(["brown trout", "bullhead", "minnow"]),
+            rng.choice(["F", "M", "U"]),
+            str(rng.randint(30, 420)),
+        ]
         for k in range(1, 9)
     ]
     t["tidy-equipment"] = [["kit_id", "kind", "calibrated_on", "holder"]] + [
-        [f"K-{k:02d}", kind, day(rng), g] for k, (kind, g) in enumerate(zip(["ph meter", "do probe", "turbidimeter", "ec meter"], GROUPS), start=1)
+        [f"K-{k:02d}", kind, day(rng), g]
+        for k, (kind, g) in enumerate(
+            zip(["ph meter", "do probe", "turbidimeter", "ec meter"], GROUPS, strict=False), start=1
+        )
     ]
     t["tidy-rainfall-daily"] = [["gauge_id", "day", "rain_mm"]] + [
         ["VR-01", f"2025-11-{d:02d}", f(rng, 0, 25)] for d in range(1, 15)
     ]
     t["tidy-exceedance-flags"] = [["site_id", "sampled_on", "nitrate_mg_l", "exceeds_limit"]] + [
-        [s, day(rng), v, "yes" if float(v) > 3 else "no"] for s in rng.sample(SITES, 6) for v in [f(rng, 0, 6, 2)]
+        [s, day(rng), v, "yes" if float(v) > 3 else "no"]
+        for s in rng.sample(SITES, 6)
+        for v in [f(rng, 0, 6, 2)]
     ]
     t["tidy-survey-scores"] = [["site_id", "survey_year", "habitat_score", "grade"]] + [
         [s, str(rng.choice([2023, 2024, 2025])), str(rng.randint(20, 90)), rng.choice(["A", "B", "C", "D"])]
