@@ -85,7 +85,11 @@ def layout_detectors() -> list[Detector]:
 
 
 def as_table(
-    frame: pd.DataFrame, rows: Sequence[int], source: str, blank_names: frozenset[str] = frozenset()
+    frame: pd.DataFrame,
+    rows: Sequence[int],
+    source: str,
+    blank_names: frozenset[str] = frozenset(),
+    header_row: int | None = None,
 ) -> Table:
     """An output frame as a Table again (header row first) so the detectors can look at it.
 
@@ -96,8 +100,9 @@ def as_table(
     body = pd.DataFrame(frame.to_numpy(dtype=object), columns=range(frame.shape[1]))
     grid = pd.concat([header, body], ignore_index=True).astype(object)
     grid = grid.where(grid.notna(), None)
-    first = (min(rows) - 1) if len(rows) else 0
-    return Table(source=source, sheet=None, grid=grid, row_numbers=(first, *map(int, rows)))
+    if header_row is None:
+        header_row = (min(rows) - 1) if len(rows) else 0
+    return Table(source=source, sheet=None, grid=grid, row_numbers=(header_row, *map(int, rows)))
 
 
 def _grid_only(steps: Sequence[Step]) -> bool:
@@ -130,6 +135,7 @@ def _proposals(
         split = derived_split(table, column)
         if split is not None:
             steps.append(split)
+            rules.append("layout.values-in-headers")  # the header labels still hide a number
     margins: list[Step] = []
     for detect in layout_detectors():
         for finding in detect(table, contract):
@@ -184,7 +190,19 @@ def _evaluate(
     output = result.tables[name]
     rows = result.rows[name]
     made_up = frozenset(str(c) for c, codes in result.headers[name].items() if not codes)
-    view = as_table(output, rows, table.source, made_up if not steps or _grid_only(steps) else frozenset())
+    header_rows = [
+        origin.row
+        for codes in result.headers[name].values()
+        for origin in map(result.index.decode, codes[-1:])
+        if origin is not None
+    ]
+    view = as_table(
+        output,
+        rows,
+        table.source,
+        made_up if not steps or _grid_only(steps) else frozenset(),
+        max(header_rows) if header_rows and _grid_only(steps) else None,
+    )
     derived = frozenset(d for d in derived if d in output.columns)
     proposals, remaining = _proposals(view, contract, derived, list(output.columns))
     lossless = audit(table, result).lossless
