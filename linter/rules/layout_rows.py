@@ -6,6 +6,8 @@ import itertools
 import re
 from collections.abc import Iterable
 
+import pandas as pd
+
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL
@@ -105,6 +107,29 @@ PAIRED = re.compile(
 )
 
 
+def _holds_values(
+    body: pd.DataFrame,
+    names: pd.Series,
+    levels: list[str],
+    values_col: str,
+    labels: list[str],
+    declared: set[str],
+) -> bool:
+    """True when `values_col` holds the values of the variables named in `names`."""
+    names_col = str(names.name)
+    others = [c for c in labels if c not in (names_col, values_col)]
+    if not others or body.duplicated(subset=[*others, names_col]).any():
+        return False
+    if not body.duplicated(subset=others).any():
+        return False
+    by_kind = {dominant_kind(body.loc[names == level, values_col])[0] for level in levels} - {"empty"}
+    return (
+        len(declared & set(levels)) >= 2
+        or len(by_kind) >= 2
+        or sum(bool(PAIRED.search(level)) for level in levels) >= 2
+    )
+
+
 def find_variables_in_rows(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = first_row_header(table)
     labels = list(frame.labels)
@@ -120,19 +145,15 @@ def find_variables_in_rows(table: Table, contract: TableContract | None = None) 
         levels = sorted({str(v) for v in names})
         if not 2 <= len(levels) <= 20 or len(levels) * 2 > len(names):
             continue
-        values_col = labels[position + 1]
-        others = [c for c in labels if c not in (names_col, values_col)]
-        if not others or body.duplicated(subset=[*others, names_col]).any():
-            continue
-        if not body.duplicated(subset=others).any():
-            continue
-        by_kind = {dominant_kind(body.loc[names == level, values_col])[0] for level in levels} - {"empty"}
-        signal = (
-            len(declared & set(levels)) >= 2
-            or len(by_kind) >= 2
-            or sum(bool(PAIRED.search(level)) for level in levels) >= 2
+        values_col = next(
+            (
+                v
+                for v in dict.fromkeys([labels[position + 1], labels[-1]])
+                if v != names_col and _holds_values(body, names, levels, v, labels, declared)
+            ),
+            None,
         )
-        if not signal:
+        if values_col is None:
             continue
         findings.append(
             layout_finding(
