@@ -1,9 +1,13 @@
 """Imports every rule family so that its rules and inspectors are registered."""
 
-import linter.rules.columns
-import linter.rules.comparisons
-import linter.rules.keys
-import linter.rules.references
-import linter.rules.value_codes
-import linter.rules.values
-from linter.rules import header, reading, unreadable  # noqa: F401
+from linter.rules import (  # noqa: F401
+    columns,
+    comparisons,
+    header,
+    keys,
+    reading,
+    references,
+    unreadable,
+    value_codes,
+    values,
+)
