@@ -61,17 +61,21 @@ def closure(columns: Iterable[str], dependencies: Sequence[FD]) -> frozenset[str
 
 
 def bcnf_tables(
-    columns: frozenset[str], dependencies: Sequence[FD], order: dict[str, int] | None = None
+    columns: frozenset[str],
+    dependencies: Sequence[FD],
+    order: dict[str, int] | None = None,
+    key: frozenset[str] = frozenset(),
 ) -> list[frozenset[str]]:
     """Column sets of a lossless BCNF decomposition of `columns`.
 
-    Determinants are tried smallest first, then leftmost in the table (`order`), so that when two
-    columns determine each other the one written first becomes the key.
+    Determinants inside the table's `key` are tried first (so the key stays whole in one table),
+    then the smallest, then the leftmost in the table (`order`): when two columns determine each
+    other, the one written first becomes the key.
     """
     rank = order or {}
 
-    def place(fd: FD) -> tuple[int, list[int], list[str], str]:
-        return (len(fd[0]), sorted(rank.get(c, 0) for c in fd[0]), sorted(fd[0]), fd[1])
+    def place(fd: FD) -> tuple[bool, int, list[int], list[str], str]:
+        return (not fd[0] <= key, len(fd[0]), sorted(rank.get(c, 0) for c in fd[0]), sorted(fd[0]), fd[1])
 
     for determinant, dependent in sorted(dependencies, key=place):
         if not determinant <= columns or dependent not in columns or dependent in determinant:
@@ -80,7 +84,7 @@ def bcnf_tables(
         if reach == columns:
             continue  # the determinant is a superkey here: no violation
         rest = columns - (reach - determinant)
-        return bcnf_tables(reach, dependencies, order) + bcnf_tables(rest, dependencies, order)
+        return bcnf_tables(reach, dependencies, order, key) + bcnf_tables(rest, dependencies, order, key)
     return [columns]
 
 
@@ -158,7 +162,7 @@ def propose_split(
     whole_key = frozenset(key)
     relevant = [d for d in dependencies if d[0] <= everything and d[1] in everything and d[1] not in d[0]]
     order = {c: i for i, c in enumerate(columns)}
-    sets = bcnf_tables(everything, relevant, order)
+    sets = bcnf_tables(everything, relevant, order, whole_key)
     lost = tuple(d for d in canonical_cover(relevant) if not preserved(d, sets, relevant))
     form = "BCNF"
     if lost:

@@ -7,6 +7,8 @@ from linter.rules import (  # noqa: F401
     keys,
     reading,
     references,
+    submission_units,
+    units,
     unreadable,
     value_codes,
     values,
