@@ -11,6 +11,8 @@ from linter.rules import (  # noqa: F401
     layout_rows,
     reading,
     references,
+    submission_units,
+    units,
     unreadable,
     value_codes,
     values,
