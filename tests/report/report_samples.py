@@ -13,7 +13,7 @@ HOSTILE_SCRIPT = "<script>window.__pwned = 1</script>"
 HOSTILE_IMG = '"><img src=x onerror="window.__pwned = 2">'
 HOSTILE_FORMULA = '=HYPERLINK("http://evil.invalid/","click me")'
 
-CHEMISTRY = [
+CHEMISTRY: list[list[str | None]] = [
     ["site_id", "sampled_on", "analyte", "result", "unit"],
     ["VB-014", "2026-03-02", "nitrate", "1.8", "mg/L"],
     ["VB-014", "2026-03-02", "phosphate", "-0.4", "mg/L"],
