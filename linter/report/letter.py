@@ -31,6 +31,10 @@ class Item:
     title: str
 
 
+def plural(count: int, word: str) -> str:
+    return f"{count} {word}{'' if count == 1 else 's'}"
+
+
 def rule_title(rule_id: str) -> str:
     """The registered rule's title, or its id for rules raised outside the registry."""
     import linter.rules.catalogue  # noqa: F401
