@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from collections.abc import Sequence
+
 import pandas as pd
 
 from linter.findings import Finding, Place, Severity
@@ -25,9 +27,9 @@ CHEMISTRY: list[list[str | None]] = [
 
 
 def make_frame(
-    rows: list[list[str | None]], source: str = "vell_chemistry.csv", sheet: str | None = None
+    rows: Sequence[Sequence[str | None]], source: str = "vell_chemistry.csv", sheet: str | None = None
 ) -> Frame:
-    grid = pd.DataFrame(rows, dtype=object)
+    grid = pd.DataFrame([list(r) for r in rows], dtype=object)
     table = Table(source, sheet, grid, tuple(range(1, len(rows) + 1)), format="xlsx" if sheet else "csv")
     return first_row_header(table)
 
