@@ -1,1 +1,3 @@
 """Imports every rule family so that its rules and inspectors are registered."""
+
+from linter.rules import gate as _gate  # noqa: F401
