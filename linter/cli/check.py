@@ -5,7 +5,6 @@ from __future__ import annotations
 from pathlib import Path
 
 import typer
-from rich.console import Console
 
 from linter.cli.app import app, guarded
 from linter.errors import WeirError
@@ -25,6 +24,8 @@ def check(
     verbose: bool = typer.Option(False, "--verbose", "-v", help="Show every finding."),
 ) -> int:
     """Check files against their contract; exit 0 if accepted, 1 if returned, 2 if Weir could not."""
+    from rich.console import Console
+
     from linter.check import check_paths
     from linter.config import contract_paths, find_settings
     from linter.contract.load import load_contract
