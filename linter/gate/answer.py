@@ -84,22 +84,32 @@ def guarded(check: Callable[[Path], Report]) -> Callable[[Path], Report]:
     return run
 
 
-def letter_text(report: Report) -> str:
-    """The provider letter, for now the full console summary as plain text."""
+def letter(report: Report) -> tuple[str, str]:
+    """The provider letter as (suffix, text): the HTML letter where its writer is installed,
+    else the Markdown one, else the full console summary as plain text."""
+    import importlib
+
+    for module, suffix in (("linter.report.html", ".letter.html"), ("linter.report.markdown", ".letter.md")):
+        try:
+            writer = importlib.import_module(module)
+        except ImportError:
+            continue
+        return suffix, str(writer.render(report))
     from rich.console import Console
 
     from linter.report import console as console_report
 
     buffer = StringIO()
     console_report.render(report, Console(file=buffer, width=100, color_system=None), verbose=True)
-    return buffer.getvalue()
+    return ".letter.txt", buffer.getvalue()
 
 
 def write_answer(report: Report, copy_path: Path) -> Path:
-    """Write `<copy>.report.json` and `<copy>.letter.txt`; return the report path."""
+    """Write `<copy>.report.json` and `<copy>.letter.*` beside the filed copy; return the report path."""
     from linter.report import json_report
 
     report_path = copy_path.with_name(copy_path.name + ".report.json")
     write_text_atomic(report_path, json_report.render(report))
-    write_text_atomic(copy_path.with_name(copy_path.name + ".letter.txt"), letter_text(report))
+    suffix, text = letter(report)
+    write_text_atomic(copy_path.with_name(copy_path.name + suffix), text)
     return report_path

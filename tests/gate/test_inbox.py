@@ -46,7 +46,12 @@ def submissions(inbox: Path) -> Counter[str]:
     """Hashes of every submitted file anywhere under the inbox (reports, letters and the ledger aside)."""
     found: Counter[str] = Counter()
     for path in inbox.rglob("*"):
-        if path.is_file() and ".weir" not in path.parts and not path.name.endswith((".json", ".txt")):
+        if (
+            path.is_file()
+            and ".weir" not in path.parts
+            and ".letter." not in path.name
+            and not path.name.endswith(".json")
+        ):
             found[hashlib.sha256(path.read_bytes()).hexdigest()] += 1
     return found
 
@@ -72,9 +77,9 @@ def test_a_mixed_inbox_is_sorted_answered_and_nothing_is_lost(tmp_path: Path) ->
     assert events["east-county/field-sheet.xlsx"].action == "returned"
     assert events["east-county/chem-again.csv"].action == "duplicate"
     assert events["vb-volunteers/chem-2026-03.csv"].reason == "still arriving"
-    assert sorted(p.name for p in (inbox / "accepted").rglob("*")) == [
+    assert sorted(p.name.split(".letter.")[0] for p in (inbox / "accepted").rglob("*")) == [
         "000001-chem-2026-01.csv",
-        "000001-chem-2026-01.csv.letter.txt",
+        "000001-chem-2026-01.csv",  # its letter
         "000001-chem-2026-01.csv.report.json",
         "north-lab",
     ]
@@ -86,7 +91,9 @@ def test_a_mixed_inbox_is_sorted_answered_and_nothing_is_lost(tmp_path: Path) ->
         "gate.not-checked"
     ) == 1
     assert "gate.duplicate" in (inbox / "returned/east-county/000004-chem-again.csv.report.json").read_text()
-    assert "values.missing" in (inbox / "returned/north-lab/000002-chem-2026-02.csv.letter.txt").read_text()
+    assert "values.missing" in (inbox / "returned/north-lab/000002-chem-2026-02.csv.report.json").read_text()
+    (letter,) = (inbox / "returned/north-lab").glob("000002-chem-2026-02.csv.letter.*")
+    assert "chem-2026-02.csv" in letter.read_text()
     assert [p.relative_to(inbox).as_posix() for p in inbox.glob("*/*.csv")] == [
         "vb-volunteers/chem-2026-03.csv"
     ]
@@ -144,9 +151,9 @@ def test_a_gate_killed_mid_file_is_resumed_by_the_next(
     assert [(e.action, e.entry) for e in events] == [("accepted", stuck.id)]
     ledger = SqliteLedger(inbox / LAYOUT.ledger)
     assert len(ledger.recent(10)) == 1 and ledger.unfinished() == []
-    assert sorted(p.name for p in (inbox / "accepted/north-lab").iterdir()) == [
+    assert sorted(p.name.split(".letter.")[0] for p in (inbox / "accepted/north-lab").iterdir()) == [
         "000001-chem-2026-01.csv",
-        "000001-chem-2026-01.csv.letter.txt",
+        "000001-chem-2026-01.csv",  # its letter
         "000001-chem-2026-01.csv.report.json",
     ]
     assert submissions(inbox) == before
