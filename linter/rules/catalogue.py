@@ -3,6 +3,7 @@
 from linter.rules import (  # noqa: F401
     columns,
     comparisons,
+    gate,
     header,
     keys,
     layout_cells,
