@@ -34,6 +34,13 @@ DATE_FORMS: tuple[tuple[str, str], ...] = (
 """Other date forms a draft recognises (with zero-padded fields, so the strftime form writes them back)."""
 SHORT_CODE = r"[A-Za-z]{1,3}"
 """One to three letters (a laboratory qualifier such as J): a code even when it occurs only once."""
+COORDINATE_LIMITS = {
+    "latitude": (-90.0, 90.0),
+    "lat": (-90.0, 90.0),
+    "longitude": (-180.0, 180.0),
+    "lon": (-180.0, 180.0),
+    "lng": (-180.0, 180.0),
+}
 TRUE_FALSE = frozenset({"true", "false"})
 CENSORED = "<"
 
@@ -57,6 +64,8 @@ class VariableDraft:
     seen_min: float | None = None
     """Smallest value seen (numbers only), before the margin."""
     seen_max: float | None = None
+    seen_values: tuple[str, ...] = ()
+    """The distinct text values, sorted, when there are at most MAX_CODES of them (else empty)."""
     missing_seen: tuple[str, ...] = ()
     """Missing-value codes found in this column (other than empty cells)."""
     evidence: dict[str, str] = field(default_factory=dict)
@@ -118,7 +127,7 @@ def _numeric(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
         return None  # leading zeros are part of a code (07 is not 7): keep the text
     numbers = pd.to_numeric(body)
     low, high = float(numbers.min()), float(numbers.max())
-    minimum, maximum = margin_range(low, high, integer)
+    minimum, maximum = physical_range(base.name, *margin_range(low, high, integer))
     evidence = dict(base.evidence)
     kind = "whole numbers" if integer else "numbers"
     evidence[""] = f"{plural(len(present), 'value')}, all {kind}"
@@ -157,13 +166,25 @@ def margin_range(low: float, high: float, integer: bool) -> tuple[float, float]:
     pad = max((high - low) / 2, max(abs(low), abs(high)) * 0.05, 1.0 if integer else 0.0)
     if pad == 0:
         pad = 1.0
-    step = 1.0 if integer else 10.0 ** math.floor(math.log10(pad))
-    minimum = math.floor((low - pad) / step) * step
-    maximum = math.ceil((high + pad) / step) * step
+    step = 1.0 if integer else 10.0 ** (math.floor(math.log10(pad)) - 1)
+    digits = max(0, -math.floor(math.log10(step)))
+    minimum = round(math.floor(round((low - pad) / step, 6)) * step, digits)
+    maximum = round(math.ceil(round((high + pad) / step, 6)) * step, digits)
     if low >= 0 > minimum:
         minimum = 0.0
-    digits = max(0, -math.floor(math.log10(step)))
-    return round(minimum, digits), round(maximum, digits)
+    return minimum, maximum
+
+
+def physical_range(name: str, minimum: float, maximum: float) -> tuple[float, float]:
+    """Margins never pass what a coordinate can be.
+
+    Source: ISO 6709 (standard representation of geographic point location): latitude from -90 to
+    +90 degrees, longitude from -180 to +180; the section number is not given (from memory).
+    """
+    limits = COORDINATE_LIMITS.get(name.strip().lower())
+    if limits is None:
+        return minimum, maximum
+    return max(minimum, limits[0]), min(maximum, limits[1])
 
 
 def _shown(number: float) -> str:
@@ -236,10 +257,12 @@ def _textual(base: VariableDraft, present: pd.Series, rows: int) -> VariableDraf
             VarType.CATEGORY,
             base.nullable,
             values=values,
+            seen_values=values,
             missing_seen=base.missing_seen,
             evidence=evidence,
         )
     evidence[""] = f"{plural(count, 'distinct value')} in {rows:,} rows"
+    seen_values = tuple(sorted(str(v) for v in distinct)) if count <= MAX_CODES else ()
     if pattern is not None:
         evidence["pattern"] = f"every one of {plural(len(present), 'value')} matches"
     return VariableDraft(
@@ -247,6 +270,7 @@ def _textual(base: VariableDraft, present: pd.Series, rows: int) -> VariableDraf
         VarType.STRING,
         base.nullable,
         pattern=pattern,
+        seen_values=seen_values,
         missing_seen=base.missing_seen,
         evidence=evidence,
     )

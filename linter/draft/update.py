@@ -47,7 +47,8 @@ def propose_update(text: str, path: str, contract: Contract, draft: TableDraft) 
     range, another type) becomes a note for the data manager instead.
     """
     try:
-        document, indent, block_indent = load_yaml_guess_indent(text)
+        _, indent, block_indent = load_yaml_guess_indent(text)
+        document = yaml_writer().load(text)  # preserves quotes, so untouched lines stay as written
     except YAMLError as error:
         raise WeirError(f"{path}: not readable YAML: {str(error).splitlines()[0]}") from None
     table, node = governed_table(contract, document, draft)
@@ -71,7 +72,12 @@ def propose_update(text: str, path: str, contract: Contract, draft: TableDraft) 
             continue
         notes.extend(disagreements(declared, variable))
         if declared.type is VarType.CATEGORY and declared.codes is not None:
-            new_codes = [c for c in variable.values if c not in declared.codes.values]
+            new_codes, variants = unseen_codes(variable.seen_values, declared.codes.values)
+            if variants:
+                notes.append(
+                    f"{variable.name}: {', '.join(repr(v) for v in variants)} differ from declared codes "
+                    "only in spaces or letter case; not proposed (the files should use the code)"
+                )
             if not new_codes:
                 continue
             if declared.codes.source is not None:
@@ -122,6 +128,14 @@ def governed_table(
     )
 
 
+def unseen_codes(seen: tuple[str, ...], declared: tuple[str, ...]) -> tuple[list[str], list[str]]:
+    """Values not among the codes: (new codes, variants of a code that differ in spaces or case)."""
+    folded = {c.strip().casefold() for c in declared}
+    new = [v for v in seen if v not in declared and v.strip().casefold() not in folded]
+    variants = [v for v in seen if v not in declared and v.strip().casefold() in folded]
+    return new, variants
+
+
 def disagreements(declared: Variable, variable: VariableDraft) -> list[str]:
     """Where the new files disagree with what the data manager wrote: for a person to decide."""
     notes: list[str] = []
@@ -136,7 +150,7 @@ def disagreements(declared: Variable, variable: VariableDraft) -> list[str]:
         and variable.seen_max > high
     ):
         notes.append(f"{declared.name}: value {variable.seen_max:g} seen, above the declared max {high:g}")
-    looser = {VarType.INTEGER: (VarType.NUMBER,), VarType.CATEGORY: (VarType.STRING,)}
+    looser = {VarType.INTEGER: (VarType.NUMBER,), VarType.STRING: (VarType.CATEGORY,)}
     if variable.type is not declared.type and declared.type not in (
         VarType.STRING,
         *looser.get(variable.type, ()),

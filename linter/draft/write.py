@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import io
+import json
 import re
 from dataclasses import dataclass
 
@@ -139,11 +140,11 @@ def header_comment(draft: TableDraft) -> str:
         "Every entry is a proposal with its evidence; edit it before you send it to partners.",
     ]
     for source, steps in draft.recipes:
-        names = " -> ".join(str(s.get("step")) for s in steps)
         lines.append(
             f"{source.replace(chr(92), '/').rsplit('/', 1)[-1]} is not tidy as sent: this contract describes "
-            f"the table that this recipe makes ({names}); `weir tidy` applies it."
+            f"the table that these {len(steps)} recipe step(s) make (`weir tidy` finds and applies them):"
         )
+        lines.extend(f"  {json.dumps(step, ensure_ascii=False)}" for step in steps)
     return "\n".join(lines)
 
 
