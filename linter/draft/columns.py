@@ -91,14 +91,21 @@ def sample_of(values: pd.Series, size: int = SAMPLE) -> pd.Series:
 
 def draft_variable(name: str, cells: pd.Series) -> VariableDraft:
     """Everything the draft proposes for one column (cells as text, None where empty)."""
-    text = cells.astype(object).where(cells.notna(), None)
-    trimmed = text.str.strip()
-    empty = trimmed.isna() | (trimmed == "")
-    coded = ~empty & trimmed.isin(MISSING_CODES)
-    seen = tuple(sorted(set(trimmed[coded])))
-    present = trimmed[~empty & ~coded]
-    rows = len(text)
-    absent = int((empty | coded).sum())
+    # Every heuristic runs on the distinct values (with their counts), not on every cell: a
+    # column of a million cells with a thousand distinct values costs one hashing pass.
+    codes, uniques = pd.factorize(cells.to_numpy(dtype=object), use_na_sentinel=True)
+    counts = np.bincount(codes[codes >= 0], minlength=len(uniques))
+    stripped = pd.Series(uniques, dtype=object).str.strip().to_numpy(dtype=object)
+    tally = pd.Series(counts, dtype=np.int64).groupby(stripped).sum() if len(uniques) else pd.Series()
+    labels = tally.index.astype(str)
+    is_coded = labels.isin(MISSING_CODES)
+    is_empty = labels == ""
+    seen = tuple(sorted(str(v) for v in tally.index[is_coded]))
+    kept = tally[~is_coded & ~is_empty]
+    present = pd.Series(kept.index.astype(str), dtype=object)
+    weights = pd.Series(kept.to_numpy(), index=present.index)
+    rows = len(cells)
+    absent = rows - int(weights.sum())
     evidence: dict[str, str] = {}
     nullable = absent > 0
     if nullable:
@@ -110,14 +117,14 @@ def draft_variable(name: str, cells: pd.Series) -> VariableDraft:
         evidence[""] = f"every one of {rows:,} cells is empty"
         return base
     return (
-        _numeric(base, present)
-        or _boolean(base, present)
+        _numeric(base, present, weights)
+        or _boolean(base, present, weights)
         or _temporal(base, present)
-        or _textual(base, present, rows)
+        or _textual(base, present, weights, rows)
     )
 
 
-def _numeric(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
+def _numeric(base: VariableDraft, present: pd.Series, weights: pd.Series) -> VariableDraft | None:
     censored = present.str.startswith(CENSORED)
     body = present.where(~censored, present.str.slice(len(CENSORED)).str.strip())
     if not body.str.match(PLAIN_NUMBER).all():
@@ -130,14 +137,15 @@ def _numeric(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
     minimum, maximum = physical_range(base.name, *margin_range(low, high, integer))
     evidence = dict(base.evidence)
     kind = "whole numbers" if integer else "numbers"
-    evidence[""] = f"{plural(len(present), 'value')}, all {kind}"
+    evidence[""] = f"{plural(int(weights.sum()), 'value')}, all {kind}"
     evidence["min"] = f"smallest seen {_shown(low)}" + ("; no negative value" if minimum == 0 else "")
     evidence["max"] = f"largest seen {_shown(high)}, with a margin"
     prefix = None
     if censored.any():
         prefix = CENSORED
-        evidence["censored_prefix"] = f"{plural(int(censored.sum()), 'value')} below a limit, e.g. " + str(
-            present[censored].iloc[0]
+        evidence["censored_prefix"] = (
+            f"{plural(int(weights[censored].sum()), 'value')} below a limit, e.g. "
+            + str(present[censored].iloc[0])
         )
     unit = header_unit(base.name)
     if unit is not None:
@@ -191,10 +199,10 @@ def _shown(number: float) -> str:
     return str(int(number)) if number == int(number) else f"{number:g}"
 
 
-def _boolean(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
+def _boolean(base: VariableDraft, present: pd.Series, weights: pd.Series) -> VariableDraft | None:
     if not present.str.casefold().isin(TRUE_FALSE).all():
         return None
-    evidence = {**base.evidence, "": f"{plural(len(present), 'value')}, all true or false"}
+    evidence = {**base.evidence, "": f"{plural(int(weights.sum()), 'value')}, all true or false"}
     return VariableDraft(
         base.name, VarType.BOOLEAN, base.nullable, missing_seen=base.missing_seen, evidence=evidence
     )
@@ -241,15 +249,16 @@ def date_form(present: pd.Series) -> str | None:
     return None
 
 
-def _textual(base: VariableDraft, present: pd.Series, rows: int) -> VariableDraft:
+def _textual(base: VariableDraft, present: pd.Series, weights: pd.Series, rows: int) -> VariableDraft:
     evidence = dict(base.evidence)
-    distinct = present.unique()
+    distinct = present.to_numpy()  # already distinct
     count = len(distinct)
+    cells = int(weights.sum())
     pattern = id_pattern(sample_of(present))
     if pattern is not None and not present.str.fullmatch(pattern).all():
         pattern = None  # the sample's shape does not hold on every row
     short_codes = count <= LONG_CODE_LIST and bool(present.str.fullmatch(SHORT_CODE).all())
-    if pattern is None and count <= MAX_CODES and (len(present) >= 2 * count or short_codes):
+    if pattern is None and count <= MAX_CODES and (cells >= 2 * count or short_codes):
         values = tuple(sorted(str(v) for v in distinct))
         evidence["values"] = f"{plural(count, 'distinct value')} in {rows:,} rows"
         return VariableDraft(
@@ -264,7 +273,7 @@ def _textual(base: VariableDraft, present: pd.Series, rows: int) -> VariableDraf
     evidence[""] = f"{plural(count, 'distinct value')} in {rows:,} rows"
     seen_values = tuple(sorted(str(v) for v in distinct)) if count <= MAX_CODES else ()
     if pattern is not None:
-        evidence["pattern"] = f"every one of {plural(len(present), 'value')} matches"
+        evidence["pattern"] = f"every one of {plural(cells, 'value')} matches"
     return VariableDraft(
         base.name,
         VarType.STRING,
