@@ -11,7 +11,6 @@ row; growth between sizes near the row factor (10x) shows that drafting cost is 
 from __future__ import annotations
 
 import argparse
-import sys
 import tempfile
 import time
 from pathlib import Path
@@ -19,11 +18,9 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
-
-from linter.draft.infer import draft_table  # noqa: E402
-from linter.draft.samples import read_samples  # noqa: E402
-from linter.draft.write import render_draft  # noqa: E402
+from linter.draft.infer import draft_table
+from linter.draft.samples import read_samples
+from linter.draft.write import render_draft
 
 ANALYTES = np.array(["NITRATE", "NITRITE", "AMMONIUM", "PHOSPHATE", "CHLORIDE", "SULFATE"])
 
