@@ -34,6 +34,8 @@ from linter.profile.partitions import (
     combine,
     combined_codes,
     product,
+    refines,
+    refines_each,
     stripped_of,
     with_nulls_as_value,
 )
@@ -70,7 +72,7 @@ def _g3_breaking(partition: Stripped, codes: np.ndarray) -> int:
     pair_sizes = np.bincount(pairs)
     pair_class = np.zeros(pair_sizes.size, dtype=np.int64)
     pair_class[pairs] = partition.labels
-    largest = np.zeros(partition.classes, dtype=np.int64)
+    largest = np.zeros(int(partition.labels.max()) + 1, dtype=np.int64)
     np.maximum.at(largest, pair_class, pair_sizes)
     return int(partition.rows.size - largest.sum())
 
@@ -88,6 +90,7 @@ def functional_dependencies(
         return ()
     raw = column_codes(frame[names])
     codes = [with_nulls_as_value(raw[n]) for n in names]
+    matrix = np.stack(codes, axis=1) if max_lhs >= 1 else np.zeros((rows, 0), dtype=np.int64)
     budget = int(np.floor(max_error * rows + 1e-9))
     width = len(names)
     everything = (1 << width) - 1
@@ -96,7 +99,7 @@ def functional_dependencies(
     empty = stripped_of(np.zeros(rows, dtype=np.int64))
     previous: dict[tuple[int, ...], Stripped] = {(): empty}
     cplus: dict[tuple[int, ...], int] = {(): everything}
-    level: dict[tuple[int, ...], Stripped] = {(a,): stripped_of(codes[a]) for a in range(width)}
+    level: dict[tuple[int, ...], Stripped | None] = {(a,): stripped_of(codes[a]) for a in range(width)}
 
     def partition_of(columns: tuple[int, ...]) -> Stripped:
         known = level.get(columns) or previous.get(columns)
@@ -104,18 +107,18 @@ def functional_dependencies(
             return known
         return stripped_of(combined_codes(dict(enumerate(codes)), columns, rows))  # type: ignore[arg-type]
 
-    def breaking(lhs: tuple[int, ...], rhs: int, lhs_partition: Stripped, full: Stripped) -> int:
-        if lhs_partition.error == full.error:
+    def breaking(rhs: int, lhs_partition: Stripped, full: Stripped | None) -> int:
+        # Lemma 2 when the partition of X is known; else the direct refinement test (the last
+        # level never builds partitions: nothing above it needs them).
+        exact = lhs_partition.error == full.error if full is not None else refines(lhs_partition, codes[rhs])
+        if exact:
             return 0
-        if budget == 0:
-            return budget + 1
-        return _g3_breaking(lhs_partition, codes[rhs])
+        return budget + 1 if budget == 0 else _g3_breaking(lhs_partition, codes[rhs])
 
     def subset_fails(lhs: tuple[int, ...], rhs: int) -> bool:
         # A key's dependency X -> A is minimal only if no X minus one column already gives A
         # (within the error budget in approximate mode: the paper's C+ test in PRUNE, done directly).
-        left = partition_of(lhs)
-        return breaking(lhs, rhs, left, product(left, codes[rhs])) > budget
+        return breaking(rhs, partition_of(lhs), None) > budget
 
     size = 1
     while level and size <= max_lhs + 1:
@@ -124,24 +127,41 @@ def functional_dependencies(
             for i in range(len(x)):
                 mask &= cplus.get(x[:i] + x[i + 1 :], 0)
             cplus[x] = mask
+        # Tests within one X do not change each other's outcome, so those of the last level
+        # (no partitions there) are batched per left-hand side: one pass for all its columns.
+        batched: dict[tuple[int, ...], list[int]] = {}
+        for x, part in level.items():
+            if part is None:
+                for i, a in enumerate(x):
+                    if cplus[x] & (1 << a):
+                        batched.setdefault(x[:i] + x[i + 1 :], []).append(a)
+        exact: dict[tuple[tuple[int, ...], int], bool] = {}
+        for lhs, rhs in batched.items():
+            flags = refines_each(previous[lhs], matrix, rhs)
+            exact.update(((lhs, a), bool(f)) for a, f in zip(rhs, flags, strict=True))
         for x, part in level.items():
             for i, a in enumerate(x):
                 if not cplus[x] & (1 << a):
                     continue
                 lhs = x[:i] + x[i + 1 :]
-                broken = breaking(lhs, a, previous[lhs], part)
+                if part is not None:
+                    broken = breaking(a, previous[lhs], part)
+                elif exact[lhs, a]:
+                    broken = 0
+                else:
+                    broken = budget + 1 if budget == 0 else _g3_breaking(previous[lhs], codes[a])
                 if broken <= budget:
                     found.append((lhs, a, broken))
                     cplus[x] &= ~(1 << a)
                     if broken == 0:
-                        for b in range(width):
-                            if b not in x:
-                                cplus[x] &= ~(1 << b)
+                        cplus[x] &= sum(1 << b for b in x)  # drop every B outside X
+        if size > max_lhs:
+            break
         survivors: dict[tuple[int, ...], Stripped] = {}
         for x, part in level.items():
-            if cplus[x] == 0:
+            if cplus[x] == 0 or part is None:
                 continue
-            if part.error <= budget and size <= max_lhs:
+            if part.error <= budget:
                 # X is a (super)key, or within the budget of one: X -> A holds (g3 <= e(X)/n) for
                 # every A, and so does it for every superset; keep only the minimal ones (§4.3).
                 for a in range(width):
@@ -151,10 +171,8 @@ def functional_dependencies(
                         found.append((x, a, _g3_breaking(part, codes[a]) if part.error else 0))
                 continue
             survivors[x] = part
-        if size > max_lhs:
-            break
-        previous, level = survivors, _next_level(survivors, codes)
         size += 1
+        previous, level = survivors, _next_level(survivors, codes, build=size <= max_lhs)
     return tuple(
         sorted(
             (Dependency(tuple(names[i] for i in lhs), names[a], n / rows, n) for lhs, a, n in found),
@@ -164,20 +182,21 @@ def functional_dependencies(
 
 
 def _next_level(
-    level: dict[tuple[int, ...], Stripped], codes: list[np.ndarray]
-) -> dict[tuple[int, ...], Stripped]:
-    """GENERATE_NEXT_LEVEL: unions of two sets sharing a prefix whose every subset survived."""
+    level: dict[tuple[int, ...], Stripped], codes: list[np.ndarray], build: bool = True
+) -> dict[tuple[int, ...], Stripped | None]:
+    """GENERATE_NEXT_LEVEL: unions of two sets sharing a prefix whose every subset survived
+    (their partitions only when `build`: the last level is tested without them)."""
     by_prefix: dict[tuple[int, ...], list[tuple[int, ...]]] = {}
     for x in level:
         by_prefix.setdefault(x[:-1], []).append(x)
-    following: dict[tuple[int, ...], Stripped] = {}
+    following: dict[tuple[int, ...], Stripped | None] = {}
     for group in by_prefix.values():
         group.sort()
         for i, first in enumerate(group):
             for second in group[i + 1 :]:
                 candidate = (*first, second[-1])
                 if all(candidate[:j] + candidate[j + 1 :] in level for j in range(len(candidate))):
-                    following[candidate] = product(level[first], codes[second[-1]])
+                    following[candidate] = product(level[first], codes[second[-1]]) if build else None
     return following
 
 

@@ -61,7 +61,7 @@ def table_key(frame: pd.DataFrame, declared: Sequence[str] = ()) -> tuple[str, .
         return tuple(declared)
     if declared:
         return None
-    keys = unique_combinations(frame).keys
+    keys = unique_combinations(frame, skip_measurements=True).keys
     return keys[0] if keys else None
 
 

@@ -160,7 +160,7 @@ def _shared_key(left: Subject, right: Subject) -> tuple[str, ...] | None:
                 return tuple(keys)
     if not shared:
         return None
-    for key in unique_combinations(left.frame.body[shared]).keys:
+    for key in unique_combinations(left.frame.body[shared], skip_measurements=True).keys:
         if (
             not right.frame.body[list(key)].duplicated().any()
             and right.frame.body[list(key)].notna().all().all()
