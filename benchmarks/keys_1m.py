@@ -81,8 +81,10 @@ def main() -> None:
     frame, _ = timed(f"build invented table ({rows:,} rows)", lambda: invented_table(rows))
     print(f"table: {frame.shape[0]:,} rows x {frame.shape[1]} columns")
     search, key_s = timed(
-        "weir: minimal unique combinations (<= 3 columns)", lambda: unique_combinations(frame)
+        "weir: minimal unique combinations (<= 3 columns)",
+        lambda: unique_combinations(frame, skip_measurements=True),
     )
+    print(f"  left out as measurements: {', '.join(search.measurements)}")
     print(
         f"  keys found: {[', '.join(k) for k in search.keys][:6]}"
         f" (verified on all rows: {search.verified_on_all_rows})"

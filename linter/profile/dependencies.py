@@ -16,6 +16,12 @@ Null semantics: an empty cell equals every other empty cell of its column (as SQ
 treats NULL); so `site_id -> river` fails when one sample row of a site has an empty river
 and the others a name, which is exactly the data-entry error worth reporting.
 
+Sample first (exact mode, tables longer than `sample_rows`): the lattice is searched on a
+random sample, where a dependency or key that fails is known to fail on all rows; every one
+that holds on the sample is confirmed on all rows before TANE relies on it, so the result is
+exact (the same pruning decisions as on all rows), only cheaper. The approximate mode works
+on all rows (a g3 error on a sample bounds nothing).
+
 Limits: left-hand sides of at most `max_lhs` columns (default 3) among the first
 `max_columns` columns (default 40).
 """
@@ -28,6 +34,7 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from linter.profile.keys import sample_positions
 from linter.profile.partitions import (
     Stripped,
     column_codes,
@@ -42,6 +49,9 @@ from linter.profile.partitions import (
 
 DEFAULT_MAX_LHS = 3
 DEFAULT_MAX_COLUMNS = 40
+DEFAULT_SAMPLE_ROWS = 20_000
+CONFIRM_CACHE_ROWS = 40_000_000
+"""Kept rows, summed over the all-row partitions held for confirmations (about 16 bytes each)."""
 
 
 @dataclass(frozen=True)
@@ -82,6 +92,8 @@ def functional_dependencies(
     max_lhs: int = DEFAULT_MAX_LHS,
     max_error: float = 0.0,
     max_columns: int = DEFAULT_MAX_COLUMNS,
+    sample_rows: int = DEFAULT_SAMPLE_ROWS,
+    seed: int = 0,
 ) -> tuple[Dependency, ...]:
     """Every minimal non-trivial dependency X -> A with |X| <= max_lhs and g3 error <= max_error."""
     names = [str(c) for c in frame.columns][:max_columns]
@@ -90,35 +102,66 @@ def functional_dependencies(
         return ()
     raw = column_codes(frame[names])
     codes = [with_nulls_as_value(raw[n]) for n in names]
-    matrix = np.stack(codes, axis=1) if max_lhs >= 1 else np.zeros((rows, 0), dtype=np.int64)
     budget = int(np.floor(max_error * rows + 1e-9))
+    # Exact mode searches the lattice on a sample and confirms on all rows every decision the
+    # sample cannot make alone (a dependency or key that fails on the sample fails everywhere).
+    sampled = budget == 0 and rows > sample_rows
+    if sampled:
+        at = sample_positions(rows, sample_rows, seed)
+        search = [pd.factorize(c[at])[0].astype(np.int64) for c in codes]
+    else:
+        search = codes
+    n_search = len(search[0])
+    matrix = np.stack(search, axis=1)
     width = len(names)
     everything = (1 << width) - 1
     found: list[tuple[tuple[int, ...], int, int]] = []
 
-    empty = stripped_of(np.zeros(rows, dtype=np.int64))
+    kept: dict[tuple[int, ...], Stripped] = {}
+    room = [CONFIRM_CACHE_ROWS]
+
+    def on_all_rows(columns: tuple[int, ...]) -> Stripped:
+        # Partitions on all rows are built only to confirm, and kept while they fit the budget
+        # (one left side is confirmed against many right sides).
+        if columns in kept:
+            return kept[columns]
+        if not columns:
+            made = stripped_of(np.zeros(rows, dtype=np.int64))
+        elif len(columns) == 1:
+            made = stripped_of(codes[columns[0]])
+        else:
+            made = product(on_all_rows(columns[:-1]), codes[columns[-1]])
+        if made.rows.size <= room[0]:
+            kept[columns] = made
+            room[0] -= made.rows.size
+        return made
+
+    def confirmed(lhs: tuple[int, ...], rhs: int) -> bool:
+        return not sampled or refines(on_all_rows(lhs), codes[rhs])
+
+    empty = stripped_of(np.zeros(n_search, dtype=np.int64))
     previous: dict[tuple[int, ...], Stripped] = {(): empty}
     cplus: dict[tuple[int, ...], int] = {(): everything}
-    level: dict[tuple[int, ...], Stripped | None] = {(a,): stripped_of(codes[a]) for a in range(width)}
+    level: dict[tuple[int, ...], Stripped | None] = {(a,): stripped_of(search[a]) for a in range(width)}
 
     def partition_of(columns: tuple[int, ...]) -> Stripped:
         known = level.get(columns) or previous.get(columns)
         if known is not None:
             return known
-        return stripped_of(combined_codes(dict(enumerate(codes)), columns, rows))  # type: ignore[arg-type]
+        return stripped_of(combined_codes(dict(enumerate(search)), columns, n_search))  # type: ignore[arg-type]
 
-    def breaking(rhs: int, lhs_partition: Stripped, full: Stripped | None) -> int:
+    def breaking(lhs: tuple[int, ...], rhs: int, lhs_partition: Stripped, full: Stripped | None) -> int:
         # Lemma 2 when the partition of X is known; else the direct refinement test (the last
         # level never builds partitions: nothing above it needs them).
-        exact = lhs_partition.error == full.error if full is not None else refines(lhs_partition, codes[rhs])
-        if exact:
+        holds = lhs_partition.error == full.error if full is not None else refines(lhs_partition, search[rhs])
+        if holds and confirmed(lhs, rhs):
             return 0
         return budget + 1 if budget == 0 else _g3_breaking(lhs_partition, codes[rhs])
 
     def subset_fails(lhs: tuple[int, ...], rhs: int) -> bool:
         # A key's dependency X -> A is minimal only if no X minus one column already gives A
         # (within the error budget in approximate mode: the paper's C+ test in PRUNE, done directly).
-        return breaking(rhs, partition_of(lhs), None) > budget
+        return breaking(lhs, rhs, partition_of(lhs), None) > budget
 
     size = 1
     while level and size <= max_lhs + 1:
@@ -135,18 +178,18 @@ def functional_dependencies(
                 for i, a in enumerate(x):
                     if cplus[x] & (1 << a):
                         batched.setdefault(x[:i] + x[i + 1 :], []).append(a)
-        exact: dict[tuple[tuple[int, ...], int], bool] = {}
+        on_sample: dict[tuple[tuple[int, ...], int], bool] = {}
         for lhs, rhs in batched.items():
             flags = refines_each(previous[lhs], matrix, rhs)
-            exact.update(((lhs, a), bool(f)) for a, f in zip(rhs, flags, strict=True))
+            on_sample.update(((lhs, a), bool(f)) for a, f in zip(rhs, flags, strict=True))
         for x, part in level.items():
             for i, a in enumerate(x):
                 if not cplus[x] & (1 << a):
                     continue
                 lhs = x[:i] + x[i + 1 :]
                 if part is not None:
-                    broken = breaking(a, previous[lhs], part)
-                elif exact[lhs, a]:
+                    broken = breaking(lhs, a, previous[lhs], part)
+                elif on_sample[lhs, a] and confirmed(lhs, a):
                     broken = 0
                 else:
                     broken = budget + 1 if budget == 0 else _g3_breaking(previous[lhs], codes[a])
@@ -161,7 +204,7 @@ def functional_dependencies(
         for x, part in level.items():
             if cplus[x] == 0 or part is None:
                 continue
-            if part.error <= budget:
+            if part.error <= budget and (not sampled or on_all_rows(x).error == 0):
                 # X is a (super)key, or within the budget of one: X -> A holds (g3 <= e(X)/n) for
                 # every A, and so does it for every superset; keep only the minimal ones (§4.3).
                 for a in range(width):
@@ -172,7 +215,7 @@ def functional_dependencies(
                 continue
             survivors[x] = part
         size += 1
-        previous, level = survivors, _next_level(survivors, codes, build=size <= max_lhs)
+        previous, level = survivors, _next_level(survivors, search, build=size <= max_lhs)
     return tuple(
         sorted(
             (Dependency(tuple(names[i] for i in lhs), names[a], n / rows, n) for lhs, a, n in found),

@@ -37,10 +37,12 @@ def reference_uccs(frame: pd.DataFrame, max_size: int) -> set[frozenset[str]]:
     return {u for u in found if len(u) <= max_size}
 
 
+@pytest.mark.parametrize("sample_rows", [20_000, 60])  # all rows at once, and sample-then-confirm
 @pytest.mark.parametrize("dataset", sorted(DATASETS))
-def test_exact_dependencies_agree(dataset: str) -> None:
+def test_exact_dependencies_agree(dataset: str, sample_rows: int) -> None:
     frame = DATASETS[dataset]()
-    mine = {(frozenset(d.determinant), d.dependent) for d in functional_dependencies(frame, max_lhs=MAX_LHS)}
+    found = functional_dependencies(frame, max_lhs=MAX_LHS, sample_rows=sample_rows)
+    mine = {(frozenset(d.determinant), d.dependent) for d in found}
     assert mine == reference_fds(frame, MAX_LHS)
     assert mine, "every dataset here has at least one dependency; an empty result would hide a bug"
 
@@ -66,8 +68,10 @@ cells = st.sampled_from(["a", "b", "c", None])
 def test_random_small_tables_agree(grid: list[list[str | None]]) -> None:
     # Source: desbordante as the oracle on random tables, including empty cells and duplicate rows.
     frame = pd.DataFrame(grid, columns=[f"c{i}" for i in range(len(grid[0]))], dtype=object)
-    mine = {(frozenset(d.determinant), d.dependent) for d in functional_dependencies(frame, max_lhs=4)}
-    assert mine == reference_fds(frame, 4)
+    reference = reference_fds(frame, 4)
+    for sample_rows in (20_000, 3):
+        found = functional_dependencies(frame, max_lhs=4, sample_rows=sample_rows)
+        assert {(frozenset(d.determinant), d.dependent) for d in found} == reference
 
 
 @pytest.mark.parametrize("max_error", [0.01, 0.05])
