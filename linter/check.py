@@ -13,6 +13,7 @@ from linter import __version__
 from linter.contract.model import Contract, TableContract
 from linter.findings import Finding, Place, Severity, sort_key
 from linter.read import SUPPORTED_SUFFIXES, UnreadableFile, read_path
+from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
@@ -173,7 +174,9 @@ def check_paths(
                 contract=g.contract.id if g.contract else None,
                 contract_version=g.contract.version if g.contract else None,
                 table=g.rules.name if g.rules else None,
-                findings=tuple(run_inspectors(subject)),
+                findings=attach_excerpts(
+                    run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
+                ),
                 encoding=g.table.encoding,
             )
         )

@@ -139,7 +139,8 @@ class Bench:
     renamed: frozenset[int] = field(default_factory=frozenset)
     """Origin codes of header cells whose text a `rename` step replaced on purpose."""
     carried: tuple[tuple[int, str], ...] = ()
-    """(origin code, output text): input cells that live on inside an output value or name
-    beyond the one code a cell can hold (e.g. the upper row of a joined header that was gathered)."""
+    """(origin code, output text): input cells that live on in an output text beyond the one
+    code a cell can hold (the upper row of a joined header that was gathered; the repeated
+    identifying cells that a spread merged into one row)."""
     step: int = 0
     """1-based number of the step being applied (for messages and records)."""

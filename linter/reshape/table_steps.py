@@ -11,6 +11,9 @@ import pandas as pd
 from linter.reshape.sheet import NO_ORIGIN, Sheet, as_header
 from linter.reshape.steps import Outcome, RecipeError, StepParams, register_sheet_step
 
+EMPTY_HEADER = "header of empty cells"
+"""Drop reason for the header of a gathered column whose cells were all empty (keep_empty off)."""
+
 
 def _need_columns(sheet: Sheet, columns: tuple[str, ...] | list[str]) -> None:
     missing = [c for c in columns if c not in sheet.cells.columns]
@@ -108,13 +111,17 @@ def gather(p: Gather, sheet: Sheet) -> Outcome:
     cells[p.values_to] = sheet.cells[list(p.columns)].to_numpy(dtype=object).ravel()
     origin[p.values_to] = sheet.origin[list(p.columns)].to_numpy().ravel()
     rows = sheet.rows[take]
+    dropped: tuple[tuple[tuple[int, ...], str], ...] = ()
     if not p.keep_empty:
         keep = ~_empty(cells[p.values_to])
+        # a gathered column whose every cell was empty leaves no row: its header goes on purpose
+        gone = [c for c in p.columns if not keep[names == c].any()]
+        dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
         cells, origin, rows = cells[keep], origin[keep], rows[keep]
     carried = tuple((c, name) for name in p.columns for c in (header.get(name) or ())[:-1])
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: (), p.values_to: ()}
     made = replace(sheet.with_frames(cells, origin, rows), header=new_header)
-    return Outcome(made, carried=carried)
+    return Outcome(made, dropped=dropped, carried=carried)
 
 
 @dataclass(frozen=True)
@@ -194,8 +201,12 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
         cells[member] = np.column_stack(stacked_cells).ravel()
         origin[member] = np.column_stack(stacked_codes).ravel()
     rows = sheet.rows[take]
+    dropped: tuple[tuple[tuple[int, ...], str], ...] = ()
     if not p.keep_empty:
         keep = ~np.logical_and.reduce([_empty(cells[m]) for m in members])
+        group_of = cells[p.names_to].to_numpy()
+        gone = [c for c, m in matched.items() if not keep[group_of == m.group(id_group)].any()]
+        dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
         cells, origin, rows = cells[keep], origin[keep], rows[keep]
     carried = tuple((c, m.group(id_group)) for col, m in matched.items() for c in header.get(col, ()))
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: ()}
@@ -204,7 +215,7 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
             c for g in group_ids if (g, member) in column_of for c in header.get(column_of[(g, member)], ())
         )
     made = replace(sheet.with_frames(cells, origin, rows), header=new_header)
-    return Outcome(made, carried=carried)
+    return Outcome(made, dropped=dropped, carried=carried)
 
 
 @dataclass(frozen=True)
@@ -280,8 +291,16 @@ def spread(p: Spread, sheet: Sheet) -> Outcome:
     if (~named & ~_empty(sheet.cells[p.values_from])).any():
         lost = tuple(int(c) for c in value_codes[~named & ~_empty(sheet.cells[p.values_from])] if c >= 0)
         notes.append(("unnamed", f"value(s) whose {p.names_from!r} is empty have no column to go to", lost))
+    # The identifying cells of a group's later rows equal its first row's: they live on there.
+    later = np.ones(n, dtype=bool)
+    later[first] = False
+    id_texts = sheet.cells[ids].to_numpy(dtype=object)[later]
+    id_codes = sheet.origin[ids].to_numpy()[later]
+    carried = tuple(
+        (int(c), str(t)) for c, t in zip(id_codes.ravel(), id_texts.ravel(), strict=True) if c >= 0 and t
+    )
     made = replace(sheet.with_frames(cells, origin, sheet.rows[first]), header=new_header)
-    return Outcome(made, dropped=((labels, "layout label"),), notes=tuple(notes))
+    return Outcome(made, dropped=((labels, "layout label"),), notes=tuple(notes), carried=carried)
 
 
 @dataclass(frozen=True)

@@ -3,8 +3,13 @@
 from linter.rules import (  # noqa: F401
     columns,
     comparisons,
+    gate,
     header,
     keys,
+    layout_cells,
+    layout_headers,
+    layout_margins,
+    layout_rows,
     reading,
     references,
     submission_units,
