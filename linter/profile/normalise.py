@@ -161,6 +161,9 @@ def propose_split(
     everything = frozenset(columns)
     whole_key = frozenset(key)
     relevant = [d for d in dependencies if d[0] <= everything and d[1] in everything and d[1] not in d[0]]
+    # The key determines every column by definition, even where the given (minimal) dependencies
+    # only imply it through a constant column's empty determinant.
+    relevant += [(whole_key, c) for c in columns if c not in whole_key and (whole_key, c) not in relevant]
     order = {c: i for i, c in enumerate(columns)}
     sets = bcnf_tables(everything, relevant, order, whole_key)
     lost = tuple(d for d in canonical_cover(relevant) if not preserved(d, sets, relevant))
@@ -173,7 +176,13 @@ def propose_split(
         keyed.append((table, tuple(sorted(found, key=order.__getitem__))))
     names: dict[frozenset[str], str] = {}
     for table, table_key in keyed:
-        names[table] = name if whole_key <= table else table_name(table_key)
+        wanted = name if whole_key <= table else table_name(table_key)
+        taken = set(names.values())
+        names[table] = (
+            wanted
+            if wanted not in taken
+            else next(f"{wanted}_{i}" for i in range(2, len(keyed) + 2) if f"{wanted}_{i}" not in taken)
+        )
     units = []
     for table, table_key in sorted(keyed, key=lambda t: (not whole_key <= t[0], min(order[c] for c in t[0]))):
         refers = tuple(
