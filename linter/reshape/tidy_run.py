@@ -19,7 +19,7 @@ from linter.reshape.audit import Audit, audit
 from linter.reshape.normalise import JoinAudit, SplitByUnit, UnitTable, audit_split
 from linter.reshape.recipe import Recipe, load_recipe
 from linter.reshape.search import Candidate, search
-from linter.reshape.steps import RecipeError, step_from_json
+from linter.reshape.steps import RecipeError, StepParams, step_from_json
 from linter.table import Table
 
 
@@ -43,7 +43,7 @@ class TidyResult:
 def _without_empty_rows(recipe: Recipe, keep_empty: bool) -> Recipe:
     if keep_empty:
         return recipe
-    steps = []
+    steps: list[StepParams] = []
     for step in recipe.steps:
         data = step.to_json()
         if "keep_empty" in data:
