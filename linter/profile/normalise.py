@@ -174,6 +174,11 @@ def propose_split(
     for table in sets:
         found = whole_key if whole_key <= table else _smallest_key(table, relevant, order)
         keyed.append((table, tuple(sorted(found, key=order.__getitem__))))
+    # Tables with the same key describe the same unit (their join is one to one): one table each.
+    merged: dict[frozenset[str], frozenset[str]] = {}
+    for table, table_key in keyed:
+        merged[frozenset(table_key)] = merged.get(frozenset(table_key), frozenset()) | table
+    keyed = [(table, tuple(sorted(k, key=order.__getitem__))) for k, table in merged.items()]
     names: dict[frozenset[str], str] = {}
     for table, table_key in keyed:
         wanted = name if whole_key <= table else table_name(table_key)

@@ -37,7 +37,7 @@ def reference_uccs(frame: pd.DataFrame, max_size: int) -> set[frozenset[str]]:
     return {u for u in found if len(u) <= max_size}
 
 
-@pytest.mark.parametrize("sample_rows", [20_000, 60, 20])  # all rows; sample then confirm; two samples
+@pytest.mark.parametrize("sample_rows", [20_000, 60, 6])  # all rows; sample then confirm; two samples
 @pytest.mark.parametrize("dataset", sorted(DATASETS))
 def test_exact_dependencies_agree(dataset: str, sample_rows: int) -> None:
     frame = DATASETS[dataset]()
@@ -74,9 +74,10 @@ def test_random_small_tables_agree(grid: list[list[str | None]]) -> None:
         assert {(frozenset(d.determinant), d.dependent) for d in found} == reference
 
 
+@pytest.mark.parametrize("sample_rows", [20_000, 100])  # all rows; a sample's lower bound refutes first
 @pytest.mark.parametrize("max_error", [0.01, 0.05])
 @pytest.mark.parametrize("dataset", sorted(DATASETS))
-def test_approximate_dependencies_agree(dataset: str, max_error: float) -> None:
+def test_approximate_dependencies_agree(dataset: str, max_error: float, sample_rows: int) -> None:
     # Source: desbordante's TANE for approximate dependencies with the g3 measure (Huhtala et al. 1999).
     frame = DATASETS[dataset]()
     algorithm = desbordante.afd.algorithms.Tane()
@@ -86,7 +87,7 @@ def test_approximate_dependencies_agree(dataset: str, max_error: float) -> None:
     reference = {
         (frozenset(names[i] for i in fd.lhs_indices), names[fd.rhs_index]) for fd in algorithm.get_fds()
     }
-    found = functional_dependencies(frame, max_lhs=2, max_error=max_error)
+    found = functional_dependencies(frame, max_lhs=2, max_error=max_error, sample_rows=sample_rows)
     assert {(frozenset(d.determinant), d.dependent) for d in found} == reference
     assert all(d.breaking_rows <= max_error * len(frame) for d in found)
 
