@@ -179,6 +179,8 @@ def propose_split(
     for table, table_key in keyed:
         merged[frozenset(table_key)] = merged.get(frozenset(table_key), frozenset()) | table
     keyed = [(table, tuple(sorted(k, key=order.__getitem__))) for k, table in merged.items()]
+    # A table inside another (site_name, river of sites) is a projection of it: drop it (3NF rule).
+    keyed = [(t, k) for t, k in keyed if whole_key <= t or not any(t < other for other, _ in keyed)]
     names: dict[frozenset[str], str] = {}
     for table, table_key in keyed:
         wanted = name if whole_key <= table else table_name(table_key)
