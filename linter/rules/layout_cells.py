@@ -88,6 +88,18 @@ def _range(label: str, texts: list[str]) -> dict[str, object] | None:
     return {"pattern": pattern, "into": [f"{name}_from", f"{name}_to"], "kind": "range"}
 
 
+NUMBER_PAIR = re.compile(r"^\s*\d+(?:\.\d+)?\s*/\s*\d+(?:\.\d+)?\s*$")
+
+
+def _number_pair(label: str, texts: list[str]) -> dict[str, object] | None:
+    """Two numbers joined by a slash (`3/7`, `745/19987071`): a count and its total, say."""
+    if sum(bool(NUMBER_PAIR.match(t)) for t in texts) < MATCH_SHARE * len(texts) or len(texts) < 2:
+        return None
+    name = slug(label)
+    pattern = rf"^\s*(?P<{name}_1>\d+(?:\.\d+)?)\s*/\s*(?P<{name}_2>\d+(?:\.\d+)?)\s*$"
+    return {"pattern": pattern, "into": [f"{name}_1", f"{name}_2"], "kind": "two numbers"}
+
+
 def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
     """Two codes joined by one separator whose parts cross like two variables (m/014, f/014, ...)."""
     for sep in SEPARATORS:
@@ -116,7 +128,12 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
         texts = _texts(frame, label)
         if len(texts) < 2:
             continue
-        found = _value_unit(label, texts) or _range(label, texts) or _crossed_codes(label, texts)
+        found = (
+            _value_unit(label, texts)
+            or _range(label, texts)
+            or _number_pair(label, texts)
+            or _crossed_codes(label, texts)
+        )
         if found is None:
             continue
         variable = contract.variable(label) if contract else None
@@ -163,6 +180,16 @@ def find_list_cells(table: Table, contract: TableContract | None = None) -> list
             sizes = Counter(len(t.split(sep)) for t in texts)
             vocabulary = set(items)
             if len(sizes) < 2 or len(vocabulary) > 0.8 * len(items):
+                continue
+            # Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
+            # the parts of "Surname, Given" always come together in the same one cell.
+            cells_of: dict[str, set[str]] = {}
+            for text in set(texts):
+                for item in text.split(sep):
+                    cells_of.setdefault(item.strip(), set()).add(text)
+            multi = [t for t in set(texts) if sep in t]
+            shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
+            if len(shared) < 0.5 * len(multi):
                 continue
             findings.append(
                 layout_finding(

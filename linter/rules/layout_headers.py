@@ -268,7 +268,7 @@ def _all_counts(frame: Frame, run: list[str]) -> bool:
 
 
 GROUP_ID_FIRST = re.compile(r"^(?P<stem>.*?\D)?(?P<id>\d+)(?P<sep>[ _.:-]+)(?P<member>[^\d\s].*)$")
-GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]+)(?P<id>\d+)$")
+GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]*)(?P<id>\d+)$")
 
 
 def find_repeated_groups(table: Table, contract: TableContract | None = None) -> list[Finding]:

@@ -127,7 +127,24 @@ def _holds_values(
         len(declared & set(levels)) >= 2
         or len(by_kind) >= 2
         or sum(bool(PAIRED.search(level)) for level in levels) >= 2
+        or (not any(UNIT_NAME.match(c) for c in others) and _scales_differ(body, names, levels, values_col))
     )
+
+
+UNIT_NAME = re.compile(r"^(units?|uom|unit_of_measure)$", re.I)
+SCALE_GAP = 1000.0
+"""Median magnitudes this far apart mean the names are different quantities (cases vs population)."""
+
+
+def _scales_differ(body: pd.DataFrame, names: pd.Series, levels: list[str], values_col: str) -> bool:
+    medians = []
+    for level in levels:
+        numbers = pd.to_numeric(body.loc[names == level, values_col], errors="coerce").abs().dropna()
+        if numbers.empty:
+            return False
+        medians.append(float(numbers.median()))
+    low, high = min(medians), max(medians)
+    return low > 0 and high / low >= SCALE_GAP
 
 
 def find_variables_in_rows(table: Table, contract: TableContract | None = None) -> list[Finding]:
