@@ -72,6 +72,12 @@ def _data_span(filled: list[list[int]]) -> tuple[int, int] | None:
     return (wide[0], wide[-1]) if wide else None
 
 
+def _reads_as_note(table: Table, index: int, filled: list[int]) -> bool:
+    """A lone cell under the data is a note when it says so or is a sentence, not a short value."""
+    text = str(table.grid.iat[index, filled[0]])
+    return bool(NOTE_LABEL.match(text)) or len(text.split()) >= 3
+
+
 def find_totals_and_notes(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
     if grid.shape[1] < 2 or grid.shape[0] < 2:
@@ -82,7 +88,7 @@ def find_totals_and_notes(table: Table, contract: TableContract | None = None) -
         return []
     first, last = span
     titles = [i for i in range(first) if len(filled[i]) == 1]
-    notes = [i for i in range(last + 1, len(filled)) if filled[i]]
+    notes = [i for i in range(last + 1, len(filled)) if filled[i] and _reads_as_note(table, i, filled[i])]
     for i in range(first + 1, last + 1):
         if len(filled[i]) == 1 and NOTE_LABEL.match(str(grid.iat[i, filled[i][0]])):
             notes.append(i)

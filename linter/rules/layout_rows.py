@@ -268,16 +268,27 @@ def find_section_titles(table: Table, contract: TableContract | None = None) -> 
     ]
 
 
+def _nested(body: pd.DataFrame, left: list[str], chosen: list[str], empty_rows: list[int]) -> bool:
+    """A "same as above" blank sits inside its group: every column to its left repeats the row above."""
+    if not left:
+        return True
+    view = body[left].copy()
+    if chosen:
+        view[chosen] = view[chosen].ffill()
+    rows = [i for i in empty_rows[:500] if i > 0]
+    return all(view.iloc[i].tolist() == view.iloc[i - 1].tolist() for i in rows)
+
+
 def find_same_as_above(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = first_row_header(table)
     body = frame.body
     if len(body) < 3 or len(frame.labels) < 2:
         return []
     chosen: list[str] = []
-    for label in frame.labels[:3]:
+    for position, label in enumerate(frame.labels[:3]):
         column = body[label].tolist()
         kind = dominant_kind(sample(column))[0]
-        if kind == "number" and not chosen:
+        if kind == "number":
             break
         empties = sum(blank(v) for v in column)
         values = [v for v in column if not blank(v)]
@@ -288,6 +299,8 @@ def find_same_as_above(table: Table, contract: TableContract | None = None) -> l
         rest = body.drop(columns=[label])
         empty_rows = [i for i, v in enumerate(column) if blank(v)]
         if any(rest.iloc[i].isna().all() for i in empty_rows[:200]):
+            continue
+        if not _nested(body, list(frame.labels[:position]), chosen, empty_rows):
             continue
         chosen.append(label)
     if not chosen:
