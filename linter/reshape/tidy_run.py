@@ -17,7 +17,7 @@ from linter.reshape.apply import apply_recipe, output_name
 from linter.reshape.audit import Audit, audit
 from linter.reshape.recipe import Recipe, load_recipe
 from linter.reshape.search import Candidate, search
-from linter.reshape.steps import RecipeError, step_from_json
+from linter.reshape.steps import RecipeError, StepParams, step_from_json
 from linter.table import Table
 
 
@@ -37,7 +37,7 @@ class TidyResult:
 def _without_empty_rows(recipe: Recipe, keep_empty: bool) -> Recipe:
     if keep_empty:
         return recipe
-    steps = []
+    steps: list[StepParams] = []
     for step in recipe.steps:
         data = step.to_json()
         if "keep_empty" in data:

@@ -9,10 +9,10 @@ from collections.abc import Iterable
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_place import layout_finding
-from linter.rules.layout_signals import blank, cell_kind, sample, slug
+from linter.rules.layout_signals import blank, cell_kind, frame_of, sample, slug
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
-from linter.table import Frame, Table, first_row_header
+from linter.table import Frame, Table
 
 PACKED_COLUMN = define_rule(
     "layout.packed-column",
@@ -122,7 +122,7 @@ def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
 
 
 def find_packed_column(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     findings: list[Finding] = []
     for label in frame.labels:
         texts = _texts(frame, label)
@@ -164,7 +164,7 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
 
 
 def find_list_cells(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     findings: list[Finding] = []
     for label in frame.labels:
         texts = _texts(frame, label)

@@ -3,14 +3,19 @@
 from __future__ import annotations
 
 import re
+import weakref
 from collections import Counter
-from collections.abc import Iterable, Sequence
+from collections.abc import Callable, Iterable, Sequence
+from typing import Generic, TypeVar
 
+import numpy as np
 import pandas as pd
 
-from linter.table import Table
+from linter.table import Frame, Table, first_row_header
 
-SAMPLE_ROWS = 2000
+T = TypeVar("T")
+
+SAMPLE_ROWS = 1000
 """Heuristics look at most at this many rows (spread over the table) so inference stays O(rows)."""
 
 NUMBER = re.compile(r"^[<>]?\s*[+-]?(\d{1,3}(,\d{3})+|\d+)?(\.\d+)?([eE][+-]?\d+)?$")
@@ -84,11 +89,42 @@ def header_value_kind(label: str) -> str | None:
 
 def sample(values: Sequence[object] | pd.Series) -> list[object]:
     """At most SAMPLE_ROWS values spread evenly over the sequence."""
-    items = list(values) if not isinstance(values, pd.Series) else values.tolist()
-    if len(items) <= SAMPLE_ROWS:
-        return items
-    stride = len(items) / SAMPLE_ROWS
-    return [items[int(i * stride)] for i in range(SAMPLE_ROWS)]
+    if len(values) <= SAMPLE_ROWS:
+        return values.tolist() if isinstance(values, pd.Series) else list(values)
+    picks = (np.arange(SAMPLE_ROWS) * (len(values) / SAMPLE_ROWS)).astype(int)
+    if isinstance(values, pd.Series):
+        return values.iloc[picks].tolist()
+    return [values[int(i)] for i in picks]
+
+
+class PerGrid(Generic[T]):
+    """Remembers one derived value per grid (by identity) while the grid lives.
+
+    Twelve detectors look at the same table; reading its header or its filled cells once
+    instead of twelve times keeps layout inference a small fraction of reading a large file.
+    """
+
+    def __init__(self) -> None:
+        self._values: dict[int, tuple[weakref.ref[pd.DataFrame], T]] = {}
+
+    def get(self, grid: pd.DataFrame, make: Callable[[], T]) -> T:
+        key = id(grid)
+        held = self._values.get(key)
+        if held is not None and held[0]() is grid:
+            return held[1]
+        value = make()
+        self._values[key] = (weakref.ref(grid, lambda _, k=key: self._values.pop(k, None)), value)
+        return value
+
+
+_FRAMES: PerGrid[Frame] = PerGrid()
+_MASKS: PerGrid[np.ndarray] = PerGrid()
+
+
+def frame_of(table: Table) -> Frame:
+    """`first_row_header(table)`, computed once per grid however many detectors ask for it."""
+    frame = _FRAMES.get(table.grid, lambda: first_row_header(table))
+    return frame if frame.table is table else first_row_header(table)
 
 
 def kinds(values: Iterable[object]) -> Counter[str]:
@@ -143,3 +179,30 @@ def slug(text: str) -> str:
     """A column name made from free text: lowercase words joined by underscores."""
     words = re.findall(r"[0-9A-Za-z]+", text.lower())
     return "_".join(words) or "value"
+
+
+def filled_mask(grid: pd.DataFrame) -> np.ndarray:
+    """True for every non-empty cell of the grid (vectorised: margins are checked on every row)."""
+    return _MASKS.get(grid, lambda: _filled_mask(grid))
+
+
+def _filled_mask(grid: pd.DataFrame) -> np.ndarray:
+    if grid.size == 0:
+        return np.zeros(grid.shape, dtype=bool)
+    columns = []
+    for index in range(grid.shape[1]):
+        column = grid.iloc[:, index]
+        present = column.notna().to_numpy().copy()
+        if present.any():
+            text = column[present]
+            present[present] = ~(text.str.isspace() | (text == "")).to_numpy(dtype=bool)
+        columns.append(present)
+    return np.column_stack(columns)
+
+
+def row_fill(grid: pd.DataFrame) -> tuple[np.ndarray, np.ndarray]:
+    """For each row: how many cells are filled, and the index of its first filled cell (0 if none)."""
+    mask = filled_mask(grid)
+    if mask.size == 0:
+        return np.zeros(grid.shape[0], dtype=int), np.zeros(grid.shape[0], dtype=int)
+    return mask.sum(axis=1), mask.argmax(axis=1)
