@@ -290,6 +290,7 @@ BUILDERS: list[Callable[[random.Random], None]] = [
 
 
 def main() -> None:
+    from fresh_cases import fresh_tables
     from tidy_cases import tidy_tables
     from wickham_cases import wickham_tables
 
@@ -300,6 +301,8 @@ def main() -> None:
         case(name, "tidy", rows, rows)
     for name, (messy, tidy) in wickham_tables().items():
         case(name, "tidy-data-paper", messy, tidy)
+    for name, (family, messy, tidy) in fresh_tables().items():
+        case(name, family, messy, tidy)
     for folder in HERE.iterdir():
         if folder.is_dir() and (folder / "case.yaml").exists():
             shutil.rmtree(folder)
