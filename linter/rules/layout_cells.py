@@ -111,8 +111,8 @@ def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
         combos = {(p[0].strip(), p[1].strip()) for p in parts}
         if len(left) < 2 or len(right) < 2 or len(combos) < 0.5 * len(left) * len(right):
             continue
-        if len(combos) == len(texts) and len(texts) > 6:
-            continue  # every value unique: an identifier, not two variables
+        if len(combos) == len(texts):
+            continue  # every value unique: an identifier (a bottle, a sample), not two variables
         if any(cell_kind(t) != "text" for t in texts):
             return None
         name = slug(label)

@@ -17,6 +17,7 @@ from linter.rules.layout_signals import (
     is_number,
     sample,
     shared_stem,
+    sideways_by_names,
     slug,
 )
 from linter.rules.registry import define_rule, inspector
@@ -234,8 +235,9 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
     grouped = {c for found in find_repeated_groups(table) for c in found.place.columns}
     runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
     taken = grouped | {c for r, _ in runs for c in r}
-    runs += _code_runs(frame, taken)
-    runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
+    if not sideways_by_names(table):  # ids across the top of a sideways table are observations
+        runs += _code_runs(frame, taken)
+        runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []
     present = set(frame.labels)
     for run, kind in runs:

@@ -21,6 +21,7 @@ from linter.rules.layout_signals import (
     frame_of,
     row_fill,
     sample,
+    sideways_by_names,
 )
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
@@ -222,7 +223,7 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
     column_shares = [dominant_kind(grid.iloc[1:, j].tolist())[1] for j in range(1, grid.shape[1])]
     mixed = len(set(row_kinds) - {"empty"}) >= 2 and max(column_shares) < 0.85
     named = len(declared & {str(v) for v in firsts}) >= 2 and len(declared & set(map(str, grid.iloc[0]))) < 2
-    if not (mixed or named):
+    if not (mixed or named or sideways_by_names(table)):
         return []
     return [
         layout_finding(

@@ -206,3 +206,37 @@ def row_fill(grid: pd.DataFrame) -> tuple[np.ndarray, np.ndarray]:
     if mask.size == 0:
         return np.zeros(grid.shape[0], dtype=int), np.zeros(grid.shape[0], dtype=int)
     return mask.sum(axis=1), mask.argmax(axis=1)
+
+
+def shape(text: str) -> str:
+    """Letters become a, digits 9, runs collapsed: 'VB-014' -> 'a-9'."""
+    return re.sub(r"\d+", "9", re.sub(r"[A-Za-z]+", "a", text.strip()))
+
+
+NAME_LIKE = re.compile(r"^[A-Za-z][A-Za-z0-9_ ()/.%-]*$")
+
+
+def sideways_by_names(table: Table) -> bool:
+    """A table whose first column names variables and whose header names observations (ids).
+
+    The header cells after the first share one shape made of letters and digits (`VB-014`,
+    `VB-015`), which is how identifiers look, not years, dates or numbers; the first column's
+    cells are distinct names; every row holds one kind of value.
+    """
+    grid = table.grid
+    if not 3 <= grid.shape[0] <= 500 or grid.shape[1] < 3:
+        return False
+    heads = [str(v).strip() for v in grid.iloc[0, 1:].tolist() if not blank(v)]
+    shapes = {shape(h) for h in heads}
+    if len(heads) < grid.shape[1] - 1 or len(shapes) != 1:
+        return False
+    common = next(iter(shapes))
+    if "a" not in common or "9" not in common or any(header_value_kind(h) for h in heads):
+        return False
+    names = [str(v).strip() for v in grid.iloc[1:, 0].tolist()]
+    if any(not NAME_LIKE.match(n) for n in names) or len(set(names)) != len(names):
+        return False
+    digit_shapes = Counter(shape(n) for n in names if any(c.isdigit() for c in n))
+    if digit_shapes and digit_shapes.most_common(1)[0][1] * 2 >= len(names):
+        return False  # the first column holds identifiers (VB-014, VB-015), not variable names
+    return all(dominant_kind(grid.iloc[i, 1:].tolist())[1] >= 0.9 for i in range(1, grid.shape[0]))
