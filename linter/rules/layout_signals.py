@@ -10,6 +10,8 @@ from typing import Generic, TypeVar
 
 import numpy as np
 import pandas as pd
+import pyarrow as pa
+import pyarrow.compute as pc
 
 from linter.table import Frame, Table, first_row_header
 
@@ -113,7 +115,11 @@ class PerGrid(Generic[T]):
         if held is not None and held[0]() is grid:
             return held[1]
         value = make()
-        self._values[key] = (weakref.ref(grid, lambda _, k=key: self._values.pop(k, None)), value)
+
+        def forget(_: object) -> None:
+            self._values.pop(key, None)
+
+        self._values[key] = (weakref.ref(grid, forget), value)
         return value
 
 
@@ -191,12 +197,9 @@ def _filled_mask(grid: pd.DataFrame) -> np.ndarray:
         return np.zeros(grid.shape, dtype=bool)
     columns = []
     for index in range(grid.shape[1]):
-        column = grid.iloc[:, index]
-        present = column.notna().to_numpy().copy()
-        if present.any():
-            text = column[present]
-            present[present] = ~(text.str.isspace() | (text == "")).to_numpy(dtype=bool)
-        columns.append(present)
+        cells = pa.array(grid.iloc[:, index].to_numpy(dtype=object), type=pa.string(), from_pandas=True)
+        length = pc.utf8_length(pc.utf8_trim_whitespace(cells))
+        columns.append(pc.fill_null(pc.greater(length, 0), False).to_numpy(zero_copy_only=False))
     return np.column_stack(columns)
 
 
