@@ -134,14 +134,17 @@ def read_sheet(ws: Worksheet | ReadOnlyWorksheet, path: str, limits: ReadLimits)
     hidden = sorted(r for r, dim in ws.row_dimensions.items() if dim.hidden and r <= last_row)
     if hidden:
         notes.append(ReadNote("hidden-rows", f"{len(hidden)} row(s) are hidden.", rows=tuple(hidden)))
-    hidden_cols = sorted(
-        {
-            column_letter(c - 1)
-            for dim in ws.column_dimensions.values()
-            if dim.hidden and dim.min is not None
-            for c in range(dim.min, min(dim.max or dim.min, last_col) + 1)
-        }
-    )
+    hidden_cols = [
+        column_letter(c - 1)
+        for c in sorted(
+            {
+                c
+                for dim in ws.column_dimensions.values()
+                if dim.hidden and dim.min is not None
+                for c in range(dim.min, min(dim.max or dim.min, last_col) + 1)
+            }
+        )
+    ]
     if hidden_cols:
         notes.append(
             ReadNote(

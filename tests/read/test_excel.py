@@ -183,3 +183,16 @@ def test_large_workbook_is_streamed_with_the_same_cells(workbook: Path) -> None:
     assert "streamed-workbook" in kinds(streamed[0])
     assert "hidden-sheet" in kinds(streamed[1])
     assert streamed[0].merged_ranges == ()  # streaming mode cannot see them; the note says so
+
+
+def test_hidden_columns_are_listed_in_sheet_order(tmp_path: Path) -> None:
+    wb = Workbook()
+    ws = wb.active
+    assert ws is not None
+    ws.append([f"c{i}" for i in range(30)])
+    ws.append(list(range(30)))
+    for letter in ("AB", "C"):
+        ws.column_dimensions[letter].hidden = True
+    wb.save(tmp_path / "wide.xlsx")
+    note = next(n for n in read_path(str(tmp_path / "wide.xlsx"))[0].notes if n.kind == "hidden-columns")
+    assert note.examples == ("C", "AB")
