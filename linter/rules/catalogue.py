@@ -1,3 +1,13 @@
 """Imports every rule family so that its rules and inspectors are registered."""
 
-from linter.rules import header, reading, unreadable  # noqa: F401
+from linter.rules import (  # noqa: F401
+    columns,
+    comparisons,
+    header,
+    keys,
+    reading,
+    references,
+    unreadable,
+    value_codes,
+    values,
+)
