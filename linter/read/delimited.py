@@ -11,7 +11,7 @@ from contextlib import contextmanager
 import pandas as pd
 
 from linter.read.encoding import Decoding
-from linter.read.errors import UnreadableFile
+from linter.read.errors import UnreadableFile, too_many_cells
 from linter.read.limits import ReadLimits
 from linter.read.lines import LineScanner
 from linter.table import ReadNote, Table
@@ -93,6 +93,7 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
         scanner = LineScanner(handle, limits.max_line_chars)
         reader = csv.reader(iter(scanner), delimiter=delimiter, quotechar='"', doublequote=True, strict=False)
         consumed = 0
+        cell_count = 0
         while True:
             start = consumed + 1
             try:
@@ -118,6 +119,9 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
                     f"Line {start} has {len(record):,} cells, more than the limit of {limits.max_columns:,}.",
                     "Check the delimiter and send the table with one column per variable.",
                 )
+            cell_count += len(record)
+            if cell_count > limits.max_cells:
+                raise too_many_cells(limits)
             if len(rows) >= limits.max_rows:
                 raise UnreadableFile(
                     "file.too-many-rows",

@@ -16,7 +16,7 @@ from openpyxl.worksheet._read_only import ReadOnlyWorksheet
 from openpyxl.worksheet.worksheet import Worksheet
 
 from linter.read.cells import cell_text
-from linter.read.errors import UnreadableFile
+from linter.read.errors import UnreadableFile, too_many_cells
 from linter.read.formulas import uncached_formulas
 from linter.read.limits import ReadLimits
 from linter.table import ReadNote, Table, column_letter
@@ -105,6 +105,8 @@ def read_sheet(ws: Worksheet | ReadOnlyWorksheet, path: str, limits: ReadLimits)
         text = shown_text(cell)
         if text is not None:
             texts[(row, col)] = text
+            if len(texts) > limits.max_cells:
+                raise too_many_cells(limits)
     if not texts:
         return None
     last_row = max(r for r, _ in texts)
