@@ -16,6 +16,9 @@ GUESS_SAMPLE_BYTES = 256 * 1024
 
 # Source: The Unicode Standard §23.8 (byte order mark): EF BB BF, FF FE, FE FF.
 BOMS: tuple[tuple[bytes, str, str], ...] = (
+    # UTF-32 first: its little-endian mark FF FE 00 00 begins with UTF-16's FF FE.
+    (codecs.BOM_UTF32_LE, "utf-32", "UTF-32 little-endian"),
+    (codecs.BOM_UTF32_BE, "utf-32", "UTF-32 big-endian"),
     (codecs.BOM_UTF8, "utf-8-sig", "UTF-8 with a byte order mark"),
     (codecs.BOM_UTF16_LE, "utf-16", "UTF-16 little-endian"),
     (codecs.BOM_UTF16_BE, "utf-16", "UTF-16 big-endian"),

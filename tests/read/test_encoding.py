@@ -36,9 +36,11 @@ def test_utf8_with_bom_drops_the_mark_from_the_first_name() -> None:
     [
         (b"\xff\xfe", "utf-16-le"),  # Source: Unicode §23.8: UTF-16LE BOM is FF FE.
         (b"\xfe\xff", "utf-16-be"),  # Source: Unicode §23.8: UTF-16BE BOM is FE FF.
+        (b"\xff\xfe\x00\x00", "utf-32-le"),  # Source: Unicode §23.8: UTF-32LE BOM is FF FE 00 00.
+        (b"\x00\x00\xfe\xff", "utf-32-be"),  # Source: Unicode §23.8: UTF-32BE BOM is 00 00 FE FF.
     ],
 )
-def test_utf16_with_bom(bom: bytes, codec: str) -> None:
+def test_utf16_and_utf32_with_bom(bom: bytes, codec: str) -> None:
     table = read_one("a.csv", bom + TEXT.encode(codec))
     assert cells(table) == EXPECTED
     assert "encoding" in kinds(table)
