@@ -45,7 +45,9 @@ def read_parquet(path: str, limits: ReadLimits) -> Table:
         if meta.num_columns * meta.num_rows > limits.max_cells:
             raise too_many_cells(limits)
         data = parquet.read()
-    except (pa.ArrowException, ValueError) as error:
+    except (pa.ArrowException, ValueError, OSError) as error:
+        # pyarrow reports damaged metadata as OSError ("Couldn't deserialize thrift"); the file
+        # itself was already opened and read by read_path, so here it means corrupt content.
         raise UnreadableFile(
             "file.corrupt",
             f"The Parquet file cannot be read: {error}.",

@@ -196,3 +196,15 @@ def test_hidden_columns_are_listed_in_sheet_order(tmp_path: Path) -> None:
     wb.save(tmp_path / "wide.xlsx")
     note = next(n for n in read_path(str(tmp_path / "wide.xlsx"))[0].notes if n.kind == "hidden-columns")
     assert note.examples == ("C", "AB")
+
+
+def test_archive_needing_an_unknown_zip_version_is_corrupt(workbook: Path) -> None:
+    # Source: PKWARE APPNOTE 4.3.12: a central directory header (50 4B 01 02) holds "version
+    # needed to extract" at offset 6. Regression: found by a mutation run, zipfile raised
+    # NotImplementedError out of the reader.
+    data = bytearray(workbook.read_bytes())
+    at = data.index(b"PK\x01\x02")
+    data[at + 6 : at + 8] = (240).to_bytes(2, "little")
+    with pytest.raises(UnreadableFile) as caught:
+        read_path(write("v.xlsx", bytes(data)))
+    assert caught.value.rule == "file.corrupt"
