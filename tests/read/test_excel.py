@@ -208,3 +208,13 @@ def test_archive_needing_an_unknown_zip_version_is_corrupt(workbook: Path) -> No
     with pytest.raises(UnreadableFile) as caught:
         read_path(write("v.xlsx", bytes(data)))
     assert caught.value.rule == "file.corrupt"
+
+
+def test_highly_compressed_sheet_is_refused_with_default_limits(workbook: Path) -> None:
+    # 8 MB of padding deflates about 1000:1, far past the 200:1 a real sheet reaches; the check
+    # reads only the archive's declared sizes, so nothing is inflated.
+    patch_member(workbook, "xl/worksheets/sheet1.xml", "<sheetData>", "<sheetData>" + " " * 8_000_000)
+    assert workbook.stat().st_size < 200_000
+    with pytest.raises(UnreadableFile) as caught:
+        read_path(str(workbook))
+    assert caught.value.rule == "file.zip-bomb"
