@@ -6,7 +6,6 @@ from collections.abc import Callable
 from pathlib import Path
 
 import typer
-from rich.console import Console
 
 from linter.cli.app import app, guarded
 from linter.errors import WeirError
@@ -73,6 +72,8 @@ def check(
     fail_on: Severity | None = typer.Option(None, "--fail-on", help="Lowest severity that fails."),
     verbose: bool = typer.Option(False, "--verbose", "-v", help="Show every finding in the summary."),
 ) -> int:
+    from rich.console import Console
+
     from linter.check import check_paths
     from linter.config import contract_paths, find_settings
     from linter.report import console as console_report
