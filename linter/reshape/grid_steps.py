@@ -93,7 +93,7 @@ def _transpose_code(p: Transpose) -> list[str]:
     return [
         "df = df.T",
         "df.index = range(1, len(df) + 1)",
-        "df.columns = [letter(i) for i in range(df.shape[1])]",
+        "df.columns = [column_letter(i) for i in range(df.shape[1])]",
     ]
 
 
@@ -212,7 +212,7 @@ def _lift_titles_code(p: LiftTitles) -> list[str]:
     ]
 
 
-@register_sheet_step(LiftTitles, grid_level=False, code=_lift_titles_code)
+@register_sheet_step(LiftTitles, grid_level=True, code=_lift_titles_code)
 def lift_titles(p: LiftTitles, sheet: Sheet) -> Outcome:
     missing = _missing_rows(sheet, p.rows)
     if missing:

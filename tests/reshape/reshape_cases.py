@@ -152,6 +152,92 @@ STEP_CASES: list[tuple[str, Grid, list[dict[str, Any]], Grid]] = [
     ),
 ]
 
+# Multi-step and corner cases: they run through apply, the audit and the generated code alike.
+STEP_CASES += [
+    (
+        "lift_titles-on-raw-grid-then-header",
+        [["site", "ph"], ["Upper Vell", None], ["VB-014", "7.1"], ["VB-015", "7.0"]],
+        [{"step": "lift_titles", "rows": [2], "into": "reach"}, {"step": "header", "rows": [1]}],
+        [["reach", "site", "ph"], ["Upper Vell", "VB-014", "7.1"], ["Upper Vell", "VB-015", "7.0"]],
+    ),
+    (
+        "gather_groups-missing-member-drop-empty",
+        [
+            ["site", "Kick 1 taxa", "Kick 1 count", "Kick 2 taxa", "Kick 3 count"],
+            ["VB-014", "mayfly", "12", None, None],
+            ["VB-015", None, None, "caddisfly", "4"],
+        ],
+        [
+            {
+                "step": "gather_groups",
+                "pattern": r"^Kick (?P<kick>\d+) (?P<member>\w+)$",
+                "names_to": "kick",
+                "keep_empty": False,
+            }
+        ],
+        [
+            ["site", "kick", "taxa", "count"],
+            ["VB-014", "1", "mayfly", "12"],
+            ["VB-015", "2", "caddisfly", None],
+            ["VB-015", "3", None, "4"],
+        ],
+    ),
+    (
+        "spread-two-identifiers-missing-cell",
+        [
+            ["site", "sampled_on", "analyte", "result"],
+            ["VB-014", "2026-01-05", "nitrate", "1.2"],
+            ["VB-014", "2026-01-05", "phosphate", "0.04"],
+            ["VB-014", "2026-02-03", "nitrate", "1.4"],
+        ],
+        [{"step": "spread", "names_from": "analyte", "values_from": "result"}],
+        [
+            ["site", "sampled_on", "nitrate", "phosphate"],
+            ["VB-014", "2026-01-05", "1.2", "0.04"],
+            ["VB-014", "2026-02-03", "1.4", None],
+        ],
+    ),
+    (
+        "two-row-header-then-gather-joined-names",
+        [["site", "2025", None], [None, "spring", "autumn"], ["VB-014", "3", "5"]],
+        [
+            {"step": "header", "rows": [1, 2], "joiner": " "},
+            {
+                "step": "gather",
+                "columns": ["2025 spring", "2025 autumn"],
+                "names_to": "season",
+                "values_to": "n",
+            },
+            {
+                "step": "split_column",
+                "column": "season",
+                "pattern": r"^(?P<year>\d{4}) (?P<season>\w+)$",
+                "into": ["year", "season"],
+            },
+        ],
+        [
+            ["site", "year", "season", "n"],
+            ["VB-014", "2025", "spring", "3"],
+            ["VB-014", "2025", "autumn", "5"],
+        ],
+    ),
+    (
+        "transpose-then-gather",
+        [["site", "VB-014", "VB-015"], ["2024", "3", "4"], ["2025", "5", None]],
+        [
+            {"step": "transpose"},
+            {"step": "gather", "columns": ["2024", "2025"], "names_to": "year", "values_to": "count"},
+        ],
+        [
+            ["site", "year", "count"],
+            ["VB-014", "2024", "3"],
+            ["VB-014", "2025", "5"],
+            ["VB-015", "2024", "4"],
+            ["VB-015", "2025", None],
+        ],
+    ),
+]
+
 # Each case: id, input grid, steps, a fragment of the one-line error the recipe must give.
 BAD_STEP_CASES: list[tuple[str, Grid, list[dict[str, Any]], str]] = [
     ("drop-missing-row", [["a"], ["1"]], [{"step": "drop_rows", "rows": [9], "reason": "blank"}], "row(s) 9"),
