@@ -10,7 +10,7 @@ import pandas as pd
 
 from linter.reshape.grid_steps import Header, header
 from linter.reshape.recipe import Recipe
-from linter.reshape.sheet import Bench, CellIndex, Dropped, Origin, StepNote, sheet_of
+from linter.reshape.sheet import Bench, Carried, CellIndex, Dropped, Origin, StepNote, sheet_of
 from linter.reshape.steps import STEPS, RecipeError, StepParams
 from linter.table import Table
 
@@ -31,7 +31,7 @@ class Reshaped:
     dropped: tuple[Dropped, ...]
     notes: tuple[StepNote, ...]
     renamed: frozenset[int]
-    carried: tuple[tuple[int, str], ...]
+    carried: tuple[Carried, ...]
 
     def origin(self, table: str, row: int, column: str) -> Origin | None:
         """The input cell behind output cell (`row` is 0-based), None if the recipe made it."""

@@ -8,7 +8,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 import pandas as pd
 
-from linter.reshape.sheet import NO_ORIGIN, Sheet, as_header
+from linter.reshape.sheet import NO_ORIGIN, Carried, Sheet, as_header
 from linter.reshape.steps import Outcome, RecipeError, StepParams, register_sheet_step
 
 EMPTY_HEADER = "header of empty cells"
@@ -118,7 +118,7 @@ def gather(p: Gather, sheet: Sheet) -> Outcome:
         gone = [c for c in p.columns if not keep[names == c].any()]
         dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
         cells, origin, rows = cells[keep], origin[keep], rows[keep]
-    carried = tuple((c, name) for name in p.columns for c in (header.get(name) or ())[:-1])
+    carried = (Carried.of([(c, name) for name in p.columns for c in (header.get(name) or ())[:-1]]),)
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: (), p.values_to: ()}
     made = replace(sheet.with_frames(cells, origin, rows), header=new_header)
     return Outcome(made, dropped=dropped, carried=carried)
@@ -208,7 +208,9 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
         gone = [c for c, m in matched.items() if not keep[group_of == m.group(id_group)].any()]
         dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
         cells, origin, rows = cells[keep], origin[keep], rows[keep]
-    carried = tuple((c, m.group(id_group)) for col, m in matched.items() for c in header.get(col, ()))
+    carried = (
+        Carried.of([(c, m.group(id_group)) for col, m in matched.items() for c in header.get(col, ())]),
+    )
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: ()}
     for member in members:
         new_header[member] = tuple(
@@ -276,7 +278,7 @@ def spread(p: Spread, sheet: Sheet) -> Outcome:
     name_codes = sheet.origin[p.names_from].to_numpy()
     new_header = {c: header.get(c, ()) for c in ids}
     for j, name in enumerate(names):
-        new_header[name] = tuple(int(c) for c in name_codes[named & (name_index == j)] if c >= 0)
+        new_header[name] = tuple(name_codes[named & (name_index == j) & (name_codes >= 0)].tolist())
     labels = tuple(header.get(p.names_from, ()) + header.get(p.values_from, ()))
     notes: list[tuple[str, str, tuple[int, ...]]] = []
     if clash.any():
@@ -296,9 +298,7 @@ def spread(p: Spread, sheet: Sheet) -> Outcome:
     later[first] = False
     id_texts = sheet.cells[ids].to_numpy(dtype=object)[later]
     id_codes = sheet.origin[ids].to_numpy()[later]
-    carried = tuple(
-        (int(c), str(t)) for c, t in zip(id_codes.ravel(), id_texts.ravel(), strict=True) if c >= 0 and t
-    )
+    carried = (Carried(id_codes.ravel().astype(np.int64), id_texts.ravel()),)
     made = replace(sheet.with_frames(cells, origin, sheet.rows[first]), header=new_header)
     return Outcome(made, dropped=((labels, "layout label"),), notes=tuple(notes), carried=carried)
 
