@@ -66,15 +66,13 @@ def main(rows: int) -> None:
 
     cells = rows * (len(MONTHS) + 1)
     print(f"input: {rows} rows x {len(MONTHS) + 1} columns = {cells} cells")
-    print(
-        f"gather        weir {weir_gather:7.3f}s  pandas melt {base_melt:7.3f}s  ratio {weir_gather / base_melt:6.1f}"
-    )
+    ratio = weir_gather / base_melt
+    print(f"gather        weir {weir_gather:7.3f}s  pandas melt {base_melt:7.3f}s  ratio {ratio:6.1f}")
     print(
         f"audit         weir {weir_audit:7.3f}s  (no pandas counterpart; {cells / weir_audit:,.0f} cells/s)"
     )
-    print(
-        f"gather+spread weir {weir_round:7.3f}s  melt+pivot  {base_round:7.3f}s  ratio {weir_round / base_round:6.1f}"
-    )
+    ratio = weir_round / base_round
+    print(f"gather+spread weir {weir_round:7.3f}s  melt+pivot  {base_round:7.3f}s  ratio {ratio:6.1f}")
 
 
 if __name__ == "__main__":

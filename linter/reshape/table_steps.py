@@ -11,8 +11,9 @@ import pandas as pd
 from linter.reshape.sheet import NO_ORIGIN, Carried, Sheet, as_header
 from linter.reshape.steps import Outcome, RecipeError, StepParams, register_sheet_step
 
-EMPTY_HEADER = "header of empty cells"
-"""Drop reason for the header of a gathered column whose cells were all empty (keep_empty off)."""
+EMPTY_HEADER = "header with no values"
+"""Drop reason for the header of a gathered column that leaves no row: its cells were all
+empty and empty values were dropped, or the table has no body rows at all."""
 
 
 def _need_columns(sheet: Sheet, columns: tuple[str, ...] | list[str]) -> None:
@@ -111,13 +112,11 @@ def gather(p: Gather, sheet: Sheet) -> Outcome:
     cells[p.values_to] = sheet.cells[list(p.columns)].to_numpy(dtype=object).ravel()
     origin[p.values_to] = sheet.origin[list(p.columns)].to_numpy().ravel()
     rows = sheet.rows[take]
-    dropped: tuple[tuple[tuple[int, ...], str], ...] = ()
-    if not p.keep_empty:
-        keep = ~_empty(cells[p.values_to])
-        # a gathered column whose every cell was empty leaves no row: its header goes on purpose
-        gone = [c for c in p.columns if not keep[names == c].any()]
-        dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
-        cells, origin, rows = cells[keep], origin[keep], rows[keep]
+    keep = ~_empty(cells[p.values_to]) if not p.keep_empty else np.ones(len(cells), dtype=bool)
+    # a gathered column that leaves no row takes its header with it, on purpose
+    gone = [c for c in p.columns if not keep[names == c].any()]
+    dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
+    cells, origin, rows = cells[keep], origin[keep], rows[keep]
     carried = (Carried.of([(c, name) for name in p.columns for c in (header.get(name) or ())[:-1]]),)
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: (), p.values_to: ()}
     made = replace(sheet.with_frames(cells, origin, rows), header=new_header)
@@ -201,13 +200,13 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
         cells[member] = np.column_stack(stacked_cells).ravel()
         origin[member] = np.column_stack(stacked_codes).ravel()
     rows = sheet.rows[take]
-    dropped: tuple[tuple[tuple[int, ...], str], ...] = ()
+    keep = np.ones(len(cells), dtype=bool)
     if not p.keep_empty:
         keep = ~np.logical_and.reduce([_empty(cells[m]) for m in members])
-        group_of = cells[p.names_to].to_numpy()
-        gone = [c for c, m in matched.items() if not keep[group_of == m.group(id_group)].any()]
-        dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
-        cells, origin, rows = cells[keep], origin[keep], rows[keep]
+    group_of = cells[p.names_to].to_numpy()
+    gone = [c for c, m in matched.items() if not keep[group_of == m.group(id_group)].any()]
+    dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
+    cells, origin, rows = cells[keep], origin[keep], rows[keep]
     carried = (
         Carried.of([(c, m.group(id_group)) for col, m in matched.items() for c in header.get(col, ())]),
     )
@@ -236,10 +235,13 @@ def _spread_code(p: Spread) -> list[str]:
     return [
         f"ids = [c for c in df.columns if c not in ({n}, {v})]",
         "df = df.assign(_row=df.groupby(ids, dropna=False, sort=False).ngroup() if ids else 0)",
-        f"df = df.drop_duplicates(['_row', {n}]).dropna(subset=[{n}])",
-        f"wide = df.pivot(index='_row', columns={n}, values={v})[list(df[{n}].unique())]",
-        "df = df.drop_duplicates('_row').set_index('_row')[ids].join(wide).reset_index(drop=True)",
-        "df = df.astype(object).where(df.notna(), None)",
+        "first = df.drop_duplicates('_row')  # a group's first row keeps its row number",
+        f"named = df.dropna(subset=[{n}]).drop_duplicates(['_row', {n}])  # a second value is lost",
+        f"wide = named.pivot(index='_row', columns={n}, values={v})",
+        f"wide = wide.reindex(columns=list(named[{n}].unique()))",
+        "out = first.set_index('_row')[ids].join(wide)",
+        "out.index = first.index",
+        "df = out.astype(object).where(out.notna(), None)",
         "df.columns.name = None",
     ]
 

@@ -162,7 +162,7 @@ def test_gather_dropping_empty_cells_lists_an_all_empty_column_header_as_dropped
     )
     assert result.lossless
     assert [(c.row, c.letter, c.text, c.why) for c in result.dropped] == [
-        (1, "C", "2020", "header of empty cells")
+        (1, "C", "2020", "header with no values")
     ]
 
 
