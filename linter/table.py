@@ -28,6 +28,8 @@ class ReadNote:
     message: str
     rows: tuple[int, ...] = ()
     """Provider row numbers concerned, if any."""
+    examples: tuple[str, ...] = ()
+    """A few values or names concerned, exactly as written (added with a default: optional)."""
 
 
 @dataclass(frozen=True)

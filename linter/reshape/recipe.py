@@ -9,7 +9,8 @@ from pathlib import Path
 from typing import Any
 
 import linter.reshape.grid_steps
-import linter.reshape.table_steps  # noqa: F401  (both modules register their steps on import)
+import linter.reshape.normalise
+import linter.reshape.table_steps  # noqa: F401  (these modules register their steps on import)
 from linter.reshape.steps import RecipeError, StepParams, step_from_json
 
 FORMAT_VERSION = 1

@@ -1,0 +1,142 @@
+"""Turn a column of text cells into the typed values its variable declares, saying why cells fail."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import pandas as pd
+
+from linter.contract.dates import convert_dates, convert_datetimes
+from linter.contract.model import Variable, VarType
+from linter.contract.problems import Problem
+
+PLAIN_NUMBER = r"^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$"
+PLAIN_INTEGER = r"^[+-]?\d+$"
+THOUSANDS = r"^[+-]?\d{1,3}(?:,\d{3})+(?:\.\d+)?$"
+DECIMAL_COMMA = r"^[+-]?\d+,\d+$"
+NUMBER_WITH_UNIT = r"^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*([A-Za-zµμ%°‰][^\d]*)$"
+
+# Source: W3C XML Schema 1.1 Part 2 §3.3.2 (boolean lexical space: true, false, 1, 0);
+# the upper- and title-case forms are what spreadsheet programs write (common practice, no source).
+TRUE_WORDS = frozenset({"true", "1"})
+FALSE_WORDS = frozenset({"false", "0"})
+
+
+@dataclass(frozen=True)
+class Converted:
+    """One column read as its variable's type; all series share the body's index."""
+
+    values: pd.Series
+    """Typed values; null where the cell is missing or failed conversion."""
+    missing: pd.Series
+    """True where the cell is empty or holds a missing-value code."""
+    censored: pd.Series
+    """True where the value was reported below a detection limit (e.g. `<0.05`)."""
+    reason: pd.Series
+    """A `Problem` where the cell is present but could not be converted, else None."""
+    suggestion: pd.Series
+    """What to write instead, where Weir can tell (e.g. `1234`, `2026-03-02`), else None."""
+
+    @property
+    def failed(self) -> pd.Series:
+        return self.reason.notna()
+
+
+def _or_none(series: pd.Series) -> pd.Series:
+    """Object series with None (not NaN) where there is nothing, as the Converted fields promise."""
+    return series.astype(object).where(series.notna(), None)
+
+
+def unit_key(unit: str) -> str:
+    """Units compared without case, spaces or the micro-sign spelling: `mg/l` is `mg/L`, `µg/L` is `ug/L`."""
+    return unit.replace(" ", "").replace("µ", "u").replace("μ", "u").casefold()
+
+
+def missing_mask(text: pd.Series, codes: tuple[str, ...]) -> pd.Series:
+    """Empty cells and cells whose trimmed text is a missing-value code."""
+    trimmed = {c.strip() for c in codes}
+    return text.isna() | text.str.strip().isin(trimmed)
+
+
+def _numbers(
+    text: pd.Series, present: pd.Series, unit: str | None, integer: bool
+) -> tuple[pd.Series, pd.Series, pd.Series]:
+    trimmed = text.str.strip()
+    shape = PLAIN_INTEGER if integer else PLAIN_NUMBER
+    good = present & trimmed.str.match(shape, na=False)
+    values = pd.to_numeric(trimmed.where(good), errors="coerce")
+    reason = pd.Series(None, index=text.index, dtype=object)
+    suggestion = pd.Series(None, index=text.index, dtype=object)
+    bad = present & ~good
+    if integer:
+        fractional = bad & trimmed.str.match(PLAIN_NUMBER, na=False)
+        reason[fractional] = Problem.NOT_AN_INTEGER
+        bad &= ~fractional
+    thousands = bad & trimmed.str.match(THOUSANDS, na=False)
+    reason[thousands] = Problem.THOUSANDS_SEPARATOR
+    suggestion[thousands] = trimmed[thousands].str.replace(",", "", regex=False)
+    comma = bad & ~thousands & trimmed.str.match(DECIMAL_COMMA, na=False)
+    reason[comma] = Problem.DECIMAL_COMMA
+    suggestion[comma] = trimmed[comma].str.replace(",", ".", regex=False)
+    parts = trimmed.where(bad & reason.isna()).str.extract(NUMBER_WITH_UNIT)
+    with_unit = bad & reason.isna() & parts[0].notna()
+    if unit is None:
+        same_unit = with_unit
+    else:
+        same_unit = with_unit & (parts[1].str.strip().map(unit_key, na_action="ignore") == unit_key(unit))
+    reason[same_unit] = Problem.UNIT_IN_CELL
+    suggestion[same_unit] = parts[0][same_unit]
+    other_unit = with_unit & ~same_unit
+    reason[other_unit] = Problem.WRONG_UNIT
+    suggestion[other_unit] = parts[1][other_unit].str.strip()
+    reason[bad & reason.isna()] = Problem.NOT_A_NUMBER
+    typed = values.astype("Int64") if integer else values.astype("float64")
+    return typed, reason, suggestion
+
+
+def _booleans(text: pd.Series, present: pd.Series) -> tuple[pd.Series, pd.Series, pd.Series]:
+    words = text.str.strip().str.casefold()
+    truthy = present & words.isin(TRUE_WORDS)
+    falsy = present & words.isin(FALSE_WORDS)
+    values = pd.Series(pd.NA, index=text.index, dtype="boolean")
+    values[truthy] = True
+    values[falsy] = False
+    reason = pd.Series(None, index=text.index, dtype=object)
+    reason[present & ~truthy & ~falsy] = Problem.NOT_A_BOOLEAN
+    suggestion = pd.Series(None, index=text.index, dtype=object)
+    suggestion[present & words.isin({"yes", "y", "oui", "ja", "t"})] = "true"
+    suggestion[present & words.isin({"no", "n", "non", "nein", "f"})] = "false"
+    return values, reason, suggestion.where(reason.notna())
+
+
+def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str, ...]) -> Converted:
+    """Read `text` (cells as written, None when empty) as `variable` declares; never raises on a cell."""
+    text = text.astype(object).where(text.notna(), None)
+    missing = missing_mask(text, tuple(file_missing) + tuple(variable.missing))
+    present = ~missing
+    censored = pd.Series(False, index=text.index)
+    kind = variable.type
+    if kind in (VarType.NUMBER, VarType.INTEGER):
+        body = text
+        if variable.censored_prefix:
+            trimmed = text.str.strip()
+            censored = present & trimmed.str.startswith(variable.censored_prefix, na=False)
+            stripped = trimmed.str.slice(len(variable.censored_prefix)).str.strip()
+            body = text.where(~censored, stripped)
+        values, reason, suggestion = _numbers(body, present, variable.unit, kind is VarType.INTEGER)
+        # A bare "<" (or "< mg/L") names no detection limit: it is not a number at all.
+        censored_bad = censored & reason.notna() & (reason != Problem.WRONG_UNIT)
+        reason[censored_bad & (body.str.strip() == "")] = Problem.CENSORED_NOT_A_NUMBER
+        censored &= reason.isna()
+        return Converted(values, missing, censored, _or_none(reason), _or_none(suggestion))
+    if kind is VarType.BOOLEAN:
+        values, reason, suggestion = _booleans(text, present)
+    elif kind is VarType.DATE:
+        values, reason, suggestion = convert_dates(text, present, variable.date_format)
+    elif kind is VarType.DATETIME:
+        values, reason, suggestion = convert_datetimes(text, present, variable.date_format)
+    else:
+        values = text.where(present, None)
+        reason = pd.Series(None, index=text.index, dtype=object)
+        suggestion = reason.copy()
+    return Converted(values, missing, censored, _or_none(reason), _or_none(suggestion))

@@ -1,0 +1,192 @@
+"""The one module where pandera lives: compile a table contract to a schema, run it, return its failures."""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Collection, Mapping
+from dataclasses import dataclass
+
+import pandas as pd
+import pandera.pandas as pa
+from pandera.errors import SchemaErrors
+
+from linter.contract.convert import Converted, convert_column
+from linter.contract.model import TableContract, Variable, VarType
+from linter.table import Frame
+
+FAILURE_COLUMNS = ("column", "kind", "row", "value")
+"""Weir's failure table: variable, which check failed, the provider row, the typed value."""
+
+KINDS_BY_PANDERA_NAME = {"not_nullable": "nullable", "multiple_fields_uniqueness": "unique"}
+
+DTYPES: Mapping[VarType, str] = {
+    VarType.NUMBER: "float64",
+    VarType.INTEGER: "Int64",
+    VarType.BOOLEAN: "boolean",
+}
+
+
+@dataclass(frozen=True)
+class CheckedTable:
+    """What the engine learnt about one table: each present variable read as typed, and what failed."""
+
+    converted: Mapping[str, Converted]
+    """Variable name -> its column read as typed; only variables whose column is present."""
+    typed: pd.DataFrame
+    """The typed columns side by side, indexed by the provider's row numbers."""
+    failures: pd.DataFrame
+    """One row per failing cell with FAILURE_COLUMNS; `kind` is range, codes, pattern, nullable or unique."""
+
+    unrun: tuple[tuple[str, str, str], ...] = ()
+    """(column, kind, pandera's error) for checks that raised instead of judging the cells."""
+
+    def failing(self, column: str, kind: str) -> pd.DataFrame:
+        rows = self.failures
+        return rows[(rows["column"] == column) & (rows["kind"] == kind)]
+
+    def raise_if_unrun(self, kind: str) -> None:
+        """Raise when a check of `kind` never ran, so it surfaces as that inspector's failure, not silence."""
+        unrun = [(column, error) for column, k, error in self.unrun if k == kind]
+        if unrun:
+            column, error = unrun[0]
+            raise RuntimeError(f"the {kind} check of {column} could not run: {error}")
+
+
+def present_variables(contract: TableContract, frame: Frame) -> list[Variable]:
+    """Declared variables whose column is in the file under exactly their own name."""
+    labels = set(frame.labels)
+    return [v for v in contract.variables if v.name in labels]
+
+
+def _bound(variable: Variable, bound: float | str) -> float | pd.Timestamp:
+    if variable.type in (VarType.DATE, VarType.DATETIME):
+        return pd.Timestamp(str(bound))
+    return float(bound)
+
+
+def _range_check(variable: Variable) -> pa.Check | None:
+    low, high = variable.minimum, variable.maximum
+    if low is not None and high is not None:
+        return pa.Check.in_range(_bound(variable, low), _bound(variable, high))
+    if low is not None:
+        return pa.Check.ge(_bound(variable, low))
+    if high is not None:
+        return pa.Check.le(_bound(variable, high))
+    return None
+
+
+def _pattern_check(variable: Variable) -> pa.Check | None:
+    if variable.pattern is None or variable.type not in (VarType.STRING, VarType.CATEGORY):
+        return None
+    try:
+        re.compile(variable.pattern)
+    except re.error:  # the contract loader reports a broken pattern; the other checks still run
+        return None
+    # str_matches anchors only the start; the contract promises a whole-text match.
+    return pa.Check.str_matches(rf"(?:{variable.pattern})\Z")
+
+
+def _column_checks(variable: Variable) -> list[tuple[str, pa.Check]]:
+    checks: list[tuple[str, pa.Check | None]] = [
+        ("range", _range_check(variable)),
+        ("pattern", _pattern_check(variable)),
+    ]
+    if variable.codes is not None and variable.type in (VarType.STRING, VarType.CATEGORY):
+        checks.append(("codes", pa.Check.isin(list(variable.codes.values))))
+    return [(kind, check) for kind, check in checks if check is not None]
+
+
+def compile_schema(
+    contract: TableContract, present: Collection[str]
+) -> tuple[pa.DataFrameSchema, dict[tuple[str, int], str]]:
+    """A pandera schema for the present columns, and which Weir check kind each pandera check is."""
+    columns: dict[str, pa.Column] = {}
+    kinds: dict[tuple[str, int], str] = {}
+    for variable in contract.variables:
+        if variable.name not in present:
+            continue
+        checks = _column_checks(variable)
+        for number, (kind, _) in enumerate(checks):
+            kinds[(variable.name, number)] = kind
+        columns[variable.name] = pa.Column(
+            DTYPES.get(variable.type),
+            checks=[check for _, check in checks],
+            nullable=variable.nullable and variable.name not in contract.keys,
+            required=True,
+        )
+    keys = [k for k in contract.keys if k in present]
+    whole_key = len(keys) == len(contract.keys) and bool(keys)
+    schema = pa.DataFrameSchema(
+        columns,
+        unique=keys if whole_key else None,
+        report_duplicates="all",
+        strict=False,
+    )
+    return schema, kinds
+
+
+def _kind_of(row: pd.Series, kinds: Mapping[tuple[str, int], str]) -> str:
+    if row["check"] in KINDS_BY_PANDERA_NAME:
+        return KINDS_BY_PANDERA_NAME[row["check"]]
+    number = row["check_number"]
+    if number is None or pd.isna(number):
+        return "other"
+    return kinds.get((row["column"], int(number)), "other")
+
+
+def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[tuple[str, str, str], ...]:
+    """Checks pandera reports without a row: the check itself raised (e.g. an impossible comparison)."""
+    cases = error.failure_cases
+    cases = cases[cases["index"].isna()]
+    return tuple((str(r["column"]), _kind_of(r, kinds), str(r["failure_case"])) for _, r in cases.iterrows())
+
+
+def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> pd.DataFrame:
+    cases = error.failure_cases
+    cases = cases[cases["index"].notna()]
+
+    def kind_of(row: pd.Series) -> str:
+        return _kind_of(row, kinds)
+
+    table = pd.DataFrame(
+        {
+            "column": cases["column"].astype(object),
+            "kind": cases.apply(kind_of, axis=1) if len(cases) else pd.Series(dtype=object),
+            "row": cases["index"].astype(int),
+            "value": cases["failure_case"],
+        }
+    )
+    return table.drop_duplicates(["column", "kind", "row"]).reset_index(drop=True)
+
+
+def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
+    """Convert every present variable, validate the typed table with pandera, collect every failure."""
+    variables = present_variables(contract, frame)
+    index = pd.Index(frame.rows, dtype="int64")
+    converted: dict[str, Converted] = {}
+    for variable in variables:
+        text = frame.body[variable.name].set_axis(index)
+        converted[variable.name] = convert_column(text, variable, contract.missing)
+    typed = pd.DataFrame({name: c.values for name, c in converted.items()}, index=index)
+    schema, kinds = compile_schema(contract, converted)
+    failures = pd.DataFrame({name: pd.Series(dtype=object) for name in FAILURE_COLUMNS})
+    unrun: tuple[tuple[str, str, str], ...] = ()
+    try:
+        schema.validate(typed, lazy=True)
+    except SchemaErrors as error:
+        failures = _failure_table(error, kinds)
+        unrun = _unrun(error, kinds)
+    return CheckedTable(converted, typed, failures, unrun)
+
+
+_last: tuple[TableContract, Frame, CheckedTable] | None = None
+
+
+def checked(contract: TableContract, frame: Frame) -> CheckedTable:
+    """`run_contract`, computed once per table even though every rule family asks for it."""
+    global _last
+    if _last is not None and _last[0] is contract and _last[1] is frame:
+        return _last[2]
+    result = run_contract(contract, frame)
+    _last = (contract, frame, result)
+    return result

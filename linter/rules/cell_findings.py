@@ -1,0 +1,91 @@
+"""How contract rule families word a finding about cells of one column: place, examples, counts."""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping, Sequence
+from typing import Any
+
+import pandas as pd
+
+from linter.contract.engine import CheckedTable, checked
+from linter.findings import Finding, Place, Severity, listed_rows
+from linter.rules.registry import RULES
+from linter.rules.subject import Subject
+
+MAX_EXAMPLES = 5
+
+
+def engine_result(subject: Subject) -> CheckedTable | None:
+    """The engine's view of the subject's table, or None when no contract governs it."""
+    if subject.contract is None:
+        return None
+    return checked(subject.contract, subject.frame)
+
+
+def place_of(subject: Subject, columns: Sequence[str], rows: Iterable[int] = ()) -> Place:
+    """The file, sheet, listed provider rows, and the named columns with their letters."""
+    labels = subject.frame.labels
+    present = [c for c in columns if c in labels]
+    return Place(
+        file=subject.table.source,
+        sheet=subject.table.sheet,
+        rows=listed_rows(list(rows)),
+        columns=tuple(present),
+        letters=tuple(subject.frame.letter(c) for c in present),
+    )
+
+
+def written(subject: Subject, column: str, rows: Iterable[int]) -> list[str]:
+    """The cells of `column` at provider `rows` exactly as written ('' for an empty cell)."""
+    cells = subject.frame.body[column].set_axis(pd.Index(subject.frame.rows, dtype="int64"))
+    return ["" if pd.isna(cells[r]) else str(cells[r]) for r in rows]
+
+
+def examples_from(values: Iterable[str]) -> tuple[str, ...]:
+    """Up to MAX_EXAMPLES distinct values in order of first appearance."""
+    seen: list[str] = []
+    for value in values:
+        if value not in seen:
+            seen.append(value)
+            if len(seen) == MAX_EXAMPLES:
+                break
+    return tuple(seen)
+
+
+def quoted(values: Iterable[str]) -> str:
+    return ", ".join(repr(v) for v in values)
+
+
+def column_finding(
+    subject: Subject,
+    rule: str,
+    column: str,
+    rows: Sequence[int],
+    message: str,
+    fix: str,
+    *,
+    severity: Severity | None = None,
+    evidence: Mapping[str, Any] | None = None,
+) -> Finding:
+    """One finding for (rule, column): count, examples as written, listed rows and the column letter."""
+    rows = sorted(rows)
+    return Finding(
+        rule=rule,
+        severity=severity or RULES[rule].severity,
+        message=message,
+        place=place_of(subject, [column], rows),
+        count=len(rows),
+        examples=examples_from(written(subject, column, rows)),
+        fix=fix,
+        evidence=dict(evidence or {}),
+    )
+
+
+def plural(count: int, word: str) -> str:
+    """`1 row`, `3 rows`."""
+    return f"{count} {word}" if count == 1 else f"{count} {word}s"
+
+
+def counted(count: int, word: str, singular_verb: str, plural_verb: str) -> str:
+    """`1 row has`, `3 rows have`: a count that agrees with its verb."""
+    return f"{plural(count, word)} {singular_verb if count == 1 else plural_verb}"

@@ -1,0 +1,109 @@
+"""Value rules for code lists: codes not allowed, and near-misses that differ only in spacing or case."""
+
+from __future__ import annotations
+
+import difflib
+from collections.abc import Iterator
+
+from linter.contract.model import Variable
+from linter.findings import Finding, Severity
+from linter.rules.cell_findings import column_finding, counted, engine_result, written
+from linter.rules.registry import define_rule, inspector
+from linter.rules.subject import Subject
+
+define_rule(
+    "values.not-in-code-list",
+    "Value that is not one of the allowed codes",
+    Severity.ERROR,
+    """
+    Finds cells of a category variable whose value is not in its code list (inline values or
+    a code-list file), and is not merely a spacing or case variant of an allowed code.
+
+    Bad:  analyte (codes NITRATE, PHOSPHATE): NITRITE-N
+    Good: analyte: NITRATE
+    """,
+)
+define_rule(
+    "values.code-variant",
+    "Allowed code written with other spacing or letter case",
+    Severity.ERROR,
+    """
+    Finds values that match an allowed code once surrounding spaces are trimmed and letter
+    case is ignored, and names the exact code to use.
+
+    Bad:  analyte: 'Nitrate ' | nitrate
+    Good: analyte: NITRATE
+    """,
+)
+
+LISTED_CODES = 12
+
+
+def variant_key(text: str) -> str:
+    """What a code variant and its code share: the text trimmed, inner spaces single, case folded."""
+    return " ".join(text.split()).casefold()
+
+
+def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], list[int], list[int]]]:
+    """Per coded variable: variant -> code, rows holding variants, rows holding unknown values."""
+    result = engine_result(subject)
+    if result is None or subject.contract is None:
+        return
+    for name in result.converted:
+        variable = subject.contract.variable(name)
+        failing = result.failing(name, "codes")
+        if variable is None or variable.codes is None or failing.empty:
+            continue
+        by_key = {variant_key(code): code for code in variable.codes.values}
+        rows = [int(r) for r in failing["row"]]
+        found = written(subject, name, rows)
+        variants = {f: by_key[variant_key(f)] for f in found if variant_key(f) in by_key}
+        variant_rows = [r for r, f in zip(rows, found, strict=True) if f in variants]
+        unknown_rows = [r for r, f in zip(rows, found, strict=True) if f not in variants]
+        yield variable, variants, variant_rows, unknown_rows
+    result.raise_if_unrun("codes")
+
+
+@inspector(needs_contract=True)
+def code_variant(subject: Subject) -> Iterator[Finding]:
+    for variable, variants, rows, _ in _code_cells(subject):
+        if not rows:
+            continue
+        fixes = "; ".join(
+            f"use the code {code} (found {found!r})" for found, code in list(variants.items())[:5]
+        )
+        yield column_finding(
+            subject,
+            "values.code-variant",
+            variable.name,
+            rows,
+            f"In {variable.name}, {counted(len(rows), 'value', 'is an allowed code', 'are allowed codes')} "
+            "written with other spacing or letter case.",
+            fixes,
+            evidence={"variants": dict(variants)},
+        )
+
+
+@inspector(needs_contract=True)
+def not_in_code_list(subject: Subject) -> Iterator[Finding]:
+    for variable, _, _, rows in _code_cells(subject):
+        if not rows or variable.codes is None:
+            continue
+        codes = list(variable.codes.values)
+        first = written(subject, variable.name, rows[:1])[0]
+        near = difflib.get_close_matches(first.strip().upper(), [c.upper() for c in codes], n=1, cutoff=0.6)
+        nearest = next((c for c in codes if near and c.upper() == near[0]), None)
+        shown = ", ".join(codes[:LISTED_CODES]) + (", ..." if len(codes) > LISTED_CODES else "")
+        source = f" (code list {variable.codes.source})" if variable.codes.source else ""
+        fix = f"use one of the allowed codes{source}: {shown}"
+        if nearest is not None:
+            fix = f"did you mean {nearest} (found {first!r})? Otherwise {fix}"
+        yield column_finding(
+            subject,
+            "values.not-in-code-list",
+            variable.name,
+            rows,
+            f"In {variable.name}, "
+            f"{counted(len(rows), 'value', 'is not an allowed code', 'are not allowed codes')}.",
+            fix,
+        )
