@@ -51,6 +51,10 @@ class Audit:
     """Cells a split_column pattern did not match (kept whole in the first new column)."""
     collisions: int = 0
     """Values a spread found a second value for; they are lost and listed in `lost`."""
+    trimmed: tuple[AuditCell, ...] = ()
+    """Cells kept in parts whose left-out text holds letters but no digit (a constant label
+    such as the `Sample` of `Sample 1 Depth`, or a unit the pattern spells out): listed so
+    nobody is surprised, not counted as loss. Left-out digits make the cell lost instead."""
 
     @property
     def lossless(self) -> bool:
@@ -65,6 +69,7 @@ class Audit:
             **{f"kept_{k}": v for k, v in self.kept.items()},
             **{f"dropped_{k.replace(' ', '_')}": v for k, v in sorted(reasons.items())},
             "lost": len(self.lost),
+            "trimmed": len(self.trimmed),
             "unmatched": self.unmatched,
             "collisions": self.collisions,
         }
@@ -75,6 +80,7 @@ class Audit:
             "counts": self.counts(),
             "dropped": [c.to_json() for c in self.dropped],
             "lost": [c.to_json() for c in self.lost],
+            "trimmed": [c.to_json() for c in self.trimmed],
         }
 
 
@@ -112,8 +118,9 @@ def _fragments(reshaped: Reshaped) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     return np.concatenate(ids), np.concatenate(hows), np.concatenate(outs)
 
 
-def _ranks(reshaped: Reshaped, texts: np.ndarray) -> np.ndarray:
-    """For every input cell id, the best way it lives on (index into KEPT), or 9 when it does not."""
+def _ranks(reshaped: Reshaped, texts: np.ndarray) -> tuple[np.ndarray, dict[int, set[str]]]:
+    """For every input cell id, the best way it lives on (index into KEPT), or 9 when it does not;
+    and for cells kept in parts, the pieces of their text that the output holds."""
     ids, how, out = _fragments(reshaped)
     source = texts[ids]
     usable = np.fromiter((o is not None for o in out), dtype=bool, count=len(out)) & (source != None)  # noqa: E711
@@ -122,17 +129,33 @@ def _ranks(reshaped: Reshaped, texts: np.ndarray) -> np.ndarray:
     # Only the few fragments that differ need a closer look (whitespace, split, joined, renamed).
     odd = np.flatnonzero(usable & ~same)
     renamed = {c // 2 for c in reshaped.renamed}
+    pieces: dict[int, set[str]] = {}
+    whole: set[int] = set()
     for k in odd.tolist():
         a, b = str(source[k]).strip(), str(out[k]).strip()
         if a == b:
             rank[k] = how[k]
-        elif a in b or b in a:
+        elif a in b:  # the whole cell lives on inside a longer text (a joined header)
             rank[k] = 3
+            whole.add(int(ids[k]))
+        elif b in a:  # a piece of the cell (a split, an exploded item, part of a header)
+            rank[k] = 3
+            pieces.setdefault(int(ids[k]), set()).add(b)
         elif how[k] == 2 and int(ids[k]) in renamed:
             rank[k] = 4
     best = np.full(len(texts), 9, dtype=np.int8)
     np.minimum.at(best, ids, rank)
-    return best
+    for cell in whole:
+        pieces.pop(cell, None)
+    return best, pieces
+
+
+def _left_out(text: str, pieces: set[str]) -> str:
+    """What of `text` no piece covers, separators and spaces aside ('' when nothing is)."""
+    for piece in sorted(pieces, key=len, reverse=True):
+        text = text.replace(piece, "\0")
+    rest = " ".join(part.strip() for part in text.split("\0") if part.strip())
+    return rest if any(ch.isalnum() for ch in rest) else ""
 
 
 def _as_number(text: str) -> float | None:
@@ -178,7 +201,7 @@ def audit(table: Table, reshaped: Reshaped, recipe: Recipe | None = None) -> Aud
     if not any(t is table for t in reshaped.index.tables):
         raise ValueError("audit: this Reshaped was not made from this table")
     texts = _input_texts(reshaped)
-    best = _ranks(reshaped, texts)
+    best, pieces = _ranks(reshaped, texts)
     filled = np.flatnonzero(texts != None)  # noqa: E711
     counts = np.bincount(best[filled], minlength=10)
     kept = {name: int(counts[r]) for r, name in enumerate(KEPT)}
@@ -194,7 +217,8 @@ def audit(table: Table, reshaped: Reshaped, recipe: Recipe | None = None) -> Aud
     totals = {i for i, r in dropped_reason.items() if r == "total"}
     total_why = _total_mismatches(reshaped, texts, best, totals) if totals else {}
     cited = set(_fragments(reshaped)[0].tolist()) if (best[filled] == 9).any() else set()
-    dropped, lost = [], []
+    dropped: list[AuditCell] = []
+    lost: list[AuditCell] = []
     for cell in filled[best[filled] == 9].tolist():
         text = str(texts[cell])
         place = reshaped.index.decode(cell * 2)
@@ -214,6 +238,20 @@ def audit(table: Table, reshaped: Reshaped, recipe: Recipe | None = None) -> Aud
         else:
             why = "not found in the output"
         lost.append(AuditCell(place.row, place.letter, text, why, place.source))
+    trimmed: list[AuditCell] = []
+    for cell in filled[best[filled] == 3].tolist():
+        if cell not in pieces:
+            continue
+        rest = _left_out(str(texts[cell]).strip(), pieces[cell])
+        if not rest:
+            continue
+        place = reshaped.index.decode(cell * 2)
+        assert place is not None
+        kept_parts = ", ".join(repr(p) for p in sorted(pieces[cell]))
+        why = f"kept as {kept_parts}; left out {rest!r}"
+        # Digits are data (a separator or a constant label never holds one): a cut number is loss.
+        target = lost if any(ch.isdigit() for ch in rest) else trimmed
+        target.append(AuditCell(place.row, place.letter, str(texts[cell]), why, place.source))
     unmatched = sum(len(n.codes) for n in reshaped.notes if n.kind == "unmatched")
     collisions = sum(len(n.codes) for n in reshaped.notes if n.kind == "collision")
-    return Audit(len(filled), kept, tuple(dropped), tuple(lost), unmatched, collisions)
+    return Audit(len(filled), kept, tuple(dropped), tuple(lost), unmatched, collisions, tuple(trimmed))
