@@ -255,6 +255,18 @@ STEP_CASES += [
     ),
 ]
 
+STEP_CASES += [
+    (
+        "header-row-renamed-to-contract-names",
+        [["Vell Basin pH survey", None], ["Site", "pH (field)"], ["VB-014", "7.1"]],
+        [
+            {"step": "drop_rows", "rows": [1], "reason": "title"},
+            {"step": "header", "rows": [2], "names": ["site_id", "ph"]},
+        ],
+        [["site_id", "ph"], ["VB-014", "7.1"]],
+    ),
+]
+
 # Each case: id, input grid, steps, a fragment of the one-line error the recipe must give.
 BAD_STEP_CASES: list[tuple[str, Grid, list[dict[str, Any]], str]] = [
     ("drop-missing-row", [["a"], ["1"]], [{"step": "drop_rows", "rows": [9], "reason": "blank"}], "row(s) 9"),
