@@ -112,7 +112,7 @@ def apply_recipe(table: Table, recipe: Recipe) -> Reshaped:
         tables[name] = sheet.cells.astype(object).where(sheet.cells.notna(), None).reset_index(drop=True)
         provenance[name] = sheet.origin.reset_index(drop=True)
         headers[name] = dict(sheet.header or {})
-        rows[name] = tuple(int(r) for r in sheet.rows)
+        rows[name] = tuple(sheet.rows.tolist())
     return Reshaped(
         tables, provenance, headers, rows, index, bench.dropped, bench.notes, bench.renamed, bench.carried
     )

@@ -101,7 +101,7 @@ def sheet_of(table: Table, index: CellIndex, which: int = 0) -> Sheet:
     """The raw grid of `table` as a working sheet, columns named by spreadsheet letter."""
     grid = table.grid
     letters = [column_letter(i) for i in range(grid.shape[1])]
-    cells = pd.DataFrame(grid.to_numpy(dtype=object), columns=letters).astype(object)
+    cells = pd.DataFrame(grid.to_numpy(dtype=object), columns=letters, dtype=object)
     cells = cells.where(cells.notna(), None)
     origin = pd.DataFrame(index.base_codes(which), columns=letters)
     return Sheet(cells, origin, np.asarray(table.row_numbers, dtype=np.int64))

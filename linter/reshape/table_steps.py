@@ -42,6 +42,12 @@ def _header(sheet: Sheet) -> dict[str, tuple[int, ...]]:
     return dict(sheet.header or {})
 
 
+def _text(values: np.ndarray) -> pd.Series:
+    """A column of text/None kept as object dtype (pandas would infer its string dtype, slowly,
+    and turn None into NaN)."""
+    return pd.Series(values, dtype=object)
+
+
 def _empty(values: pd.Series) -> np.ndarray:
     return (values.isna() | (values == "")).to_numpy(dtype=bool)
 
@@ -107,14 +113,15 @@ def gather(p: Gather, sheet: Sheet) -> Outcome:
     origin = sheet.origin[ids].iloc[take].reset_index(drop=True)
     names = np.tile(np.asarray(p.columns, dtype=object), n)
     name_codes = np.tile(np.asarray([(header.get(c) or (NO_ORIGIN,))[-1] for c in p.columns]), n)
-    cells[p.names_to] = names
+    cells[p.names_to] = _text(names)
     origin[p.names_to] = as_header(name_codes)
-    cells[p.values_to] = sheet.cells[list(p.columns)].to_numpy(dtype=object).ravel()
+    cells[p.values_to] = _text(sheet.cells[list(p.columns)].to_numpy(dtype=object).ravel())
     origin[p.values_to] = sheet.origin[list(p.columns)].to_numpy().ravel()
     rows = sheet.rows[take]
     keep = ~_empty(cells[p.values_to]) if not p.keep_empty else np.ones(len(cells), dtype=bool)
     # a gathered column that leaves no row takes its header with it, on purpose
-    gone = [c for c in p.columns if not keep[names == c].any()]
+    left = set(names[keep].tolist()) if not keep.all() else set(p.columns)
+    gone = [c for c in p.columns if c not in left]
     dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
     cells, origin, rows = cells[keep], origin[keep], rows[keep]
     carried = (Carried.of([(c, name) for name in p.columns for c in (header.get(name) or ())[:-1]]),)
@@ -184,7 +191,7 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
     for g in group_ids:
         codes = [(header.get(column_of[(g, m)]) or (NO_ORIGIN,))[-1] for m in members if (g, m) in column_of]
         id_codes.append(codes[0] if codes else NO_ORIGIN)
-    cells[p.names_to] = np.tile(np.asarray(group_ids, dtype=object), n)
+    cells[p.names_to] = _text(np.tile(np.asarray(group_ids, dtype=object), n))
     origin[p.names_to] = as_header(np.tile(np.asarray(id_codes, dtype=np.int64), n))
     blank = np.full(n, None, dtype=object)
     no_origin = np.full(n, NO_ORIGIN, dtype=np.int64)
@@ -197,7 +204,7 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
             sheet.origin[column_of[(g, member)]].to_numpy() if (g, member) in column_of else no_origin
             for g in group_ids
         ]
-        cells[member] = np.column_stack(stacked_cells).ravel()
+        cells[member] = _text(np.column_stack(stacked_cells).ravel())
         origin[member] = np.column_stack(stacked_codes).ravel()
     rows = sheet.rows[take]
     keep = np.ones(len(cells), dtype=bool)
@@ -275,7 +282,7 @@ def spread(p: Spread, sheet: Sheet) -> Outcome:
     cells = sheet.cells[ids].iloc[first].reset_index(drop=True)
     origin = sheet.origin[ids].iloc[first].reset_index(drop=True)
     for j, name in enumerate(names):
-        cells[name] = wide[:, j]
+        cells[name] = _text(wide[:, j])
         origin[name] = wide_codes[:, j]
     name_codes = sheet.origin[p.names_from].to_numpy()
     new_header = {c: header.get(c, ()) for c in ids}
