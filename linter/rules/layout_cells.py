@@ -9,7 +9,7 @@ from collections.abc import Iterable
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_place import layout_finding
-from linter.rules.layout_signals import blank, cell_kind, frame_of, sample, slug
+from linter.rules.layout_signals import blank, cell_kind, frame_of, header_value_kind, sample, slug
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import Frame, Table
@@ -68,6 +68,8 @@ def _texts(frame: Frame, label: str) -> list[str]:
 
 
 def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
+    if any(header_value_kind(t) == "date" for t in texts[:50]):
+        return None  # "2025 Oct" is a month, not 2025 of a unit called Oct
     matches = [VALUE_UNIT.match(t) for t in texts]
     hits = [m for m in matches if m]
     if len(hits) < MATCH_SHARE * len(texts) or len(hits) < 2:

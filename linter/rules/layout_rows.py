@@ -141,10 +141,17 @@ def _holds_values(
         len(declared & set(levels)) >= 2
         or len(by_kind) >= 2
         or sum(bool(PAIRED.search(level)) for level in levels) >= 2
-        or (not any(UNIT_NAME.match(c) for c in others) and _scales_differ(body, names, levels, values_col))
+        or (
+            not any(UNIT_NAME.match(c) for c in others)
+            and (_scales_differ(body, names, levels, values_col) or bool(GENERIC_NAMES.match(names_col)))
+        )
     )
 
 
+GENERIC_NAMES = re.compile(
+    r"^(measure|measurement|variable|var|field|attribute|property|key|element|type|quantity|metric)s?$", re.I
+)
+"""Headers that say "this column names variables" (an analyte or a taxon column is a key, not this)."""
 UNIT_NAME = re.compile(r"^(units?|uom|unit_of_measure)$", re.I)
 SCALE_GAP = 1000.0
 """Median magnitudes this far apart mean the names are different quantities (cases vs population)."""
@@ -307,8 +314,8 @@ def find_same_as_above(table: Table, contract: TableContract | None = None) -> l
         values = body[label][present]
         if dominant_kind(sample(values))[0] == "number":
             break
-        if values.duplicated().any():
-            continue
+        if body[[*frame.labels[:position], label]][present].duplicated().any():
+            continue  # a label written once per group appears once within its enclosing group
         empty_rows = [int(i) for i in np.flatnonzero(~present)]
         others = np.delete(filled, position, axis=1)
         if not others[empty_rows[:500]].any(axis=1).all():

@@ -39,6 +39,7 @@ MONTHS = [
     "december",
 ]
 MONTH_WORDS = frozenset(MONTHS) | frozenset(m[:3] for m in MONTHS) | {"sept"}
+MONTH_YEAR = re.compile(r"^([A-Za-z]{3,9}\.?[\s/-]*(\d{2}|\d{4})|\d{4}[\s/-]*[A-Za-z]{3,9})$")
 RANGE = re.compile(
     r"^[<>≤≥]?\s*\$?\d+(\.\d+)?k?\s*([-–]|to)\s*\$?\d+(\.\d+)?k?$|^[<>≤≥]\s*\$?\d+(\.\d+)?k?$|^\$?\d+(\.\d+)?k?\+$"
 )
@@ -82,6 +83,8 @@ def header_value_kind(label: str) -> str | None:
         return "date"
     if text.lower().rstrip(".") in MONTH_WORDS:
         return "month"
+    if MONTH_YEAR.match(text) and any(w in MONTH_WORDS for w in re.findall(r"[a-z]+", text.lower())):
+        return "date"
     if is_number(text):
         return "number"
     if RANGE.match(text):

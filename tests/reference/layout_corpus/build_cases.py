@@ -70,6 +70,8 @@ def values_in_headers(rng: random.Random) -> None:
         messy, tidy = wide(rng, ranges, 5)
         tidy = [["site_id", "from", "to", "value"]] + [[r[0], *r[1].split("-"), r[2]] for r in tidy[1:]]
         case(f"depth-bands-{i}", "values-in-headers", messy, tidy)
+    for i, months in enumerate([["Jan 2026", "Feb 2026", "Mar 2026"], ["2025 Oct", "2025 Nov", "2025 Dec"]]):
+        case(f"month-year-headers-{i}", "values-in-headers", *wide(rng, months, 4, blank_share=0.1))
     for i, prefix in enumerate(["wk", "visit_", "d"]):
         headers = [f"{prefix}{k}" for k in range(1, 5 + i)]
         messy, tidy = wide(rng, headers, 5, blank_share=0.15)
@@ -151,6 +153,13 @@ def variables_in_rows(rng: random.Random) -> None:
                 messy += [[site, day, n, v] for n, v in zip(names, values, strict=True)]
                 tidy.append([site, day, *values])
         case(f"variables-in-rows-{i}", "variables-in-rows", messy, tidy)
+    messy = [["site_id", "visited_on", "measure", "value"]]
+    tidy = [["site_id", "visited_on", "water_temp_c", "ph", "dissolved_oxygen"]]
+    for site in rng.sample(SITES, 3):
+        values = [num(rng, 4, 12), num(rng, 6, 8), num(rng, 8, 11)]
+        messy += [[site, "2026-03-04", n, v] for n, v in zip(tidy[0][2:], values, strict=True)]
+        tidy.append([site, "2026-03-04", *values])
+    case("variables-in-rows-generic-measure", "variables-in-rows", messy, tidy)
     messy = [["site_id", "field", "entry"]]
     tidy = [["site_id", "sampled_on", "ph", "observer"]]
     for site in rng.sample(SITES, 4):
@@ -294,10 +303,10 @@ def main() -> None:
     from tidy_cases import tidy_tables
     from wickham_cases import wickham_tables
 
-    rng = random.Random(20260402)
+    # One generator per builder, so that adding cases to one family leaves the others as they were.
     for build in BUILDERS:
-        build(rng)
-    for name, rows in tidy_tables(rng).items():
+        build(random.Random(f"weir-layout-{build.__name__}"))
+    for name, rows in tidy_tables(random.Random("weir-layout-tidy")).items():
         case(name, "tidy", rows, rows)
     for name, (messy, tidy) in wickham_tables().items():
         case(name, "tidy-data-paper", messy, tidy)
