@@ -282,6 +282,64 @@ def multi_step(rng: random.Random) -> None:
     case("multi-years-units", "multi-step", messy, tidy)
 
 
+XLSX: dict[str, list[str]] = {}
+"""Cases written as workbooks: case name -> merged ranges of its sheet."""
+
+
+def workbooks(rng: random.Random) -> None:
+    """Spreadsheet forms: merged group labels over a two-row header, merged site cells, a title."""
+    top = ["site_id", "nitrate", "", "phosphate", ""]
+    second = ["", "min", "max", "min", "max"]
+    body = [
+        [s, num(rng, 0, 1), num(rng, 1, 2), num(rng, 0, 0.05, 3), num(rng, 0.05, 0.1, 3)]
+        for s in rng.sample(SITES, 4)
+    ]
+    case(
+        "xlsx-merged-two-row-header",
+        "multi-row-header",
+        [top, second, *body],
+        [["site_id", "a", "b", "c", "d"], *body],
+    )
+    XLSX["xlsx-merged-two-row-header"] = ["B1:C1", "D1:E1"]
+    messy: Rows = [["site_id", "sampled_on", "ph"]]
+    tidy: Rows = [["site_id", "sampled_on", "ph"]]
+    merged = []
+    for site in rng.sample(SITES, 3):
+        start = len(messy) + 1
+        for k in range(3):
+            day, ph = f"2025-07-{k * 7 + 1:02d}", num(rng, 6, 8)
+            messy.append([site if k == 0 else "", day, ph])
+            tidy.append([site, day, ph])
+        merged.append(f"A{start}:A{start + 2}")
+    case("xlsx-merged-site-cells", "same-as-above", messy, tidy)
+    XLSX["xlsx-merged-site-cells"] = merged
+    messy, tidy = wide(rng, ["2022", "2023", "2024"], 4)
+    case("xlsx-title-and-years", "multi-step", [["Exceedances per year", "", "", ""], *messy], tidy)
+    XLSX["xlsx-title-and-years"] = ["A1:D1"]
+
+
+def write_workbook(path: Path, rows: Rows, merged: list[str]) -> None:
+    from openpyxl import Workbook
+
+    book = Workbook()
+    sheet = book.active
+    assert sheet is not None
+    sheet.title = "Results"
+    for row in rows:
+        sheet.append([None if v == "" else (float(v) if _is_number(v) else v) for v in row])
+    for cells in merged:
+        sheet.merge_cells(cells)
+    book.save(path)
+
+
+def _is_number(text: str) -> bool:
+    try:
+        float(text)
+    except ValueError:
+        return False
+    return True
+
+
 BUILDERS: list[Callable[[random.Random], None]] = [
     values_in_headers,
     repeated_groups,
@@ -295,6 +353,7 @@ BUILDERS: list[Callable[[random.Random], None]] = [
     no_header,
     margins,
     multi_step,
+    workbooks,
 ]
 
 
@@ -318,7 +377,10 @@ def main() -> None:
     for name, (family, messy, tidy) in CASES.items():
         folder = HERE / name
         folder.mkdir()
-        write(folder / "input.csv", messy)
+        if name in XLSX:
+            write_workbook(folder / "input.xlsx", messy, XLSX[name])
+        else:
+            write(folder / "input.csv", messy)
         write(folder / "expected.csv", tidy)
         (folder / "case.yaml").write_text(f"family: {family}\n", encoding="utf-8")
     print(f"{len(CASES)} cases written")
