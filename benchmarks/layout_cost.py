@@ -29,6 +29,18 @@ def write_tidy(path: Path, rows: int) -> None:
             )
 
 
+def write_wide(path: Path, rows: int) -> None:
+    """A messy form of about the same number of cells: a title, one column per year, a note."""
+    rng = random.Random(11)
+    years = list(range(2016, 2026))
+    with path.open("w", encoding="utf-8") as handle:
+        handle.write("Vell Basin exceedances per year" + "," * len(years) + "\n")
+        handle.write("site_id," + ",".join(map(str, years)) + "\n")
+        for i in range(rows):
+            handle.write(f"VB-{i:07d}," + ",".join(str(rng.randint(0, 9)) for _ in years) + "\n")
+        handle.write("Note: provisional counts" + "," * len(years) + "\n")
+
+
 def timed(label: str, action):  # type: ignore[no-untyped-def]
     start = time.perf_counter()
     result = action()
@@ -57,6 +69,16 @@ def main() -> None:
         print(f"layout findings on the tidy file: {len(found)}")
         print(f"ratio (reading + inference) / reading: {(read_s + detect_s) / read_s:.2f}")
         print(f"inference adds {detect_s:.2f} s over reading ({detect_s / pandas_s:.2f} x pandas.read_csv)")
+
+        from linter.reshape.search import search
+
+        wide = Path(folder) / "wide.csv"
+        write_wide(wide, rows // 2)
+        print(f"messy file: {rows // 2:,} rows x 11 columns, {wide.stat().st_size / 1e6:.1f} MB")
+        wide_read_s, wide_tables = timed("baseline: Weir reader (read_path)", lambda: read_path(str(wide)))
+        search_s, found = timed("recipe search (apply + audit + re-detect)", lambda: search(wide_tables[0]))
+        print(f"chosen: {[s['step'] for s in found.best.steps]}, {len(found.best.output):,} rows out")
+        print(f"ratio (reading + search) / reading: {(wide_read_s + search_s) / wide_read_s:.2f}")
 
 
 if __name__ == "__main__":
