@@ -70,13 +70,15 @@ def main() -> None:
         print(f"ratio (reading + inference) / reading: {(read_s + detect_s) / read_s:.2f}")
         print(f"inference adds {detect_s:.2f} s over reading ({detect_s / pandas_s:.2f} x pandas.read_csv)")
 
-        from linter.reshape.search import search
+        from linter.reshape.search_sample import search_large
 
         wide = Path(folder) / "wide.csv"
         write_wide(wide, rows // 2)
         print(f"messy file: {rows // 2:,} rows x 11 columns, {wide.stat().st_size / 1e6:.1f} MB")
         wide_read_s, wide_tables = timed("baseline: Weir reader (read_path)", lambda: read_path(str(wide)))
-        search_s, found = timed("recipe search (apply + audit + re-detect)", lambda: search(wide_tables[0]))
+        search_s, found = timed(
+            "recipe search (apply + audit + re-detect)", lambda: search_large(wide_tables[0])
+        )
         print(f"chosen: {[s['step'] for s in found.best.steps]}, {len(found.best.output):,} rows out")
         print(f"ratio (reading + search) / reading: {(wide_read_s + search_s) / wide_read_s:.2f}")
 
