@@ -96,7 +96,9 @@ def draft_variable(name: str, cells: pd.Series) -> VariableDraft:
     codes, uniques = pd.factorize(cells.to_numpy(dtype=object), use_na_sentinel=True)
     counts = np.bincount(codes[codes >= 0], minlength=len(uniques))
     stripped = pd.Series(uniques, dtype=object).str.strip().to_numpy(dtype=object)
-    tally = pd.Series(counts, dtype=np.int64).groupby(stripped).sum() if len(uniques) else pd.Series()
+    tally = pd.Series(counts, index=pd.Index(stripped, dtype=object), dtype=np.int64)
+    if not tally.index.is_unique:  # " A" and "A" are one value once trimmed
+        tally = tally.groupby(level=0).sum()
     labels = tally.index.astype(str)
     is_coded = labels.isin(MISSING_CODES)
     is_empty = labels == ""
@@ -125,6 +127,8 @@ def draft_variable(name: str, cells: pd.Series) -> VariableDraft:
 
 
 def _numeric(base: VariableDraft, present: pd.Series, weights: pd.Series) -> VariableDraft | None:
+    if not _could_be_numbers(sample_of(present)):
+        return None  # refuted on the sample: no need to look at every value
     censored = present.str.startswith(CENSORED)
     body = present.where(~censored, present.str.slice(len(CENSORED)).str.strip())
     if not body.str.match(PLAIN_NUMBER).all():
@@ -199,6 +203,11 @@ def _shown(number: float) -> str:
     return str(int(number)) if number == int(number) else f"{number:g}"
 
 
+def _could_be_numbers(values: pd.Series) -> bool:
+    body = values.str.removeprefix(CENSORED).str.strip()
+    return bool(body.str.match(PLAIN_NUMBER).all())
+
+
 def _boolean(base: VariableDraft, present: pd.Series, weights: pd.Series) -> VariableDraft | None:
     if not present.str.casefold().isin(TRUE_FALSE).all():
         return None
@@ -209,6 +218,8 @@ def _boolean(base: VariableDraft, present: pd.Series, weights: pd.Series) -> Var
 
 
 def _temporal(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
+    if not sample_of(present).str.match(r"^\d").all():
+        return None  # every date form Weir drafts starts with a digit
     evidence = dict(base.evidence)
     if present.str.match(ISO_DATE).all() and _parses(present, "%Y-%m-%d"):
         kind, form = VarType.DATE, None

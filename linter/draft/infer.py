@@ -119,12 +119,13 @@ def choose_key(body: pd.DataFrame, variables: Sequence[VariableDraft]) -> tuple[
     rows = len(body)
     if rows < MIN_KEY_ROWS:
         return (), ""
-    candidates = [v.name for v in variables if not v.is_measurement and v.type is not VarType.BOOLEAN]
+    # A key cell is never empty, so only columns without empty cells or missing-value codes take part.
+    candidates = [
+        v.name for v in variables if not v.is_measurement and v.type is not VarType.BOOLEAN and not v.nullable
+    ]
     if not candidates:
         return (), f"no column set identifies each of {rows:,} rows"
-    # Cells holding missing-value codes identify nothing, so they count as empty for the search.
-    codes = {c for v in variables for c in v.missing_seen}
-    frame = body[candidates].apply(lambda column: column.where(~column.str.strip().isin(codes | {""})))
+    frame = body[candidates]
     found = unique_combinations(frame)
     if not found.keys:
         return (), f"no set of up to {found.max_size} columns is unique over {rows:,} rows"
