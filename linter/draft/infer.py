@@ -16,6 +16,8 @@ from linter.profile.keys import unique_combinations
 
 MIN_KEY_ROWS = 2
 """A key is only proposed when there are rows to tell apart."""
+MAX_UNIT_ROWS = 200_000
+"""Longer tables are not searched for functional dependencies (exact TANE is not linear in rows)."""
 BOUND_WORDS = (("min", "max"), ("minimum", "maximum"), ("low", "high"), ("lower", "upper"))
 
 
@@ -48,6 +50,7 @@ class TableDraft:
     recipes: tuple[tuple[str, tuple[dict[str, Any], ...]], ...] = ()
     """(source, steps) for each sample that had to be reshaped before drafting."""
     notes: tuple[str, ...] = field(default=())
+    """Observations for the data manager, written as comments at the top of the contract."""
 
     def variable(self, name: str) -> VariableDraft | None:
         return next((v for v in self.variables if v.name == name), None)
@@ -87,6 +90,24 @@ def draft_table(samples: Sequence[Sample], name: str | None = None) -> TableDraf
         rules=bound_rules(body, variables),
         applies_to=file_globs(sources),
         recipes=tuple((s.source, s.recipe) for s in samples if s.recipe),
+        notes=unit_notes(body, keys),
+    )
+
+
+def unit_notes(body: pd.DataFrame, keys: tuple[str, ...]) -> tuple[str, ...]:
+    """Say so when the rows describe more than one observational unit (columns that depend on part of the key)."""
+    if not keys or len(body) > MAX_UNIT_ROWS:
+        return ()
+    from linter.profile.evidence import mixed_units
+
+    found = mixed_units(body, keys, "rows")
+    if found is None:
+        return ()
+    parts = [f"{t.name} ({', '.join(t.columns)}; key {', '.join(t.key)})" for t in found.split.tables]
+    return (
+        f"The rows describe {len(parts)} observational units ({found.split.normal_form} split): "
+        + "; ".join(parts)
+        + ". Consider one table per unit (`weir tidy` proposes the split_by_unit step).",
     )
 
 

@@ -139,6 +139,7 @@ def header_comment(draft: TableDraft) -> str:
         f"Drafted by weir draft from {draft.rows:,} rows of: {files}",
         "Every entry is a proposal with its evidence; edit it before you send it to partners.",
     ]
+    lines.extend(draft.notes)
     for source, steps in draft.recipes:
         lines.append(
             f"{source.replace(chr(92), '/').rsplit('/', 1)[-1]} is not tidy as sent: this contract describes "

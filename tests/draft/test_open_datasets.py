@@ -104,3 +104,18 @@ def test_airports_are_keyed_by_their_code() -> None:
     # Source: ISO 6709: latitudes lie within -90..90, longitudes within -180..180 (from memory).
     assert float(latitude.minimum) >= -90 and float(latitude.maximum) <= 90  # type: ignore[arg-type]
     assert float(longitude.minimum) >= -180 and float(longitude.maximum) <= 180  # type: ignore[arg-type]
+
+
+def test_a_penguin_the_documentation_does_not_allow_fails_the_draft() -> None:
+    # Dataset: penguins.csv of `palmerpenguins`; the docstring lists three species and three islands,
+    # so a drafted contract must return a row with a fourth species on a fourth island.
+    drafted(packaged("palmerpenguins", "data", "penguins.csv"))
+    odd = Path("penguins-odd.csv")
+    lines = Path("penguins.csv").read_text().splitlines()
+    odd.write_text("\n".join([*lines, "Emperor,Ross,45.0,17.0,200,4000,male,2008"]) + "\n")
+    runner = CliRunner()
+    checked = runner.invoke(app, ["check", str(odd), "-c", "contract.yaml", "--report", "odd.json"])
+    assert checked.exit_code == 1
+    findings = json.loads(Path("odd.json").read_text())["tables"][0]["findings"]
+    flagged = {tuple(f["place"]["columns"]) for f in findings if f["rule"] == "values.not-in-code-list"}
+    assert flagged == {("species",), ("island",)}
