@@ -95,7 +95,7 @@ def draft_table(samples: Sequence[Sample], name: str | None = None) -> TableDraf
 
 
 def unit_notes(body: pd.DataFrame, keys: tuple[str, ...]) -> tuple[str, ...]:
-    """Say so when the rows describe more than one observational unit (columns that depend on part of the key)."""
+    """Say so when the rows describe several observational units (columns that depend on part of the key)."""
     if not keys or len(body) > MAX_UNIT_ROWS:
         return ()
     from linter.profile.evidence import mixed_units
