@@ -68,6 +68,8 @@ class VariableDraft:
     """The distinct text values, sorted, when there are at most MAX_CODES of them (else empty)."""
     missing_seen: tuple[str, ...] = ()
     """Missing-value codes found in this column (other than empty cells)."""
+    padded: int = 0
+    """Cells with spaces before or after the value (the draft proposes the trimmed value)."""
     evidence: dict[str, str] = field(default_factory=dict)
     """Property name (or "" for the variable itself) -> the comment that justifies it."""
 
@@ -114,7 +116,11 @@ def draft_variable(name: str, cells: pd.Series) -> VariableDraft:
         evidence["nullable"] = f"{plural(absent, 'empty cell')} in {rows:,} rows"
     else:
         evidence["nullable"] = f"no empty cell in {rows:,} rows"
-    base = VariableDraft(name, VarType.STRING, nullable, missing_seen=seen, evidence=evidence)
+    raw = pd.Series(uniques, dtype=object).astype(str).to_numpy(dtype=object)
+    padded_cells = int(counts[(raw != stripped) & (stripped != "")].sum())
+    base = VariableDraft(
+        name, VarType.STRING, nullable, missing_seen=seen, padded=padded_cells, evidence=evidence
+    )
     if present.empty:
         evidence[""] = f"every one of {rows:,} cells is empty"
         return base
@@ -165,6 +171,7 @@ def _numeric(base: VariableDraft, present: pd.Series, weights: pd.Series) -> Var
         unit=unit,
         censored_prefix=prefix,
         missing_seen=base.missing_seen,
+        padded=base.padded,
         evidence=evidence,
     )
 
@@ -213,7 +220,12 @@ def _boolean(base: VariableDraft, present: pd.Series, weights: pd.Series) -> Var
         return None
     evidence = {**base.evidence, "": f"{plural(int(weights.sum()), 'value')}, all true or false"}
     return VariableDraft(
-        base.name, VarType.BOOLEAN, base.nullable, missing_seen=base.missing_seen, evidence=evidence
+        base.name,
+        VarType.BOOLEAN,
+        base.nullable,
+        missing_seen=base.missing_seen,
+        padded=base.padded,
+        evidence=evidence,
     )
 
 
@@ -238,7 +250,13 @@ def _temporal(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
     dates = pd.to_datetime(present, format=form or "ISO8601", utc=kind is VarType.DATETIME)
     evidence[""] = evidence.get("", "dates") + f"; seen {dates.min():%Y-%m-%d} to {dates.max():%Y-%m-%d}"
     return VariableDraft(
-        base.name, kind, base.nullable, date_format=form, missing_seen=base.missing_seen, evidence=evidence
+        base.name,
+        kind,
+        base.nullable,
+        date_format=form,
+        missing_seen=base.missing_seen,
+        padded=base.padded,
+        evidence=evidence,
     )
 
 
@@ -279,6 +297,7 @@ def _textual(base: VariableDraft, present: pd.Series, weights: pd.Series, rows: 
             values=values,
             seen_values=values,
             missing_seen=base.missing_seen,
+            padded=base.padded,
             evidence=evidence,
         )
     evidence[""] = f"{plural(count, 'distinct value')} in {rows:,} rows"
@@ -292,5 +311,6 @@ def _textual(base: VariableDraft, present: pd.Series, weights: pd.Series, rows: 
         pattern=pattern,
         seen_values=seen_values,
         missing_seen=base.missing_seen,
+        padded=base.padded,
         evidence=evidence,
     )

@@ -16,6 +16,8 @@ from linter.profile.keys import unique_combinations
 
 MIN_KEY_ROWS = 2
 """A key is only proposed when there are rows to tell apart."""
+MADE_UP = re.compile(r"\(column [A-Z]{1,3}\)$")
+"""The label `linter.table.unique_labels` gives a blank or repeated header cell."""
 MAX_UNIT_ROWS = 200_000
 """Longer tables are not searched for functional dependencies (exact TANE is not linear in rows)."""
 BOUND_WORDS = (("min", "max"), ("minimum", "maximum"), ("low", "high"), ("lower", "upper"))
@@ -90,7 +92,31 @@ def draft_table(samples: Sequence[Sample], name: str | None = None) -> TableDraf
         rules=bound_rules(body, variables),
         applies_to=file_globs(sources),
         recipes=tuple((s.source, s.recipe) for s in samples if s.recipe),
-        notes=unit_notes(body, keys),
+        notes=label_notes(body.columns) + padding_notes(variables) + unit_notes(body, keys),
+    )
+
+
+def padding_notes(variables: Sequence[VariableDraft]) -> tuple[str, ...]:
+    """Codes and patterns are proposed trimmed, so cells written with spaces around them will not pass."""
+    padded = [v for v in variables if v.padded and (v.type is VarType.CATEGORY or v.pattern)]
+    if not padded:
+        return ()
+    shown = ", ".join(f"{v.name} ({plural(v.padded, 'cell')})" for v in padded)
+    return (
+        f"Cells with spaces around the value in {shown}: the codes and patterns below are trimmed, "
+        "so those cells will be reported until the file is corrected.",
+    )
+
+
+def label_notes(columns: pd.Index) -> tuple[str, ...]:
+    """Columns whose header was blank or repeated carry a made-up label; the provider must name them."""
+    made_up = [str(c) for c in columns if MADE_UP.search(str(c))]
+    if not made_up:
+        return ()
+    return (
+        f"{len(made_up)} column(s) have a blank or repeated header and are drafted as "
+        + ", ".join(made_up)
+        + ": give each its own name in the file and here, or the file cannot pass.",
     )
 
 

@@ -5,6 +5,8 @@ from __future__ import annotations
 import re
 
 BRACKETED = re.compile(r"[(\[]\s*([^()\[\]]+?)\s*[)\]]\s*$")
+MADE_UP_LABEL = re.compile(r"^column [A-Z]{1,3}$")
+"""`(column C)` is what the reader appends to a blank or repeated header, not a unit."""
 SUFFIXES: dict[str, str] = {
     "c": "degC",
     "degc": "degC",
@@ -31,7 +33,7 @@ Common practice (no source): snake_case column names end in their unit, as in `f
 def header_unit(name: str) -> str | None:
     """The unit a column name ends with, or None when it names none Weir knows."""
     bracketed = BRACKETED.search(name)
-    if bracketed:
+    if bracketed and not MADE_UP_LABEL.match(bracketed.group(1)):
         return bracketed.group(1)
     lowered = name.strip().lower()
     for suffix in sorted(SUFFIXES, key=len, reverse=True):
