@@ -12,6 +12,7 @@ import pandas as pd
 
 from linter.contract.model import VarType
 from linter.draft.columns import VariableDraft, draft_variable, plural
+from linter.errors import WeirError
 from linter.profile.keys import unique_combinations
 
 MIN_KEY_ROWS = 2
@@ -62,6 +63,12 @@ def draft_table(samples: Sequence[Sample], name: str | None = None) -> TableDraf
     """Everything the draft proposes for the table the samples share; pure (no file is read)."""
     if not samples:
         raise ValueError("a draft needs at least one sample table")
+    shared = set.intersection(*(set(map(str, s.body.columns)) for s in samples))
+    if len(samples) > 1 and not shared:
+        names = ", ".join(sorted({s.source for s in samples}))
+        raise WeirError(
+            f"the samples share no column, so they are not one kind of table ({names}); draft each separately"
+        )
     body, absent_from = combined(samples)
     variables = []
     for label in body.columns:

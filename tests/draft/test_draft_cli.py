@@ -114,3 +114,39 @@ def test_long_code_lists_go_to_their_own_file_beside_the_contract(tmp_path: Path
     assert species is not None and species.codes is not None
     assert species.codes.values == tuple(sorted(codes))
     assert run("check", str(sample), "-c", str(tmp_path / "out" / "species.yaml"))[0] == 0
+
+
+def test_files_that_share_no_column_are_refused_in_one_line(tmp_path: Path) -> None:
+    (tmp_path / "a.csv").write_text("site_id,ph\nVB-001,7.1\nVB-002,7.2\n")
+    (tmp_path / "b.csv").write_text("lab,analyst\nAU,RT\nMR,JM\n")
+    assert one_line_error(*run("draft", str(tmp_path / "a.csv"), str(tmp_path / "b.csv")))
+
+
+def test_update_finds_the_table_of_a_bundle_by_its_file_globs(tmp_path: Path) -> None:
+    bundle = tmp_path / "annual.yaml"
+    bundle.write_text(
+        "contract: vell-annual\n"
+        'version: "2026.1"\n'
+        "tables:\n"
+        "  sites:  # the register\n"
+        "    observational_unit: one site\n"
+        '    applies_to: ["sites*.csv"]\n'
+        "    keys: [site_id]\n"
+        "    variables: {site_id: string, river: string}\n"
+        "  visits:  # one row per visit\n"
+        "    observational_unit: one visit\n"
+        '    applies_to: ["visits*.csv"]\n'
+        "    keys: [site_id, visited_on]\n"
+        "    variables: {site_id: string, visited_on: date}\n"
+    )
+    visits = tmp_path / "visits-2026.csv"
+    visits.write_text("site_id,visited_on,observer\nVB-001,2026-01-11,RT\nVB-002,2026-01-11,JM\n")
+    code, output = run("draft", str(visits), "--update", str(bundle), "--write")
+    assert code == 0, output
+    table = load_contract(str(bundle)).table("visits")
+    assert table is not None and "observer" in table.names
+    assert load_contract(str(bundle)).table("sites").names == ("site_id", "river")  # type: ignore[union-attr]
+    assert "# the register" in bundle.read_text() and "# one row per visit" in bundle.read_text()
+    other = tmp_path / "counties-2026.csv"
+    other.write_text("county\nALD\nBRK\n")
+    assert one_line_error(*run("draft", str(other), "--update", str(bundle)))
