@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -11,6 +10,7 @@ import pandas as pd
 from linter.contract.convert import PLAIN_INTEGER, PLAIN_NUMBER
 from linter.contract.dates import ISO_DATE
 from linter.contract.model import VarType
+from linter.draft.ranges import margin_range, physical_range, shown
 from linter.draft.shapes import id_pattern
 from linter.draft.units import header_unit
 
@@ -34,13 +34,6 @@ DATE_FORMS: tuple[tuple[str, str], ...] = (
 """Other date forms a draft recognises (with zero-padded fields, so the strftime form writes them back)."""
 SHORT_CODE = r"[A-Za-z]{1,3}"
 """One to three letters (a laboratory qualifier such as J): a code even when it occurs only once."""
-COORDINATE_LIMITS = {
-    "latitude": (-90.0, 90.0),
-    "lat": (-90.0, 90.0),
-    "longitude": (-180.0, 180.0),
-    "lon": (-180.0, 180.0),
-    "lng": (-180.0, 180.0),
-}
 TRUE_FALSE = frozenset({"true", "false"})
 CENSORED = "<"
 
@@ -148,8 +141,8 @@ def _numeric(base: VariableDraft, present: pd.Series, weights: pd.Series) -> Var
     evidence = dict(base.evidence)
     kind = "whole numbers" if integer else "numbers"
     evidence[""] = f"{plural(int(weights.sum()), 'value')}, all {kind}"
-    evidence["min"] = f"smallest seen {_shown(low)}" + ("; no negative value" if minimum == 0 else "")
-    evidence["max"] = f"largest seen {_shown(high)}, with a margin"
+    evidence["min"] = f"smallest seen {shown(low)}" + ("; no negative value" if minimum == 0 else "")
+    evidence["max"] = f"largest seen {shown(high)}, with a margin"
     prefix = None
     if censored.any():
         prefix = CENSORED
@@ -174,40 +167,6 @@ def _numeric(base: VariableDraft, present: pd.Series, weights: pd.Series) -> Var
         padded=base.padded,
         evidence=evidence,
     )
-
-
-def margin_range(low: float, high: float, integer: bool) -> tuple[float, float]:
-    """The seen range widened by half its span or 5% of its size, rounded outward; 0 stays the floor.
-
-    Common practice (no source): a drafted range must let next month's ordinary values through,
-    and a quantity that was never negative (a concentration, a count) is bounded below by 0.
-    """
-    pad = max((high - low) / 2, max(abs(low), abs(high)) * 0.05, 1.0 if integer else 0.0)
-    if pad == 0:
-        pad = 1.0
-    step = 1.0 if integer else 10.0 ** (math.floor(math.log10(pad)) - 1)
-    digits = max(0, -math.floor(math.log10(step)))
-    minimum = round(math.floor(round((low - pad) / step, 6)) * step, digits)
-    maximum = round(math.ceil(round((high + pad) / step, 6)) * step, digits)
-    if low >= 0 > minimum:
-        minimum = 0.0
-    return minimum, maximum
-
-
-def physical_range(name: str, minimum: float, maximum: float) -> tuple[float, float]:
-    """Margins never pass what a coordinate can be.
-
-    Source: ISO 6709 (standard representation of geographic point location): latitude from -90 to
-    +90 degrees, longitude from -180 to +180; the section number is not given (from memory).
-    """
-    limits = COORDINATE_LIMITS.get(name.strip().lower())
-    if limits is None:
-        return minimum, maximum
-    return max(minimum, limits[0]), min(maximum, limits[1])
-
-
-def _shown(number: float) -> str:
-    return str(int(number)) if number == int(number) else f"{number:g}"
 
 
 def _could_be_numbers(values: pd.Series) -> bool:

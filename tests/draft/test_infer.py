@@ -6,8 +6,9 @@ import pandas as pd
 import pytest
 
 from linter.contract.model import VarType
-from linter.draft.columns import draft_variable, margin_range
+from linter.draft.columns import draft_variable
 from linter.draft.infer import Sample, draft_table, file_globs
+from linter.draft.ranges import margin_range
 from linter.draft.shapes import id_pattern
 from linter.draft.units import header_unit
 
