@@ -48,7 +48,8 @@ class VariableDraft:
     required: bool = True
     values: tuple[str, ...] = ()
     """Proposed codes of a category, sorted."""
-    minimum: float | None = None
+    minimum: float | str | None = None
+    """A number, or for a date the ISO 8601 first day of the earliest year seen."""
     maximum: float | None = None
     pattern: str | None = None
     unit: str | None = None
@@ -208,10 +209,16 @@ def _temporal(base: VariableDraft, present: pd.Series) -> VariableDraft | None:
             evidence["date_format"] += f" (but also as {_swapped(form)}: check which one partners use)"
     dates = pd.to_datetime(present, format=form or "ISO8601", utc=kind is VarType.DATETIME)
     evidence[""] = evidence.get("", "dates") + f"; seen {dates.min():%Y-%m-%d} to {dates.max():%Y-%m-%d}"
+    # A floor at the start of the earliest year catches a mistyped year (1926 for 2026); no
+    # ceiling, so next month's files pass. Common practice (no source).
+    earliest = f"{dates.min().year:04d}-01-01" if kind is VarType.DATE else None
+    if earliest is not None:
+        evidence["min"] = f"earliest seen {dates.min():%Y-%m-%d}"
     return VariableDraft(
         base.name,
         kind,
         base.nullable,
+        minimum=earliest,
         date_format=form,
         missing_seen=base.missing_seen,
         padded=base.padded,

@@ -76,7 +76,9 @@ def variable_node(variable: VariableDraft, contract_id: str, code_lists: dict[st
             node["values"] = flow(list(variable.values))
             key = "values"
         node.yaml_add_eol_comment(variable.evidence.get("values", ""), key)
-    if variable.minimum is not None:
+    if isinstance(variable.minimum, str):
+        node["min"] = quoted(variable.minimum)  # quoted: a date bound is ISO 8601 text
+    elif variable.minimum is not None:
         node["min"] = number(variable.minimum)
     if variable.maximum is not None:
         node["max"] = number(variable.maximum)

@@ -180,3 +180,10 @@ def test_a_column_absent_from_one_sample_file_is_not_required() -> None:
 def test_file_globs_keep_the_common_start_before_any_digit() -> None:
     names = ["in/field-sheets-2026-q1-a.csv", "in/field-sheets-2026-q2-b.xlsx"]
     assert file_globs(names) == ("field-sheets-*.csv", "field-sheets-*.xlsx")
+
+
+def test_a_date_gets_a_floor_at_the_start_of_its_earliest_year_and_no_ceiling() -> None:
+    drafted = draft_variable("sampled_on", cells("2026-03-03", "2025-11-30", "2026-04-01"))
+    assert drafted.minimum == "2025-01-01" and drafted.maximum is None
+    other_form = draft_variable("day", cells("2012/01/01", "2015/12/31"))
+    assert other_form.minimum == "2012-01-01"  # bounds are ISO 8601 whatever the agreed form
