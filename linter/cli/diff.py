@@ -12,12 +12,13 @@ from linter.contract.model import Contract
 from linter.errors import WeirError
 from linter.report.model import Report, TableResult
 
-DIFF_HELP = """List what changed between two versions of a contract, each change marked breaking for
-providers (a file that passed may now fail) or compatible, then a summary to send to partners.
-With --against FILES, the files (earlier accepted submissions) are checked under both versions
-and those that pass the old but fail the new are counted. Exit 0 when no change is breaking,
-1 when one is, 2 when Weir could not compare.
-"""
+DIFF_HELP = (
+    "List what changed between two versions of a contract, each change marked breaking for providers "
+    "(a file that passed may now fail) or compatible, then a summary to send to partners. With "
+    "--against FILES, the files (earlier accepted submissions) are checked under both versions and "
+    "those that pass the old but fail the new are counted. Exit 0 when no change is breaking, 1 when "
+    "one is, 2 when Weir could not compare."
+)
 
 
 @app.command(help=DIFF_HELP)

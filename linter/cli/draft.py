@@ -11,15 +11,15 @@ from linter.cli.app import app, guarded
 from linter.draft.infer import TableDraft
 from linter.errors import WeirError
 
-DRAFT_HELP = """Propose a contract from files a partner already sent (several files of one kind, or a folder).
-
-Every proposal carries its evidence as a YAML comment. With --out the contract (and any long
-code list, under codes/ beside it) is written, never over an existing file; without it the
-contract is printed. With --update CONTRACT, Weir keeps every edit and comment of that contract
-and only proposes additions (new columns as not required, new codes, missing-value codes seen),
-shown as a unified diff; --write then saves them into CONTRACT. Exit 0 when done, 2 when Weir
-could not.
-"""
+DRAFT_HELP = (
+    "Propose a contract from files a partner already sent (several files of one kind, or a folder).\n\n"
+    "Every proposal carries its evidence as a YAML comment. With --out the contract (and any long "
+    "code list, under codes/ beside it) is written, never over an existing file; without it the "
+    "contract is printed. With --update CONTRACT, Weir keeps every edit and comment of that contract "
+    "and only proposes additions (new columns as not required, new codes, missing-value codes seen), "
+    "shown as a unified diff; --write then saves them into CONTRACT. Exit 0 when done, 2 when Weir "
+    "could not."
+)
 
 
 @app.command(help=DRAFT_HELP)
