@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 import sys
 from pathlib import Path
 
@@ -30,9 +31,10 @@ def diff(
         [], "--against", help="Earlier accepted files or folders to check under the new version (repeatable)."
     ),
     summary: Path | None = typer.Option(None, "--summary", help="Also write the provider summary here."),
+    json_out: Path | None = typer.Option(None, "--json", help="Also write the changes as JSON here."),
 ) -> int:
     from linter.contract.load import load_contract
-    from linter.draft.diff import contract_changes, provider_summary
+    from linter.draft.diff import changes_json, contract_changes, provider_summary
     from linter.output import write_text_atomic
 
     before, after = load_contract(str(old)), load_contract(str(new))
@@ -46,10 +48,14 @@ def diff(
     if against:
         print()
         print(recheck([str(p) for p in against], before, after))
+    for option, target in (("--summary", summary), ("--json", json_out)):
+        if target is not None and target.resolve() in {old.resolve(), new.resolve()}:
+            raise WeirError(f"{option} {target} would overwrite a contract; choose another name")
     if summary is not None:
-        if summary.resolve() in {old.resolve(), new.resolve()}:
-            raise WeirError(f"--summary {summary} would overwrite a contract; choose another name")
         write_text_atomic(summary, text)
+    if json_out is not None:
+        data = changes_json(before, after, changes)
+        write_text_atomic(json_out, json.dumps(data, indent=2, ensure_ascii=False) + "\n")
     return 1 if any(c.breaking for c in changes) else 0
 
 

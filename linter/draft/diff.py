@@ -262,3 +262,25 @@ def provider_summary(old: Contract, new: Contract, changes: tuple[Change, ...]) 
             ["", f"Note for the data manager: breaking changes but the version is still {new.version}."]
         )
     return "\n".join(lines) + "\n"
+
+
+def changes_json(old: Contract, new: Contract, changes: tuple[Change, ...]) -> dict[str, object]:
+    """The comparison as JSON-ready data, for CI jobs that gate a contract change."""
+    return {
+        "weir_contract_diff": 1,
+        "contract": new.id,
+        "old_version": old.version,
+        "new_version": new.version,
+        "breaking": sum(c.breaking for c in changes),
+        "compatible": sum(not c.breaking for c in changes),
+        "changes": [
+            {
+                "table": c.table,
+                "subject": c.subject,
+                "kind": c.what,
+                "breaking": c.breaking,
+                "message": c.message,
+            }
+            for c in changes
+        ],
+    }

@@ -233,9 +233,21 @@ def test_a_bad_contract_is_one_line_and_exit_2(tmp_path: Path, bad: str) -> None
     assert "Traceback" not in result.output and len(result.output.strip().splitlines()) == 1
 
 
-def test_json_free_output_is_stable_between_runs(tmp_path: Path) -> None:
+def test_json_lists_each_change_and_the_output_is_stable_between_runs(tmp_path: Path) -> None:
     old_path = write(tmp_path / "old.yaml", OLD)
-    new_path = write(tmp_path / "new.yaml", OLD.replace("max: 100", "max: 40"))
-    first = CliRunner().invoke(app, ["diff", old_path, new_path]).output
-    assert first == CliRunner().invoke(app, ["diff", old_path, new_path]).output
-    assert json.dumps(first)  # plain text, safe to paste into an e-mail or a ticket
+    new_path = write(
+        tmp_path / "new.yaml", OLD.replace("max: 100", "max: 40").replace("version: 2", "version: 3")
+    )
+    first = CliRunner().invoke(app, ["diff", old_path, new_path, "--json", "changes.json"])
+    assert first.exit_code == 1
+    assert first.output == CliRunner().invoke(app, ["diff", old_path, new_path]).output
+    data = json.loads(Path("changes.json").read_text())
+    assert (data["old_version"], data["new_version"], data["breaking"], data["compatible"]) == (
+        "2",
+        "3",
+        1,
+        0,
+    )
+    assert data["changes"][0]["kind"] == "max-lowered" and data["changes"][0]["subject"] == "result"
+    refused = CliRunner().invoke(app, ["diff", old_path, new_path, "--json", new_path])
+    assert refused.exit_code == 2 and Path(new_path).read_text().count("max: 40") == 1
