@@ -64,7 +64,7 @@ def gather(p: Gather, sheet: Sheet) -> Outcome:
     rows = sheet.rows[take]
     keep = ~is_empty(cells[p.values_to]) if not p.keep_empty else np.ones(len(cells), dtype=bool)
     # a gathered column that leaves no row takes its header with it, on purpose
-    left = set(names[keep].tolist()) if not keep.all() else set(p.columns)
+    left = set(p.columns) if len(keep) and keep.all() else set(names[keep].tolist())
     gone = [c for c in p.columns if c not in left]
     dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
     cells, origin, rows = cells[keep], origin[keep], rows[keep]
