@@ -213,7 +213,12 @@ def handle(gate: Gate, relative: str) -> GateEvent:
         return GateEvent(relative, "skipped", "changed while being read")
     provider = provider_of(relative, gate.layout)
     known = gate.ledger.with_hash(sha256)
-    mine = [e for e in known if e.state != "done" and e.file_name == relative and e.provider == provider]
+    same_drop = [
+        e for e in known if e.file_name == relative and e.provider == provider and e.mtime_ns == before[1]
+    ]
+    if any(e.state == "done" for e in same_drop):
+        return GateEvent(relative, "skipped", "another gate has just filed it")
+    mine = [e for e in same_drop if e.state != "done"]
     if mine:
         entry = mine[0]
         if entry.owner != gate.owner:
@@ -223,7 +228,7 @@ def handle(gate: Gate, relative: str) -> GateEvent:
                 return GateEvent(relative, "skipped", "another gate resumed it first", entry.id)
     else:
         key = sha256 if not known else f"{sha256}#{len(known)}"
-        claimed = gate.ledger.claim(key, provider, relative, sha256, before[0], gate.owner)
+        claimed = gate.ledger.claim(key, provider, relative, sha256, before[0], gate.owner, before[1])
         if claimed is None:
             return GateEvent(relative, "skipped", "another gate claimed it", None)
         entry = gate.ledger.get(claimed)
