@@ -95,3 +95,20 @@ def test_gate_and_ledger_answer_bad_arguments_in_one_line(tmp_path: Path) -> Non
         assert message in result.stderr and "Traceback" not in result.output
         assert len(result.stderr.strip().splitlines()) == 1
     assert not (tmp_path / "inbox/.weir").exists()  # a failed start creates no ledger
+
+
+def test_weir_check_follows_a_map_in_the_settings(tmp_path: Path, repo: Path) -> None:
+    shutil.copytree(repo / "contracts", tmp_path / "contracts")
+    settings = 'contracts = ["contracts/sites.yaml", "contracts/field-sheets.yaml"]\n'
+    mapped = '\n[[map]]\nfiles = "volunteers/*.csv"\ncontract = "contracts/stream-chemistry.yaml"\n'
+    drop(tmp_path, "volunteers/ridge-2026-01.csv", BAD, 0)  # a name no contract's applies_to matches
+    drop(tmp_path, "sites-2026.csv", "site_id\n", 0)
+    runner = CliRunner()
+    for text, expected in [(settings, None), (settings + mapped, "stream-chemistry")]:
+        (tmp_path / "weir.toml").write_text(text)
+        result = runner.invoke(app, ["check", "volunteers", "sites-2026.csv", "--report", "out.json"])
+        assert result.exit_code == 1, result.output
+        tables = {t["file"]: t for t in json.loads((tmp_path / "out.json").read_text())["tables"]}
+        chemistry = tables["volunteers/ridge-2026-01.csv"]
+        assert (chemistry["contract"] or {}).get("id") == expected
+        assert tables["sites-2026.csv"]["contract"]["id"] == "sites"
