@@ -112,3 +112,37 @@ def test_weir_check_follows_a_map_in_the_settings(tmp_path: Path, repo: Path) ->
         chemistry = tables["volunteers/ridge-2026-01.csv"]
         assert (chemistry["contract"] or {}).get("id") == expected
         assert tables["sites-2026.csv"]["contract"]["id"] == "sites"
+
+
+def test_gate_watch_files_what_arrives_later_and_stops_cleanly_on_interrupt(
+    tmp_path: Path, repo: Path
+) -> None:
+    import signal
+    import subprocess
+    import sys
+
+    shutil.copytree(repo / "contracts", tmp_path / "contracts")
+    (tmp_path / "weir.toml").write_text(
+        'contracts = ["contracts/stream-chemistry.yaml"]\n\n[inbox]\nsettle_seconds = 0\n'
+    )
+    (tmp_path / "inbox").mkdir()
+    watcher = subprocess.Popen(
+        [sys.executable, "-m", "linter", "gate", "inbox", "--watch", "--interval", "0.2"],
+        cwd=tmp_path,
+        stdout=subprocess.PIPE,
+        stderr=subprocess.PIPE,
+        text=True,
+    )
+    try:
+        time.sleep(0.5)
+        drop(tmp_path / "inbox", "north-lab/chemistry-2026-01.csv", GOOD, 0)
+        filed = tmp_path / "inbox/accepted/north-lab/000001-chemistry-2026-01.csv"
+        deadline = time.time() + 60
+        while not filed.exists() and time.time() < deadline:
+            time.sleep(0.2)
+        assert filed.read_text() == GOOD
+    finally:
+        watcher.send_signal(signal.SIGINT)
+        out, err = watcher.communicate(timeout=60)
+    assert watcher.returncode == 0, err
+    assert "accepted  north-lab/chemistry-2026-01.csv" in out and "Traceback" not in err
