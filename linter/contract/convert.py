@@ -42,6 +42,11 @@ class Converted:
         return self.reason.notna()
 
 
+def _or_none(series: pd.Series) -> pd.Series:
+    """Object series with None (not NaN) where there is nothing, as the Converted fields promise."""
+    return series.astype(object).where(series.notna(), None)
+
+
 def unit_key(unit: str) -> str:
     """Units compared without case, spaces or the micro-sign spelling: `mg/l` is `mg/L`, `µg/L` is `ug/L`."""
     return unit.replace(" ", "").replace("µ", "u").replace("μ", "u").casefold()
@@ -123,7 +128,7 @@ def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str,
         censored_bad = censored & reason.notna() & (reason != Problem.WRONG_UNIT)
         reason[censored_bad & (body.str.strip() == "")] = Problem.CENSORED_NOT_A_NUMBER
         censored &= reason.isna()
-        return Converted(values, missing, censored, reason, suggestion)
+        return Converted(values, missing, censored, _or_none(reason), _or_none(suggestion))
     if kind is VarType.BOOLEAN:
         values, reason, suggestion = _booleans(text, present)
     elif kind is VarType.DATE:
@@ -134,4 +139,4 @@ def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str,
         values = text.where(present, None)
         reason = pd.Series(None, index=text.index, dtype=object)
         suggestion = reason.copy()
-    return Converted(values, missing, censored, reason, suggestion)
+    return Converted(values, missing, censored, _or_none(reason), _or_none(suggestion))

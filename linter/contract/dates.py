@@ -121,6 +121,8 @@ def convert_datetimes(
             values = pd.to_datetime(candidates.where(shaped), format="ISO8601", errors="coerce", utc=True)
     else:
         values = _parse(candidates, date_format)
+    if getattr(values.dt, "tz", None) is not None:  # written with offsets: compared as UTC times
+        values = values.dt.tz_convert(None)
     todo = present & values.isna()
     for form in OTHER_DATETIME_FORMS:
         left = todo & suggestion.isna()

@@ -37,9 +37,19 @@ class CheckedTable:
     failures: pd.DataFrame
     """One row per failing cell with FAILURE_COLUMNS; `kind` is range, codes, pattern, nullable or unique."""
 
+    unrun: tuple[tuple[str, str, str], ...] = ()
+    """(column, kind, pandera's error) for checks that raised instead of judging the cells."""
+
     def failing(self, column: str, kind: str) -> pd.DataFrame:
         rows = self.failures
         return rows[(rows["column"] == column) & (rows["kind"] == kind)]
+
+    def raise_if_unrun(self, kind: str) -> None:
+        """Raise when a check of `kind` never ran, so it surfaces as that inspector's failure, not silence."""
+        unrun = [(column, error) for column, k, error in self.unrun if k == kind]
+        if unrun:
+            column, error = unrun[0]
+            raise RuntimeError(f"the {kind} check of {column} could not run: {error}")
 
 
 def present_variables(contract: TableContract, frame: Frame) -> list[Variable]:
@@ -115,17 +125,28 @@ def compile_schema(
     return schema, kinds
 
 
+def _kind_of(row: pd.Series, kinds: Mapping[tuple[str, int], str]) -> str:
+    if row["check"] in KINDS_BY_PANDERA_NAME:
+        return KINDS_BY_PANDERA_NAME[row["check"]]
+    number = row["check_number"]
+    if number is None or pd.isna(number):
+        return "other"
+    return kinds.get((row["column"], int(number)), "other")
+
+
+def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[tuple[str, str, str], ...]:
+    """Checks pandera reports without a row: the check itself raised (e.g. an impossible comparison)."""
+    cases = error.failure_cases
+    cases = cases[cases["index"].isna()]
+    return tuple((str(r["column"]), _kind_of(r, kinds), str(r["failure_case"])) for _, r in cases.iterrows())
+
+
 def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> pd.DataFrame:
     cases = error.failure_cases
     cases = cases[cases["index"].notna()]
 
     def kind_of(row: pd.Series) -> str:
-        if row["check"] in KINDS_BY_PANDERA_NAME:
-            return KINDS_BY_PANDERA_NAME[row["check"]]
-        number = row["check_number"]
-        if number is None or pd.isna(number):
-            return "other"
-        return kinds.get((row["column"], int(number)), "other")
+        return _kind_of(row, kinds)
 
     table = pd.DataFrame(
         {
@@ -149,11 +170,13 @@ def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
     typed = pd.DataFrame({name: c.values for name, c in converted.items()}, index=index)
     schema, kinds = compile_schema(contract, converted)
     failures = pd.DataFrame({name: pd.Series(dtype=object) for name in FAILURE_COLUMNS})
+    unrun: tuple[tuple[str, str, str], ...] = ()
     try:
         schema.validate(typed, lazy=True)
     except SchemaErrors as error:
         failures = _failure_table(error, kinds)
-    return CheckedTable(converted, typed, failures)
+        unrun = _unrun(error, kinds)
+    return CheckedTable(converted, typed, failures, unrun)
 
 
 _last: tuple[TableContract, Frame, CheckedTable] | None = None

@@ -44,9 +44,9 @@ def first_invalid_utf8(path: str) -> tuple[int, bool] | None:
             try:
                 decoder.decode(chunk)
             except UnicodeDecodeError as error:
-                seen_multibyte = seen_multibyte or any(b >= 0x80 for b in chunk[: error.start])
+                seen_multibyte = seen_multibyte or not chunk[: error.start].isascii()
                 return offset + error.start, seen_multibyte
-            seen_multibyte = seen_multibyte or any(b >= 0x80 for b in chunk)
+            seen_multibyte = seen_multibyte or not chunk.isascii()
             offset += len(chunk)
         try:
             decoder.decode(b"", final=True)
@@ -72,12 +72,48 @@ def display_name(encoding: str) -> str:
     return names.get(encoding, encoding.replace("_", "-"))
 
 
+def single_byte_text(sample: bytes) -> bool:
+    """True when most non-ASCII bytes stand alone between ASCII ones, as accented letters do.
+
+    Multi-byte encodings (UTF-8, Big5, Shift JIS...) put non-ASCII bytes in runs of two or
+    more; a detector shown a mostly-ASCII file with one `ü` (byte FC) may still guess Big5.
+    """
+    # Common practice (no source): in Western single-byte text, accented letters are isolated.
+    high = [i for i, b in enumerate(sample) if b >= 0x80]
+    if not high:
+        return False
+    alone = sum(
+        1 for i in high if (i == 0 or sample[i - 1] < 0x80) and (i + 1 == len(sample) or sample[i + 1] < 0x80)
+    )
+    return alone * 2 > len(high)
+
+
+SINGLE_BYTE_PAGES = ["cp1252", "cp1250", "cp1257", "iso8859_15", "latin_1", "mac_roman", "cp850"]
+"""Code pages tried for text whose non-ASCII bytes stand alone (accented Latin letters)."""
+
+
 def guessed_encoding(sample: bytes) -> str | None:
-    """charset-normalizer's best guess for bytes that are not UTF-8 (None when it cannot tell)."""
-    best = from_bytes(sample).best()
-    if best is None:
+    """charset-normalizer's best guess for bytes that are not UTF-8 (None when it cannot tell).
+
+    When the detector ranks Windows-1252 equal to its best guess, or the best guess reads the
+    very same characters as Windows-1252 (e.g. Windows-1250 for German text), Windows-1252 is
+    named: it is the code page Western spreadsheets save in.
+    """
+    isolation = SINGLE_BYTE_PAGES if single_byte_text(sample) else None
+    matches = list(from_bytes(sample, cp_isolation=isolation))
+    if not matches:
         return None
-    return str(best.encoding)
+    best = matches[0]
+    tied = {str(m.encoding) for m in matches if (m.chaos, m.coherence) == (best.chaos, best.coherence)}
+    if "cp1252" in tied:
+        return "cp1252"
+    guess = str(best.encoding)
+    try:
+        if sample.decode("cp1252") == sample.decode(guess):
+            return "cp1252"
+    except (UnicodeDecodeError, LookupError):
+        pass
+    return guess
 
 
 def choose_decoding(path: str, head: bytes) -> Decoding:
@@ -89,10 +125,12 @@ def choose_decoding(path: str, head: bytes) -> Decoding:
                 if first_invalid_utf8(path) is None:
                     return Decoding(encoding, (note,))
                 break
-            return Decoding(
-                encoding,
-                (ReadNote("encoding", f"The file is encoded as {label}, not UTF-8.", examples=(label,)),),
-            )
+            if decodes_whole_file(path, encoding):
+                return Decoding(
+                    encoding,
+                    (ReadNote("encoding", f"The file is encoded as {label}, not UTF-8.", examples=(label,)),),
+                )
+            break  # bytes FF FE or FE FF that do not go on as UTF-16: judge them like any other
     if looks_like_utf16(head):
         # ASCII text with a NUL beside every character is UTF-16 that lost (or never had) its BOM;
         # NULs in the even bytes mean the high byte comes first (big-endian).
@@ -108,8 +146,9 @@ def choose_decoding(path: str, head: bytes) -> Decoding:
     if invalid is None:
         return Decoding("utf-8")
     offset, mixed = invalid
+    sample_start = max(0, offset - GUESS_SAMPLE_BYTES // 2)
     with open(path, "rb") as handle:
-        handle.seek(max(0, offset - GUESS_SAMPLE_BYTES // 2))
+        handle.seek(sample_start)
         sample = handle.read(GUESS_SAMPLE_BYTES)
     guess = guessed_encoding(sample)
     # A guess of UTF-8 (or none) for bytes that failed strict UTF-8 means the detector could
@@ -118,13 +157,15 @@ def choose_decoding(path: str, head: bytes) -> Decoding:
     for candidate in candidates:
         if decodes_whole_file(path, candidate):
             name = display_name(candidate)
-            bad = head[offset : offset + 8] if offset < len(head) else sample[:8]
+            at = offset - sample_start
+            around = sample[max(0, at - 12) : at + 12].decode(candidate, errors="replace")
+            snippet = " ".join(around.split())
             notes = [
                 ReadNote(
                     "encoding",
                     f"The file is not UTF-8 (first non-UTF-8 byte at offset {offset}); "
                     f"it was read as {name}.",
-                    examples=(name, bad.decode(candidate, errors="replace")),
+                    examples=(name, snippet),
                 )
             ]
             if mixed:

@@ -7,6 +7,7 @@ from html import escape
 from linter.findings import Excerpt, Finding, Severity
 from linter.report import letter, sketch
 from linter.report.model import Report, TableResult
+from linter.report.step_code import step_pandas_code
 
 STYLE = """
 :root { --ink:#1f2a33; --muted:#5b6b7d; --line:#c7d0d9; --bad:#fde2e1; --bad-ink:#8f1d14;
@@ -93,11 +94,18 @@ def reshape_html(finding: Finding) -> str:
     if finding.step is None:
         return ""
     picture = sketch.sketch_for(finding.step)
+    code = step_pandas_code(finding.step)
+    pandas = (
+        f'<p>The same change in pandas (on a DataFrame <code>df</code>):</p><pre class="code">'
+        f"<code>{escape(code)}</code></pre>"
+        if code
+        else ""
+    )
     return (
         f'<figure class="reshape">{sketch.svg(finding.step)}'
         f"<figcaption>{escape(picture.caption)}</figcaption></figure>"
         "<p>Weir can make this change for you; this is the step as a recipe:</p>"
-        f"<pre><code>{escape(letter.step_json(finding))}</code></pre>"
+        f'<pre class="recipe"><code>{escape(letter.step_json(finding))}</code></pre>{pandas}'
     )
 
 

@@ -9,6 +9,7 @@ from linter.findings import Excerpt, Severity
 from linter.report import letter
 from linter.report.model import Report
 from linter.report.sketch import Grid, sketch_for
+from linter.report.step_code import step_pandas_code
 
 SIGNIFICANT = re.compile(r"([\\`*_{}\[\]()#+!|~^$-])")
 """Punctuation Markdown (CommonMark and the common table extension) may read as markup."""
@@ -91,6 +92,10 @@ def finding_md(item: letter.Item) -> str:
         parts.append(md(picture.caption))
         parts.append("Weir can make this change for you; this is the step as a recipe:")
         parts.append(code_block(letter.step_json(f), "json"))
+        code = step_pandas_code(f.step)
+        if code:
+            parts.append("The same change in pandas (on a DataFrame `df`):")
+            parts.append(code_block(code, "python"))
     parts.append(f"Rule `{f.rule}`; `weir explain {f.rule}` says more.")
     return "\n\n".join(parts)
 

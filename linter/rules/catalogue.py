@@ -1,10 +1,20 @@
 """Imports every rule family so that its rules and inspectors are registered."""
 
-import linter.rules.columns
-import linter.rules.comparisons
-import linter.rules.keys
-import linter.rules.references
-import linter.rules.value_codes
-import linter.rules.values  # noqa: F401
-from linter.rules import gate as _gate  # noqa: F401
-from linter.rules import header, reading, unreadable  # noqa: F401
+from linter.rules import (  # noqa: F401
+    columns,
+    comparisons,
+    gate,
+    header,
+    keys,
+    layout_cells,
+    layout_headers,
+    layout_margins,
+    layout_rows,
+    reading,
+    references,
+    submission_units,
+    units,
+    unreadable,
+    value_codes,
+    values,
+)

@@ -120,14 +120,22 @@ def _header_place(subject: Subject, indexes: list[int]) -> Place:
 def missing_columns(subject: Subject) -> Iterator[Finding]:
     if subject.contract is None or not subject.frame.names:
         return
+    free = column_letter(len(subject.frame.names))
     for name in match_header(subject.frame.names, subject.contract).missing:
+        # An absent column has no letter of its own: give the first free one, where it can go.
         yield Finding(
             rule="columns.missing",
             severity=Severity.ERROR,
             message=f"The required column {name} is not in the header; its checks were skipped.",
-            place=Place(file=subject.table.source, sheet=subject.table.sheet, columns=(name,)),
-            fix=f"add a column headed {name}",
-            evidence={"expected": list(subject.contract.names)},
+            place=Place(
+                file=subject.table.source,
+                sheet=subject.table.sheet,
+                rows=subject.table.row_numbers[:1],
+                columns=(name,),
+                letters=(free,),
+            ),
+            fix=f"add a column headed {name}, for example as column {free}",
+            evidence={"expected": list(subject.contract.names), "absent": True},
         )
 
 

@@ -64,10 +64,10 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
         return  # a key column is missing: the key cannot be judged (columns.missing says why)
     flagged = sorted(set(result.failures.loc[result.failures["kind"] == "unique", "row"].astype(int)))
     typed = result.typed.loc[flagged, keys]
-    typed = typed[typed.notna().all(axis=1)]  # an empty key cell is keys.missing, not a duplicate
-    groups = typed.groupby(keys, sort=False, dropna=True).groups
-    for rows_index in groups.values():
-        rows = sorted(int(r) for r in rows_index)
+    # dropna: an empty key cell is keys.missing, never a duplicate of another empty one.
+    group_of = typed.groupby(keys, sort=False, dropna=True).ngroup()
+    for _, members in group_of[group_of >= 0].groupby(group_of[group_of >= 0], sort=True):
+        rows = sorted(int(r) for r in members.index)
         if len(rows) < 2:
             continue
         shown = ", ".join(f"{k}={written(subject, k, rows[:1])[0]}" for k in keys)
@@ -82,6 +82,7 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
             f"(rows {', '.join(map(str, rows))})",
             evidence={"key": keys, "rows": rows},
         )
+    result.raise_if_unrun("unique")
 
 
 @inspector(needs_contract=True)

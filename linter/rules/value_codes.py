@@ -61,6 +61,7 @@ def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], li
         variant_rows = [r for r, f in zip(rows, found, strict=True) if f in variants]
         unknown_rows = [r for r, f in zip(rows, found, strict=True) if f not in variants]
         yield variable, variants, variant_rows, unknown_rows
+    result.raise_if_unrun("codes")
 
 
 @inspector(needs_contract=True)

@@ -232,6 +232,7 @@ def missing_values(subject: Subject) -> Iterator[Finding]:
                     else ""
                 ),
             )
+    result.raise_if_unrun("nullable")
 
 
 @inspector(needs_contract=True)
@@ -265,6 +266,7 @@ def out_of_range(subject: Subject) -> Iterator[Finding]:
             + (f" ({censored} are censored; their detection limit is what is compared)" if censored else ""),
             evidence={"minimum": variable.minimum, "maximum": variable.maximum},
         )
+    result.raise_if_unrun("range")
 
 
 @inspector(needs_contract=True)
@@ -289,3 +291,4 @@ def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
             f"write each {name} in the form {variable.pattern} (found {quoted(found)})",
             evidence={"pattern": variable.pattern},
         )
+    result.raise_if_unrun("pattern")

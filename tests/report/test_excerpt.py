@@ -4,14 +4,19 @@ from __future__ import annotations
 
 import json
 from importlib import resources
+from pathlib import Path
 
 import jsonschema
+import pytest
 from report_samples import CHEMISTRY, chemistry_findings, make_frame
 
+import linter.check
+from linter.contract.model import Contract, TableContract
 from linter.findings import Finding, Place, Severity
 from linter.report import json_report
 from linter.report.excerpt import attach_excerpts
 from linter.report.model import Report
+from linter.rules.subject import Subject
 
 
 def test_excerpt_shows_named_rows_with_keys_and_marks_only_the_finding_cells() -> None:
@@ -68,3 +73,38 @@ def test_json_report_with_excerpts_validates_against_its_schema(report: Report) 
     assert excerpt["rows"][0]["marked"] == [False, False, False, True]
     document["tables"][0]["findings"][0]["excerpt"]["rows"][0]["colour"] = "red"
     assert not jsonschema.Draft202012Validator(schema).is_valid(document)  # additionalProperties holds
+
+
+def test_pipeline_attaches_excerpts_with_the_contract_keys(
+    tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    frame = make_frame(CHEMISTRY)
+    (tmp_path / frame.table.source).write_text("stand-in bytes for the hash")
+    monkeypatch.setattr(linter.check, "read_path", lambda path: [frame.table])
+
+    def negative_results(subject: Subject) -> list[Finding]:
+        return [
+            Finding(
+                "values.out-of-range",
+                Severity.WARNING,
+                "negative",
+                Place(subject.table.source, None, (3,), ("result",), ("D",)),
+            )
+        ]
+
+    monkeypatch.setattr(linter.check, "INSPECTORS", {"tests.negative_results": negative_results})
+    contract = Contract(
+        "stream-chemistry",
+        "2",
+        "t",
+        (
+            TableContract(
+                "stream-chemistry", "one analyte in one sample", ("site_id", "sampled_on", "analyte"), ()
+            ),
+        ),
+    )
+    report = linter.check.check_paths([frame.table.source], [contract])
+    excerpt = report.results[0].findings[0].excerpt
+    assert excerpt is not None
+    assert excerpt.columns == ("site_id", "sampled_on", "analyte", "result")
+    assert excerpt.rows[0].cells == ("VB-014", "2026-03-02", "phosphate", "-0.4")

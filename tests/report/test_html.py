@@ -109,3 +109,11 @@ def test_unknown_or_malformed_steps_get_the_generic_sketch() -> None:
     assert "reshaped by step pivot_longer" in sketch_for({"step": "pivot_longer"}).caption
     assert sketch_for({"step": "rename", "columns": ["not", "a", "mapping"]}).caption
     assert "<" not in svg({"step": "<script>"}).split("<title>")[1].split("</title>")[0]
+
+
+def test_layout_finding_shows_the_engines_pandas_code(report: Report) -> None:
+    text = html.render(report)
+    # the gather step of the sample is a pandas melt, written by the reshape engine's code generator
+    assert "df.melt(id_vars=ids, value_vars=[&#x27;2019&#x27;, &#x27;2020&#x27;]" in text
+    odd = Finding("layout.x", Severity.NOTE, "m", Place("f.csv"), step={"step": "not_a_step"})
+    assert "in pandas" not in html.render(replace(report, results=(), findings=(odd,)))

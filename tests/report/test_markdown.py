@@ -78,3 +78,9 @@ def test_backticks_in_a_step_cannot_close_the_fence(report: Report) -> None:
     )
     tree = rendered(markdown.render(replace(report, findings=(sneaky,))))
     assert tree.find(".//b") is None  # type: ignore[attr-defined]
+
+
+def test_pandas_code_of_the_step_is_included(report: Report) -> None:
+    tree = rendered(markdown.render(report))
+    codes = ["".join(c.itertext()) for c in tree.iter("code")]  # type: ignore[attr-defined]
+    assert any("df.melt(" in c for c in codes)

@@ -1,0 +1,107 @@
+"""The pandera engine: what a contract compiles to, and how pandera's failures come back as provider rows."""
+
+from __future__ import annotations
+
+import pandas as pd
+import pandera.pandas as pa
+import pytest
+
+from linter.contract.engine import FAILURE_COLUMNS, checked, compile_schema, run_contract
+from linter.contract.model import CodeList, TableContract, Variable, VarType
+from linter.table import Table, first_row_header
+
+CONTRACT = TableContract(
+    "stream-chemistry",
+    "one analyte measured in one water sample",
+    ("site_id", "analyte"),
+    (
+        Variable("site_id", pattern=r"^VB-\d{3}$"),
+        Variable("analyte", VarType.CATEGORY, codes=CodeList(("NITRATE", "PHOSPHATE"))),
+        Variable("result", VarType.NUMBER, minimum=0, maximum=50, nullable=False, censored_prefix="<"),
+        Variable("sampled_on", VarType.DATE, minimum="2026-01-01"),
+    ),
+    missing=("", "NA"),
+)
+
+HEADER = ["site_id", "analyte", "result", "sampled_on"]
+BODY = [
+    ["VB-001", "NITRATE", "0.5", "2026-03-02"],
+    ["VB-01", "NITRATE", "60", "2025-12-31"],
+    ["VB-001", "nitrate", "", "2026-03-02"],
+    ["VB-001", "NITRATE", "<0.05", "NA"],
+]
+# Provider lines with gaps, as when a spreadsheet has blank or note lines between records.
+LINES = (3, 5, 9, 10, 12)
+
+
+def frame():
+    table = Table("chemistry.csv", None, pd.DataFrame([HEADER, *BODY], dtype=object), LINES)
+    return first_row_header(table)
+
+
+def test_contract_compiles_to_a_pandera_schema() -> None:
+    schema, kinds = compile_schema(CONTRACT, {"site_id", "analyte", "result", "sampled_on"})
+    assert isinstance(schema, pa.DataFrameSchema)
+    assert schema.unique == ["site_id", "analyte"]
+    assert not schema.columns["result"].nullable and not schema.columns["site_id"].nullable
+    assert schema.columns["sampled_on"].nullable
+    assert kinds == {
+        ("site_id", 0): "pattern",
+        ("analyte", 0): "codes",
+        ("result", 0): "range",
+        ("sampled_on", 0): "range",
+    }
+
+
+def test_only_present_columns_are_compiled_and_a_partial_key_is_not_unique() -> None:
+    schema, _ = compile_schema(CONTRACT, {"site_id", "result"})
+    assert set(schema.columns) == {"site_id", "result"}
+    assert schema.unique is None
+
+
+@pytest.mark.parametrize(
+    ("column", "kind", "lines"),
+    [
+        ("site_id", "pattern", [9]),
+        ("analyte", "codes", [10]),
+        ("result", "range", [9]),
+        ("result", "nullable", [10]),
+        ("sampled_on", "range", [9]),
+        ("site_id", "unique", [5, 12]),
+    ],
+)
+def test_failures_come_back_with_provider_lines(column: str, kind: str, lines: list[int]) -> None:
+    result = run_contract(CONTRACT, frame())
+    assert tuple(result.failures.columns) == FAILURE_COLUMNS
+    assert sorted(result.failing(column, kind)["row"].tolist()) == lines
+
+
+def test_censored_value_is_typed_as_its_limit() -> None:
+    result = run_contract(CONTRACT, frame())
+    assert result.typed.loc[12, "result"] == pytest.approx(0.05)
+    assert bool(result.converted["result"].censored[12])
+
+
+def test_pandera_uniqueness_agrees_with_pandas_duplicated() -> None:
+    # Source: pandas reference library, DataFrame.duplicated(keep=False) over the key columns.
+    result = run_contract(CONTRACT, frame())
+    typed = result.typed
+    expected = sorted(typed.index[typed.duplicated(list(CONTRACT.keys), keep=False)].tolist())
+    assert sorted(set(result.failing("site_id", "unique")["row"])) == expected
+
+
+def test_clean_table_has_no_failures() -> None:
+    table = Table(
+        "chemistry.csv",
+        None,
+        pd.DataFrame([HEADER, ["VB-001", "NITRATE", "1", "2026-02-01"]], dtype=object),
+        (1, 2),
+    )
+    result = run_contract(CONTRACT, first_row_header(table))
+    assert result.failures.empty
+
+
+def test_the_engine_runs_once_per_table() -> None:
+    shared = frame()
+    assert checked(CONTRACT, shared) is checked(CONTRACT, shared)
+    assert checked(CONTRACT, frame()) is not checked(CONTRACT, shared)
