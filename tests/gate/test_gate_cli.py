@@ -73,6 +73,7 @@ def test_gate_then_ledger_with_the_demo_contract(tmp_path: Path, repo: Path) -> 
     assert "stream-chemistry v2" in shown.output
 
     exported = runner.invoke(app, ["ledger", "inbox", "--csv"])
+    # Source: Python's csv module (reference CSV reader) reads the export back, one record per submission
     rows = list(csv.DictReader(io.StringIO(exported.stdout)))
     assert [r["verdict"] for r in rows] == ["accepted", "returned", "returned", "duplicate", "returned"]
     assert rows[1]["errors"] != "0" and rows[0]["contract_version"] == "2"

@@ -259,3 +259,22 @@ def test_the_same_file_dropped_again_later_is_a_duplicate(tmp_path: Path) -> Non
     run_pass(gate(inbox))
     drop(inbox, "north-lab/chem-2026-01.csv", GOOD)
     assert [e.action for e in run_pass(gate(inbox))] == ["duplicate"]
+
+
+def test_the_ledger_records_the_published_sha256_of_a_submission(tmp_path: Path) -> None:
+    inbox = tmp_path / "inbox"
+    drop(inbox, "north-lab/abc.csv", "abc")  # three bytes; the stand-in checker returns it as unreadable
+    (event,) = run_pass(gate(inbox))
+    entry = SqliteLedger(inbox / LAYOUT.ledger).get(event.entry or 0)
+    # Source: NIST FIPS 180-4 examples (CSRC "SHA256.pdf"), one-block message "abc"
+    assert entry.sha256 == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+    assert entry.size == 3
+    # Source: ISO 8601 extended format with a UTC offset, as read by Python's datetime.fromisoformat
+    from datetime import datetime, timedelta
+
+    for stamp in (entry.received_at, entry.checked_at, entry.filed_at, entry.done_at):
+        assert stamp is not None and datetime.fromisoformat(stamp).utcoffset() == timedelta(0)
+    # Source: SQLite documentation, PRAGMA integrity_check answers the single row "ok" for a sound file
+    assert SqliteLedger(inbox / LAYOUT.ledger).connection.execute("PRAGMA integrity_check").fetchall() == [
+        ("ok",)
+    ]
