@@ -147,3 +147,36 @@ def test_gate_watch_files_what_arrives_later_and_stops_cleanly_on_interrupt(
         out, err = watcher.communicate(timeout=60)
     assert watcher.returncode == 0, err
     assert "accepted  north-lab/chemistry-2026-01.csv" in out and "Traceback" not in err
+
+
+def test_a_bundle_is_checked_together_even_when_its_register_was_filed_first(
+    tmp_path: Path, repo: Path
+) -> None:
+    shutil.copytree(repo / "contracts", tmp_path / "contracts")
+    (tmp_path / "weir.toml").write_text(
+        'contracts = ["contracts/stream-chemistry.yaml", "contracts/sites.yaml"]\n\n'
+        '[[bundle]]\nname = "register-and-results"\nfiles = ["sites*.csv", "chemistry*.csv"]\n'
+    )
+    counties = (tmp_path / "contracts/codes/counties.yaml").read_text().splitlines()
+    county = next(line.split(":")[0].strip("- ") for line in counties if line and not line.startswith("#"))
+    sites = (
+        "site_id,site_name,river,county,latitude,longitude,established_on,active\n"
+        f"VB-014,Mill Weir,Vell,{county},52.1,-2.2,2019-04-01,true\n"
+    )
+    unknown_site = GOOD.replace("VB-015", "VB-099")
+    inbox = tmp_path / "inbox"
+    drop(inbox, "north-lab/sites.csv", sites, 1)
+    drop(inbox, "north-lab/chemistry-2026-01.csv", unknown_site, 2)
+    # east-county sends no register of its own: north-lab's is not lent to it
+    drop(inbox, "east-county/chemistry-2026-01.csv", unknown_site.replace("VL000123", "VL000223"), 3)
+
+    result = CliRunner().invoke(app, ["gate", "inbox"])
+    assert result.exit_code == 0, result.output
+    assert "accepted  north-lab/sites.csv" in result.output, result.output
+    north = json.loads((inbox / "returned/north-lab/000002-chemistry-2026-01.csv.report.json").read_text())
+    assert [t["file"] for t in north["tables"]] == ["inbox/north-lab/chemistry-2026-01.csv"]
+    unknown = [f for f in north["tables"][0]["findings"] if f["rule"] == "references.unknown"]
+    assert len(unknown) == 1 and "VB-099" in unknown[0]["examples"]
+    east = json.loads((inbox / "accepted/east-county/000003-chemistry-2026-01.csv.report.json").read_text())
+    assert "references.table-absent" in {f["rule"] for f in east["tables"][0]["findings"]}
+    assert list((inbox / ".weir/scratch").iterdir()) == []  # the lent copy is gone again
