@@ -91,13 +91,15 @@ def provider_of(relative: str, layout: InboxLayout) -> str:
 def candidates(inbox: Path, layout: InboxLayout) -> Iterator[str]:
     """Files waiting in the inbox (relative posix paths), skipping Weir's own folders and temp files."""
     own = {PurePosixPath(layout.accepted).parts[0], PurePosixPath(layout.returned).parts[0]}
+    ledger = PurePosixPath(layout.ledger).as_posix()
+    ledger_files = {ledger, f"{ledger}-wal", f"{ledger}-shm", f"{ledger}-journal"}
     waiting: list[tuple[int, str]] = []
     for path in inbox.rglob("*"):
         relative = path.relative_to(inbox)
         parts = relative.parts
         if parts[0] in own or any(p.startswith(".") for p in parts):
             continue
-        if path.is_symlink() or not path.is_file():
+        if path.is_symlink() or not path.is_file() or relative.as_posix() in ledger_files:
             continue
         name = parts[-1]
         if name.startswith("~$") or name.lower().endswith(PARTIAL_SUFFIXES):

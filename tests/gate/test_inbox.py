@@ -278,3 +278,13 @@ def test_the_ledger_records_the_published_sha256_of_a_submission(tmp_path: Path)
     assert SqliteLedger(inbox / LAYOUT.ledger).connection.execute("PRAGMA integrity_check").fetchall() == [
         ("ok",)
     ]
+
+
+def test_a_ledger_kept_in_plain_sight_inside_the_inbox_is_not_taken_for_a_submission(tmp_path: Path) -> None:
+    inbox = tmp_path / "inbox"
+    layout = InboxLayout(settle_seconds=0, ledger="gate-ledger.sqlite")
+    drop(inbox, "north-lab/chem-2026-01.csv", GOOD)
+    keeper = Gate(inbox, layout, SqliteLedger(inbox / layout.ledger), guarded(check_csv), new_owner())
+    assert [e.file for e in run_pass(keeper)] == ["north-lab/chem-2026-01.csv"]
+    assert [e.file for e in run_pass(keeper)] == []
+    assert (inbox / "gate-ledger.sqlite").is_file()
