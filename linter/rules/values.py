@@ -131,7 +131,9 @@ def problem_hint(problem: Problem, found: str, suggestion: object, variable: Var
 
 
 def _rule_of(reason: pd.Series) -> pd.Series:
-    return reason.map(lambda p: Problem(p).rule, na_action="ignore")
+    """The rule id of each failing cell (only failing cells are kept: most cells are fine)."""
+    failed = reason[reason.notna()]
+    return failed.map(lambda p: Problem(p).rule)
 
 
 def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
@@ -140,13 +142,14 @@ def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
         return
     for name, converted in result.converted.items():
         variable = subject.contract.variable(name)
-        mask = _rule_of(converted.reason) == rule
-        if variable is None or not mask.any():
+        rules = _rule_of(converted.reason)
+        mine = converted.reason[rules.index[rules == rule]]
+        if variable is None or mine.empty:
             continue
-        rows = [int(r) for r in converted.reason.index[mask]]
+        rows = [int(r) for r in mine.index]
         hints: list[str] = []
         kinds: dict[str, int] = {}
-        for problem, cells in converted.reason[mask].groupby(converted.reason[mask]):
+        for problem, cells in mine.groupby(mine):
             first = int(cells.index[0])
             found = written(subject, name, [first])[0]
             hints.append(problem_hint(Problem(problem), found, converted.suggestion[first], variable))
@@ -183,7 +186,7 @@ def _format_fix(subject: Subject, variable: Variable, converted: Converted, rows
     first = rows[0]
     found = written(subject, variable.name, [first])[0]
     suggestion = str(converted.suggestion[first])
-    if variable.unit and converted.reason[first] is Problem.WRONG_UNIT:
+    if variable.unit and converted.reason[first] == Problem.WRONG_UNIT:
         return f"convert to {variable.unit} and write the number alone (found {found!r}, in {suggestion})"
     if " or " in suggestion:
         return f"write {suggestion} (found {found!r}; day and month cannot be told apart, so check which)"
