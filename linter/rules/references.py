@@ -64,9 +64,11 @@ def reference_values(subject: Subject) -> Iterator[Finding]:
                 evidence={"references": str(reference)},
             )
             continue
+        # Compared as written on both sides: a key is text to the provider ("014" is not "14").
         known = set(other.body[reference.column].dropna().astype(str))
-        cells = converted.values.where(~converted.missing & converted.reason.isna())
-        unknown = cells.notna() & ~cells.astype(str).isin(known)
+        cells = subject.frame.body[name].set_axis(converted.missing.index)
+        judged = ~converted.missing & converted.reason.isna()
+        unknown = judged & ~cells.astype(str).isin(known)
         if not unknown.any():
             continue
         rows = [int(r) for r in unknown.index[unknown]]
