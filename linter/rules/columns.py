@@ -67,8 +67,10 @@ SEVERITY_OF_EXTRA = {"error": Severity.ERROR, "warn": Severity.WARNING}
 
 
 def name_key(name: str) -> str:
-    """A header reduced for comparison: case folded, runs of spaces, dashes and dots as one underscore."""
-    return re.sub(r"[\s\-.]+", "_", name.strip()).casefold()
+    """A header reduced for comparison: a trailing unit like `(mg/L)` dropped, case folded,
+    runs of spaces, dashes and dots as one underscore."""
+    bare = re.sub(r"\s*[(\[][^)\]]*[)\]]\s*$", "", name.strip()) or name.strip()
+    return re.sub(r"[\s\-.]+", "_", bare).casefold()
 
 
 @dataclass(frozen=True)

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from collections.abc import Iterator
 
 import pandas as pd
@@ -219,7 +220,8 @@ def missing_values(subject: Subject) -> Iterator[Finding]:
             continue
         flagged = set(result.failing(name, "nullable")["row"].astype(int))
         # pandera sees a failed conversion as null too; that cell is a wrong-type finding, not a missing one.
-        rows = [int(r) for r in converted.missing.index[converted.missing] if int(r) in flagged]
+        hit = converted.missing & converted.missing.index.isin(list(flagged))
+        rows = [int(r) for r in converted.missing.index[hit]]
         if rows:
             yield column_finding(
                 subject,
@@ -284,6 +286,11 @@ def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
             continue
         rows = [int(r) for r in failing["row"]]
         found = written(subject, name, rows[:3])
+        whole = re.compile(variable.pattern or "")
+        spaced = [f for f in written(subject, name, rows) if f != f.strip() and whole.fullmatch(f.strip())]
+        fix = f"write each {name} in the form {variable.pattern} (found {quoted(found)})"
+        if spaced:
+            fix += f"; {quoted(spaced[:3])} only need the surrounding spaces removed"
         yield column_finding(
             subject,
             "values.pattern-mismatch",
@@ -291,7 +298,7 @@ def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
             rows,
             f"In {name}, {counted(len(rows), 'value', 'does', 'do')} not have the agreed form "
             f"{variable.pattern}.",
-            f"write each {name} in the form {variable.pattern} (found {quoted(found)})",
+            fix,
             evidence={"pattern": variable.pattern},
         )
     result.raise_if_unrun("pattern")

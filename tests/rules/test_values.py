@@ -134,6 +134,12 @@ CASES = (
         (Expect("values.pattern-mismatch", (3, 4), "VB-\\d{3}", ("VB-0145", "vb-014")),),
     ),
     Case(
+        "surrounding spaces are named as the only problem",
+        Variable("site_id", pattern=r"VB-\d{3}"),
+        ("VB-014 ", "VB-14"),
+        (Expect("values.pattern-mismatch", (2, 3), "'VB-014 ' only need the surrounding spaces removed"),),
+    ),
+    Case(
         "empty cells and missing codes in a non-nullable variable",
         Variable("result", VarType.NUMBER, nullable=False),
         ("1", None, "NA", "-999", "abc"),
