@@ -13,8 +13,9 @@ from linter import __version__
 from linter.contract.model import Contract, TableContract
 from linter.findings import Finding, Place, Severity, sort_key
 from linter.read import SUPPORTED_SUFFIXES, UnreadableFile, read_path
+from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
-from linter.rules.registry import CONTRACT_ONLY, INSPECTORS
+from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
 from linter.table import Frame, Table, first_row_header
 
@@ -115,6 +116,25 @@ def run_inspectors(subject: Subject) -> list[Finding]:
     return sorted(findings, key=sort_key)
 
 
+def run_submission_inspectors(subjects: Sequence[Subject]) -> list[Finding]:
+    """Run every submission-level inspector once over all tables; a failing one hides no other."""
+    findings: list[Finding] = []
+    for name, inspect in SUBMISSION_INSPECTORS.items():
+        try:
+            findings.extend(inspect(subjects))
+        except Exception as error:  # same isolation as per-table inspectors
+            findings.append(
+                Finding(
+                    rule=INTERNAL_RULE,
+                    severity=Severity.ERROR,
+                    message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
+                    f"{type(error).__name__}: {error}. Please report this to the data manager.",
+                    place=Place(file=subjects[0].table.source if subjects else ""),
+                )
+            )
+    return sorted(findings, key=sort_key)
+
+
 def check_paths(
     paths: Sequence[str], contracts: Sequence[Contract], fail_on: Severity = Severity.ERROR
 ) -> Report:
@@ -138,9 +158,11 @@ def check_paths(
     for g in governed:
         if g.rules is not None:
             by_name.setdefault(g.rules.name, frames[id(g)])
+    subjects: list[Subject] = []
     for g in governed:
         frame = frames[id(g)]
         subject = Subject(g.table, frame, g.rules, by_name)
+        subjects.append(subject)
         results.append(
             TableResult(
                 file=g.table.source,
@@ -152,8 +174,13 @@ def check_paths(
                 contract=g.contract.id if g.contract else None,
                 contract_version=g.contract.version if g.contract else None,
                 table=g.rules.name if g.rules else None,
-                findings=tuple(run_inspectors(subject)),
+                findings=attach_excerpts(
+                    run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
+                ),
                 encoding=g.table.encoding,
             )
         )
-    return Report(__version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results))
+    whole = tuple(run_submission_inspectors(subjects))
+    return Report(
+        __version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results), whole
+    )

@@ -41,6 +41,29 @@ class Place:
 
 
 @dataclass(frozen=True)
+class ExcerptRow:
+    """One row of an excerpt: the provider's row number and the cells shown."""
+
+    row: int
+    """Provider row number (as the spreadsheet or text editor shows it)."""
+    cells: tuple[str | None, ...]
+    """Cell texts exactly as written (None for an empty cell), one per excerpt column."""
+    marked: tuple[bool, ...]
+    """True for the cells the finding is about, one per excerpt column."""
+
+
+@dataclass(frozen=True)
+class Excerpt:
+    """A few offending rows of the provider's table, for a letter to show with the bad cells marked."""
+
+    columns: tuple[str, ...]
+    """Column names shown (the finding's columns and the key columns, in file order)."""
+    letters: tuple[str, ...]
+    """Spreadsheet letter of each shown column."""
+    rows: tuple[ExcerptRow, ...]
+
+
+@dataclass(frozen=True)
 class Finding:
     """One problem (or observation) in a submission, with what the provider should do."""
 
@@ -60,6 +83,8 @@ class Finding:
     """For layout problems: one recipe step (JSON-ready) that reshapes the table."""
     evidence: Mapping[str, Any] = field(default_factory=dict)
     """Extra facts behind the finding (JSON-ready), e.g. the key columns or a group's rows."""
+    excerpt: Excerpt | None = None
+    """A few of the offending rows, attached by the pipeline after inspection (never by a rule)."""
 
 
 def listed_rows(rows: list[int] | tuple[int, ...]) -> tuple[int, ...]:

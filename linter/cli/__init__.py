@@ -2,6 +2,9 @@
 
 from linter.cli import check as _check  # noqa: F401  (registers the command)
 from linter.cli import explain as _explain  # noqa: F401
+from linter.cli import gate as _gate  # noqa: F401
+from linter.cli import ledger as _ledger  # noqa: F401
+from linter.cli import tidy as _tidy  # noqa: F401
 from linter.cli.app import app
 
 

@@ -5,8 +5,6 @@ from __future__ import annotations
 import difflib
 
 import typer
-from rich.console import Console
-from rich.markdown import Markdown
 
 from linter.cli.app import app, guarded
 from linter.errors import WeirError
@@ -18,6 +16,9 @@ def explain(
     rule: str = typer.Argument(None, help="Rule id, e.g. layout.values-in-headers; omit to list all."),
 ) -> int:
     """Explain what a rule finds, why it matters and how to fix it."""
+    from rich.console import Console
+    from rich.markdown import Markdown
+
     import linter.rules.catalogue  # noqa: F401
     from linter.rules.registry import RULES
 

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import csv
+import io
 from collections import Counter
 from collections.abc import Iterator
 from contextlib import contextmanager
@@ -22,7 +23,9 @@ SAMPLE_RECORDS = 50
 
 def records_of(text: str, delimiter: str) -> list[list[str]]:
     try:
-        return list(csv.reader(text.splitlines(keepends=True), delimiter=delimiter, strict=False))
+        # StringIO with newline="" splits at CR and LF only, as csv does; str.splitlines would
+        # also split at characters like U+001E or U+0085 that are ordinary text in a cell.
+        return list(csv.reader(io.StringIO(text, newline=""), delimiter=delimiter, strict=False))
     except csv.Error:
         return []
 
@@ -55,22 +58,6 @@ def cell_limit(chars: int) -> Iterator[None]:
         csv.field_size_limit(previous)
 
 
-class RecordSource:
-    """Feeds physical lines to csv while remembering the raw lines of the current record."""
-
-    def __init__(self, scanner: LineScanner) -> None:
-        self.lines = iter(scanner)
-        self.raw: list[str] = []
-
-    def __iter__(self) -> Iterator[str]:
-        return self
-
-    def __next__(self) -> str:
-        line = next(self.lines)
-        self.raw.append(line)
-        return line
-
-
 def trimmed(record: list[str], width: int) -> list[str]:
     """Drop empty cells past the header's width: a trailing delimiter is not an extra column."""
     end = len(record)
@@ -81,6 +68,19 @@ def trimmed(record: list[str], width: int) -> list[str]:
 
 def read_delimited(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab: bool) -> Table:
     """Read a delimited text file; header rows stay in the grid, row numbers are physical lines."""
+    try:
+        return decoded_table(path, decoding, limits, prefer_tab)
+    except UnicodeDecodeError as error:
+        # choose_decoding checked the whole file; this is the safety net for a codec that
+        # accepts bytes one way and refuses them another.
+        raise UnreadableFile(
+            "file.encoding-unknown",
+            f"The file cannot be decoded as {decoding.encoding} ({error.reason} at byte {error.start}).",
+            "Open the file in the program that made it and save it as CSV UTF-8.",
+        ) from None
+
+
+def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab: bool) -> Table:
     with open(path, encoding=decoding.encoding, newline="") as handle:
         sample = handle.read(SAMPLE_CHARS + 1)
     delimiter = choose_delimiter(sample[:SAMPLE_CHARS], len(sample) <= SAMPLE_CHARS, prefer_tab)
@@ -91,8 +91,7 @@ def read_delimited(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab
     last_raw: list[str] = []
     with open(path, encoding=decoding.encoding, newline="") as handle, cell_limit(limits.max_cell_chars):
         scanner = LineScanner(handle, limits.max_line_chars)
-        source = RecordSource(scanner)
-        reader = csv.reader(source, delimiter=delimiter, quotechar='"', doublequote=True, strict=False)
+        reader = csv.reader(iter(scanner), delimiter=delimiter, quotechar='"', doublequote=True, strict=False)
         consumed = 0
         while True:
             start = consumed + 1
@@ -108,8 +107,8 @@ def read_delimited(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab
                     "Close the quote or shorten the cell, then send the file again.",
                 ) from None
             consumed = reader.line_num
-            last_raw = list(source.raw)
-            source.raw.clear()
+            last_raw = scanner.raw
+            scanner.raw = []
             if not any(record):
                 blank_lines.append(start)
                 continue
@@ -136,7 +135,7 @@ def read_delimited(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab
         )
     notes = list(decoding.notes)
     width = len(rows[0])
-    rows = [trimmed(r, width) for r in rows]
+    rows = [trimmed(r, width) if len(r) > width else r for r in rows]
     ragged = [(line, len(r)) for line, r in zip(starts, rows, strict=True) if len(r) != width]
     if ragged:
         notes.append(

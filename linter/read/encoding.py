@@ -44,9 +44,9 @@ def first_invalid_utf8(path: str) -> tuple[int, bool] | None:
             try:
                 decoder.decode(chunk)
             except UnicodeDecodeError as error:
-                seen_multibyte = seen_multibyte or any(b >= 0x80 for b in chunk[: error.start])
+                seen_multibyte = seen_multibyte or not chunk[: error.start].isascii()
                 return offset + error.start, seen_multibyte
-            seen_multibyte = seen_multibyte or any(b >= 0x80 for b in chunk)
+            seen_multibyte = seen_multibyte or not chunk.isascii()
             offset += len(chunk)
         try:
             decoder.decode(b"", final=True)
@@ -125,10 +125,12 @@ def choose_decoding(path: str, head: bytes) -> Decoding:
                 if first_invalid_utf8(path) is None:
                     return Decoding(encoding, (note,))
                 break
-            return Decoding(
-                encoding,
-                (ReadNote("encoding", f"The file is encoded as {label}, not UTF-8.", examples=(label,)),),
-            )
+            if decodes_whole_file(path, encoding):
+                return Decoding(
+                    encoding,
+                    (ReadNote("encoding", f"The file is encoded as {label}, not UTF-8.", examples=(label,)),),
+                )
+            break  # bytes FF FE or FE FF that do not go on as UTF-16: judge them like any other
     if looks_like_utf16(head):
         # ASCII text with a NUL beside every character is UTF-16 that lost (or never had) its BOM;
         # NULs in the even bytes mean the high byte comes first (big-endian).

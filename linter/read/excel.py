@@ -4,16 +4,20 @@ from __future__ import annotations
 
 import re
 import zipfile
+from collections.abc import Iterator
 from dataclasses import replace
 from datetime import datetime
 
 import pandas as pd
 from openpyxl import load_workbook
 from openpyxl.cell.cell import Cell
+from openpyxl.cell.read_only import ReadOnlyCell
+from openpyxl.worksheet._read_only import ReadOnlyWorksheet
 from openpyxl.worksheet.worksheet import Worksheet
 
 from linter.read.cells import cell_text
 from linter.read.errors import UnreadableFile
+from linter.read.formulas import uncached_formulas
 from linter.read.limits import ReadLimits
 from linter.table import ReadNote, Table, column_letter
 
@@ -30,8 +34,11 @@ def is_workbook(path: str) -> bool:
         return False
 
 
-def check_archive(path: str, limits: ReadLimits) -> None:
-    """Refuse a zip bomb from the sizes the archive declares, before anything is inflated."""
+def check_archive(path: str, limits: ReadLimits) -> int:
+    """Refuse a zip bomb from the sizes the archive declares, before anything is inflated.
+
+    Returns the declared inflated size, which decides whether the workbook is streamed.
+    """
     try:
         with zipfile.ZipFile(path) as archive:
             members = archive.infolist()
@@ -46,6 +53,7 @@ def check_archive(path: str, limits: ReadLimits) -> None:
             f"ratio limit {limits.max_compression_ratio}:1), so it was not opened.",
             "Send the data as a plain CSV file, or a workbook saved normally by a spreadsheet program.",
         )
+    return total
 
 
 def corrupt(reason: str) -> UnreadableFile:
@@ -56,7 +64,7 @@ def corrupt(reason: str) -> UnreadableFile:
     )
 
 
-def shown_text(cell: Cell) -> str | None:
+def shown_text(cell: Cell | ReadOnlyCell) -> str | None:
     """A cell's cached value as the provider reads it: ISO dates, no float noise, padded zeros kept."""
     value = cell.value
     fmt = str(cell.number_format or "General")
@@ -69,12 +77,31 @@ def shown_text(cell: Cell) -> str | None:
     return cell_text(value)
 
 
-def read_sheet(ws: Worksheet, path: str, limits: ReadLimits) -> Table | None:
-    """One worksheet as a Table, or None when the sheet holds nothing."""
+def written_cells(ws: Worksheet | ReadOnlyWorksheet) -> Iterator[tuple[int, int, Cell | ReadOnlyCell]]:
+    """Every cell the file writes, with its 1-based row and column."""
+    if isinstance(ws, ReadOnlyWorksheet):
+        ws.reset_dimensions()  # the stated dimensions may be wrong; read to the real end
+        for row in ws.iter_rows():
+            for cell in row:
+                if isinstance(cell, ReadOnlyCell):
+                    yield cell.row, cell.column, cell
+        return
     # openpyxl keeps only the cells written in the file; walking them avoids visiting the
     # million empty rows a stray format can add to `max_row`.
-    texts: dict[tuple[int, int], str] = {}
     for (row, col), cell in ws._cells.items():
+        yield row, col, cell
+
+
+def hidden_sheet(ws: Worksheet | ReadOnlyWorksheet) -> list[ReadNote]:
+    if ws.sheet_state == "visible":
+        return []
+    return [ReadNote("hidden-sheet", f"The sheet {ws.title!r} is {ws.sheet_state}.")]
+
+
+def read_sheet(ws: Worksheet | ReadOnlyWorksheet, path: str, limits: ReadLimits) -> Table | None:
+    """One worksheet as a Table, or None when the sheet holds nothing."""
+    texts: dict[tuple[int, int], str] = {}
+    for row, col, cell in written_cells(ws):
         text = shown_text(cell)
         if text is not None:
             texts[(row, col)] = text
@@ -95,6 +122,15 @@ def read_sheet(ws: Worksheet, path: str, limits: ReadLimits) -> Table | None:
     blank = sorted(set(range(used[0], used[-1] + 1)) - set(used))
     if blank:
         notes.append(ReadNote("blank-rows", "Blank rows inside the table.", rows=tuple(blank)))
+    if isinstance(ws, ReadOnlyWorksheet):
+        notes.append(
+            ReadNote(
+                "streamed-workbook",
+                "The workbook is large, so it was read in streaming mode: merged cells and hidden "
+                "rows and columns were not checked.",
+            )
+        )
+        return Table(path, ws.title, grid, tuple(used), format="xlsx", notes=tuple(notes + hidden_sheet(ws)))
     hidden = sorted(r for r, dim in ws.row_dimensions.items() if dim.hidden and r <= last_row)
     if hidden:
         notes.append(ReadNote("hidden-rows", f"{len(hidden)} row(s) are hidden.", rows=tuple(hidden)))
@@ -122,8 +158,7 @@ def read_sheet(ws: Worksheet, path: str, limits: ReadLimits) -> Table | None:
                 examples=merged[:5],
             )
         )
-    if ws.sheet_state != "visible":
-        notes.append(ReadNote("hidden-sheet", f"The sheet {ws.title!r} is {ws.sheet_state}."))
+    notes.extend(hidden_sheet(ws))
     return Table(
         source=path,
         sheet=ws.title,
@@ -136,31 +171,44 @@ def read_sheet(ws: Worksheet, path: str, limits: ReadLimits) -> Table | None:
     )
 
 
+def with_uncached(table: Table, missing: tuple[int, list[str]] | None) -> Table:
+    """Tag a sheet whose formulas were saved without values (Weir reads them as empty)."""
+    if missing is None:
+        return table
+    count, refs = missing
+    note = ReadNote(
+        "uncached-formulas",
+        f"{count} formula cell(s) were saved without their calculated value, so they read as empty.",
+        rows=tuple(sorted({int(re.sub(r"^[A-Z]+", "", r)) for r in refs if re.fullmatch(r"[A-Z]+\d+", r)})),
+        examples=tuple(refs),
+    )
+    return replace(table, notes=(*table.notes, note))
+
+
 def read_workbook(path: str, limits: ReadLimits) -> list[Table]:
     """Every worksheet with content, hidden ones included; formulas are never evaluated."""
-    check_archive(path, limits)
-    try:
-        # Not read-only mode: that mode exposes neither merged ranges nor hidden rows.
-        # data_only gives the values cached by the program that saved the file.
-        # A handle, not the name: openpyxl refuses names without a workbook extension, but the
-        # bytes have already shown this is a workbook.
-        with open(path, "rb") as handle:
-            workbook = load_workbook(handle, read_only=False, data_only=True, keep_links=False)
-    except OSError:
-        raise
-    except Exception as error:  # openpyxl raises many kinds on damaged XML; all mean "corrupt"
-        raise corrupt(f"{type(error).__name__}: {error}") from None
-    try:
-        tables: list[Table] = []
-        empty: list[str] = []
-        for ws in workbook.worksheets:
-            table = read_sheet(ws, path, limits)
-            if table is None:
-                empty.append(ws.title)
-            else:
-                tables.append(table)
-    finally:
-        workbook.close()
+    streamed = check_archive(path, limits) > limits.full_workbook_bytes
+    tables: list[Table] = []
+    empty: list[str] = []
+    # A handle, not the name: openpyxl refuses names without a workbook extension, but the
+    # bytes have already shown this is a workbook. Full mode unless the workbook is large:
+    # streaming mode exposes neither merged ranges nor hidden rows. data_only gives the values
+    # cached by the program that saved the file; nothing is ever calculated.
+    with open(path, "rb") as handle:
+        try:
+            workbook = load_workbook(handle, read_only=streamed, data_only=True, keep_links=False)
+            for ws in workbook.worksheets:
+                table = read_sheet(ws, path, limits)
+                if table is None:
+                    empty.append(ws.title)
+                else:
+                    tables.append(table)
+            missing = uncached_formulas(path)
+        except (OSError, UnreadableFile):
+            raise
+        except Exception as error:  # openpyxl raises many kinds on damaged XML; all mean "corrupt"
+            raise corrupt(f"{type(error).__name__}: {error}") from None
+    tables = [with_uncached(t, missing.get(t.sheet or "")) for t in tables]
     if not tables:
         raise UnreadableFile(
             "file.empty",

@@ -13,6 +13,17 @@ REPORT_FORMAT = 1
 """Bumped whenever the report's shape changes incompatibly; the schema file carries the same number."""
 
 
+def excerpt_record(finding: Finding) -> dict[str, Any] | None:
+    excerpt = finding.excerpt
+    if excerpt is None:
+        return None
+    return {
+        "columns": list(excerpt.columns),
+        "letters": list(excerpt.letters),
+        "rows": [{"row": r.row, "cells": list(r.cells), "marked": list(r.marked)} for r in excerpt.rows],
+    }
+
+
 def finding_record(finding: Finding) -> dict[str, Any]:
     record = asdict(finding)
     record["severity"] = finding.severity.value
@@ -20,6 +31,7 @@ def finding_record(finding: Finding) -> dict[str, Any]:
     record["examples"] = list(finding.examples)
     record["step"] = dict(finding.step) if finding.step is not None else None
     record["evidence"] = dict(finding.evidence)
+    record["excerpt"] = excerpt_record(finding)
     return record
 
 

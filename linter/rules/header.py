@@ -111,6 +111,8 @@ def blank_names(subject: Subject) -> Iterable[Finding]:
 
 @inspector()
 def repeated_names(subject: Subject) -> Iterable[Finding]:
+    if looks_like_title(subject.frame.names):
+        return
     groups: dict[str, list[int]] = {}
     for index, name in enumerate(subject.frame.names):
         if name.strip():
@@ -134,6 +136,8 @@ def repeated_names(subject: Subject) -> Iterable[Finding]:
 @inspector()
 def padded_names(subject: Subject) -> Iterable[Finding]:
     names = subject.frame.names
+    if looks_like_title(names):
+        return
     padded = [i for i, name in enumerate(names) if name.strip() and name != name.strip()]
     if padded:
         yield Finding(

@@ -20,6 +20,8 @@ from linter.rules.reading_rules import (
     MIXED_ENCODING,
     NUL_BYTES,
     RAGGED_ROWS,
+    STREAMED,
+    UNCACHED_FORMULAS,
     UNCLOSED_QUOTE,
 )
 from linter.rules.registry import Rule, inspector
@@ -61,6 +63,10 @@ NOTE_RULES: dict[str, NoteRule] = {
     ),
     "hidden-sheet": NoteRule(HIDDEN_SHEET, "Unhide the sheet, or delete it if it is not part of the data."),
     "empty-sheets": NoteRule(EMPTY_SHEETS, "Delete empty sheets before sending the workbook."),
+    "uncached-formulas": NoteRule(
+        UNCACHED_FORMULAS, "Open the workbook in a spreadsheet program, let it calculate, and save it."
+    ),
+    "streamed-workbook": NoteRule(STREAMED, "Send the data as CSV UTF-8, or in smaller workbooks."),
 }
 """Every note kind the reader writes; a test checks none is missing."""
 

@@ -174,3 +174,28 @@ EMPTY_SHEETS = define_rule(
     Good: a workbook with only `results`.
     """,
 )
+STREAMED = define_rule(
+    "sheet.streamed",
+    "A large workbook was read without its sheet layout",
+    Severity.NOTE,
+    """
+    Finds workbooks so large that Weir read them in streaming mode, which keeps memory bounded
+    but cannot see merged cells or hidden rows and columns; those checks did not run.
+
+    Bad: a 300 MB `.xlsx` whose merged and hidden cells Weir cannot vouch for.
+    Good: the same data as CSV UTF-8 (no layout to hide), or split into smaller workbooks.
+    """,
+)
+UNCACHED_FORMULAS = define_rule(
+    "sheet.formula-without-value",
+    "Formulas were saved without their values",
+    Severity.WARNING,
+    """
+    Finds formula cells stored without a calculated value (files written by scripts, or saved
+    with calculation switched off). Weir never calculates formulas, so these cells read as
+    empty although a spreadsheet program shows a number once it recalculates.
+
+    Bad: `E2` holds `=C2*2` and no saved value.
+    Good: the workbook opened and saved once by a spreadsheet program, or the value typed in.
+    """,
+)

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import inspect as _inspect
-from collections.abc import Callable, Iterable
+from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
@@ -59,3 +59,15 @@ def inspector(*, needs_contract: bool = False) -> Callable[[Inspector], Inspecto
         return function
 
     return register
+
+
+SubmissionInspector = Callable[[Sequence["Subject"]], Iterable[Finding]]
+
+SUBMISSION_INSPECTORS: dict[str, SubmissionInspector] = {}
+"""Inspectors that look at all tables of one submission at once (files split or stacked)."""
+
+
+def submission_inspector(function: SubmissionInspector) -> SubmissionInspector:
+    """Register a function `[Subject, ...] -> Iterable[Finding]` to run once per submission."""
+    SUBMISSION_INSPECTORS[f"{function.__module__}.{function.__name__}"] = function
+    return function

@@ -145,3 +145,12 @@ def test_tsv_suffix_prefers_tab_and_sets_format() -> None:
     table = read_one("a.tsv", b"site_id\tnote\nVB-014\tnone, really\n")
     assert table.format == "tsv"
     assert cells(table)[1] == ["VB-014", "none, really"]
+
+
+@pytest.mark.parametrize("pad", range(8185, 8195))
+def test_crlf_split_across_read_buffers_counts_once(pad: int) -> None:
+    # The CR and LF of one CRLF may arrive in different buffer reads (8 KiB apart here).
+    data = b"a,b\r\n" + b"x," + b"y" * pad + b"\r\n" + b"1,2\r\n"
+    table = read_one("a.csv", data)
+    assert table.row_numbers == (1, 2, 3)
+    assert "line-endings" not in kinds(table)

@@ -115,3 +115,14 @@ def test_windows_1252_only_characters_pick_windows_1252() -> None:
     table = read_one("a.csv", text.encode("cp1252"))
     assert table.encoding == "cp1252"
     assert cells(table)[1] == ["VB-014", "Señora Niño", "5€"]
+
+
+@pytest.mark.parametrize("data", [b"\xfe\xffx;x", b"\xff\xfe\x1ex\xa9;\xa9\n\x00"])
+def test_utf16_bom_followed_by_bytes_that_are_not_utf16(data: bytes) -> None:
+    # Regression: found by a random-bytes run; these raised UnicodeDecodeError out of the reader.
+    try:
+        tables = read_path(write("a.csv", data))
+    except UnreadableFile as verdict:
+        assert verdict.rule.startswith("file.")
+    else:
+        assert tables[0].encoding != "utf-16"

@@ -122,8 +122,14 @@ def test_formula_without_cached_value_is_empty_not_evaluated(tmp_path: Path) -> 
     ws.append(["a", "b"])
     ws.append([1, "=A2+1"])
     wb.save(tmp_path / "f.xlsx")
-    grid = cells(read_path(str(tmp_path / "f.xlsx"))[0])
-    assert grid[1] == ["1", None]
+    (table,) = read_path(str(tmp_path / "f.xlsx"))
+    assert cells(table)[1] == ["1", None]
+    note = next(n for n in table.notes if n.kind == "uncached-formulas")
+    assert note.examples == ("B2",) and note.rows == (2,)
+
+
+def test_formula_with_cached_value_is_not_noted(workbook: Path) -> None:
+    assert "uncached-formulas" not in kinds(read_path(str(workbook))[0])
 
 
 def test_truncated_workbook_is_corrupt(workbook: Path) -> None:
@@ -167,3 +173,13 @@ def test_csv_named_xlsx_is_read_as_text_and_noted() -> None:
     assert cells(tables[0])[1] == ["VB-014", "4.2"]
     note = next(n for n in tables[0].notes if n.kind == "misnamed")
     assert re.search(r"\.xlsx", note.message)
+
+
+def test_large_workbook_is_streamed_with_the_same_cells(workbook: Path) -> None:
+    full = read_path(str(workbook))
+    streamed = read_path(str(workbook), ReadLimits(full_workbook_bytes=0))
+    assert [cells(t) for t in streamed] == [cells(t) for t in full]
+    assert [t.row_numbers for t in streamed] == [t.row_numbers for t in full]
+    assert "streamed-workbook" in kinds(streamed[0])
+    assert "hidden-sheet" in kinds(streamed[1])
+    assert streamed[0].merged_ranges == ()  # streaming mode cannot see them; the note says so

@@ -47,7 +47,11 @@ def test_text_is_text() -> None:
 
 @pytest.mark.parametrize(
     ("data", "named"),
-    [(MAGIC[0][0], "PDF document"), (MAGIC[1][0], "PNG image"), (gzip.compress(b"a,b\n"), "gzip archive")],
+    [
+        (MAGIC[0][0], "PDF document"),
+        (MAGIC[1][0], "PNG image"),
+        (gzip.compress(b"a,b\n", mtime=0), "gzip archive"),
+    ],
 )
 def test_binary_renamed_to_csv_is_not_a_table(data: bytes, named: str) -> None:
     name = write("results.csv", data)

@@ -42,7 +42,7 @@ CASES = [
     ("quote.csv", b'site_id,result\nVB-014,"1\nVB-015,2\n', {"file.unclosed-quote"}),
     ("text.xlsx", b"site_id,result\nVB-014,1\n", {"file.misnamed"}),
     # A title row above the header is a layout question; the header rules stay quiet on it.
-    ("title.csv", b"Vell Basin results,,\nsite_id,result,unit\nVB-014,1,mg/L\n", set()),
+    ("title.csv", b"Vell Basin results ,,\nsite_id,result,unit\nVB-014,1,mg/L\n", set()),
 ]
 
 

@@ -1,0 +1,1 @@
+"""Gatekeeping: the pre-commit hook, the inbox gate and the submission ledger."""

@@ -1,0 +1,1 @@
+"""Reshaping a table by a recipe of declarative steps, with provenance and a value-conservation audit."""

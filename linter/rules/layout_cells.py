@@ -1,0 +1,193 @@
+"""Layout rules about cells holding more than one value: packed columns and list cells."""
+
+from __future__ import annotations
+
+import re
+from collections import Counter
+from collections.abc import Iterable
+
+from linter.contract.model import TableContract
+from linter.findings import Finding, Severity
+from linter.rules.layout_place import layout_finding
+from linter.rules.layout_signals import blank, cell_kind, sample, slug
+from linter.rules.registry import define_rule, inspector
+from linter.rules.subject import Subject
+from linter.table import Frame, Table, first_row_header
+
+PACKED_COLUMN = define_rule(
+    "layout.packed-column",
+    "Several variables in one column",
+    Severity.ERROR,
+    """
+    Finds a column whose every value joins several values: a number and its unit (`12 mg/L`),
+    a range (`0-5`), or two codes joined by a separator (`nitrate/filtered`). Such a column is
+    text to every tool, so it cannot be summed, compared or checked. Fix: split it into one
+    column per part.
+
+    Bad:
+        site,nitrate
+        VB-014,1.2 mg/L
+
+    Good:
+        site,nitrate,nitrate_unit
+        VB-014,1.2,mg/L
+    """,
+)
+
+LIST_CELLS = define_rule(
+    "layout.list-cells",
+    "Lists inside cells",
+    Severity.ERROR,
+    """
+    Finds a column whose cells hold lists of items separated by `;`, `|` or `,`
+    (`mayfly; stonefly`). Counting, filtering or joining by an item is impossible while the
+    items share a cell. Fix: one row per item.
+
+    Bad:
+        site,taxa
+        VB-014,mayfly; stonefly
+
+    Good:
+        site,taxa
+        VB-014,mayfly
+        VB-014,stonefly
+    """,
+)
+
+NUM = r"[<>]?-?\d+(?:\.\d+)?"
+VALUE_UNIT = re.compile(rf"^\s*({NUM})\s*([A-Za-zµμ°%][A-Za-z0-9µμ°%/.²³]*)\s*$")
+RANGE_CELL = re.compile(r"^\s*(-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(-?\d+(?:\.\d+)?)\s*$")
+YEAR_MONTH = re.compile(r"^\d{4}-\d{2}$")
+SEPARATORS = ("/", "|", "_", ":", " - ")
+LIST_SEPARATORS = (";", "|", ",")
+MATCH_SHARE = 0.9
+
+
+def _texts(frame: Frame, label: str) -> list[str]:
+    return [str(v) for v in sample(frame.body[label]) if not blank(v)]
+
+
+def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
+    matches = [VALUE_UNIT.match(t) for t in texts]
+    hits = [m for m in matches if m]
+    if len(hits) < MATCH_SHARE * len(texts) or len(hits) < 2:
+        return None
+    name = slug(label)
+    pattern = rf"^\s*(?P<{name}>{NUM})\s*(?P<{name}_unit>\S.*?)\s*$"
+    return {"pattern": pattern, "into": [name, f"{name}_unit"], "kind": "value and unit"}
+
+
+def _range(label: str, texts: list[str]) -> dict[str, object] | None:
+    if any(YEAR_MONTH.match(t.strip()) for t in texts):
+        return None
+    hits = [RANGE_CELL.match(t) for t in texts]
+    if sum(bool(h) for h in hits) < MATCH_SHARE * len(texts) or len(texts) < 2:
+        return None
+    name = slug(label)
+    pattern = rf"^\s*(?P<{name}_from>-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(?P<{name}_to>-?\d+(?:\.\d+)?)\s*$"
+    return {"pattern": pattern, "into": [f"{name}_from", f"{name}_to"], "kind": "range"}
+
+
+def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
+    """Two codes joined by one separator whose parts cross like two variables (m/014, f/014, ...)."""
+    for sep in SEPARATORS:
+        parts = [t.split(sep) for t in texts]
+        if not all(len(p) == 2 and p[0].strip() and p[1].strip() for p in parts):
+            continue
+        left = {p[0].strip() for p in parts}
+        right = {p[1].strip() for p in parts}
+        combos = {(p[0].strip(), p[1].strip()) for p in parts}
+        if len(left) < 2 or len(right) < 2 or len(combos) < 0.5 * len(left) * len(right):
+            continue
+        if len(combos) == len(texts) and len(texts) > 6:
+            continue  # every value unique: an identifier, not two variables
+        if any(cell_kind(t) != "text" for t in texts):
+            return None
+        name = slug(label)
+        pattern = rf"^(?P<{name}_1>.+?){re.escape(sep)}(?P<{name}_2>.+)$"
+        return {"pattern": pattern, "into": [f"{name}_1", f"{name}_2"], "kind": "two codes"}
+    return None
+
+
+def find_packed_column(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = first_row_header(table)
+    findings: list[Finding] = []
+    for label in frame.labels:
+        texts = _texts(frame, label)
+        if len(texts) < 2:
+            continue
+        found = _value_unit(label, texts) or _range(label, texts) or _crossed_codes(label, texts)
+        if found is None:
+            continue
+        variable = contract.variable(label) if contract else None
+        if variable is not None and variable.unit and found["kind"] == "value and unit":
+            found["into"] = [label, f"{label}_unit"]
+        into = list(found["into"])  # type: ignore[call-overload]
+        pattern = str(found["pattern"])
+        if variable is not None:
+            pattern = pattern.replace(f"(?P<{slug(label)}>", f"(?P<{into[0]}>").replace(
+                f"(?P<{slug(label)}_unit>", f"(?P<{into[1]}>"
+            )
+        findings.append(
+            layout_finding(
+                PACKED_COLUMN,
+                table,
+                f"The column '{label}' packs {found['kind']} into one cell (e.g. '{texts[0]}').",
+                f"Split '{label}' into the columns {', '.join(into)}.",
+                {"step": "split_column", "column": label, "pattern": pattern, "into": into},
+                rows=table.row_numbers[:1],
+                columns=[label],
+                letters=(frame.letter(label),),
+                count=len(frame.body),
+                examples=texts[:5],
+                evidence={"kind": found["kind"]},
+            )
+        )
+    return findings
+
+
+def find_list_cells(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = first_row_header(table)
+    findings: list[Finding] = []
+    for label in frame.labels:
+        texts = _texts(frame, label)
+        if len(texts) < 2 or any(cell_kind(t) == "number" for t in texts):
+            continue
+        for sep in LIST_SEPARATORS:
+            listed = [t for t in texts if sep in t]
+            if len(listed) < max(1, 0.2 * len(texts)):
+                continue
+            items = [item.strip() for t in texts for item in t.split(sep)]
+            if any(not item or len(item) > 40 or len(item.split()) > 4 for item in items):
+                continue
+            sizes = Counter(len(t.split(sep)) for t in texts)
+            vocabulary = set(items)
+            if len(sizes) < 2 or len(vocabulary) > 0.8 * len(items):
+                continue
+            findings.append(
+                layout_finding(
+                    LIST_CELLS,
+                    table,
+                    f"The column '{label}' holds lists of items separated by '{sep}' "
+                    f"in {len(listed)} of {len(texts)} cells (e.g. '{listed[0]}').",
+                    f"Write one row per item of '{label}'.",
+                    {"step": "explode", "column": label, "separator": sep},
+                    rows=table.row_numbers[:1],
+                    columns=[label],
+                    letters=(frame.letter(label),),
+                    count=len(listed),
+                    examples=listed[:5],
+                )
+            )
+            break
+    return findings
+
+
+@inspector()
+def packed_column(subject: Subject) -> Iterable[Finding]:
+    return find_packed_column(subject.table, subject.contract)
+
+
+@inspector()
+def list_cells(subject: Subject) -> Iterable[Finding]:
+    return find_list_cells(subject.table, subject.contract)

@@ -1,0 +1,432 @@
+"""Layout rules about the header: values used as column names, repeated column groups, header rows."""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Iterable
+
+from linter.contract.model import TableContract, VarType
+from linter.findings import Finding, Severity
+from linter.rules.layout_place import frame_letters, grid_letters, layout_finding, shown
+from linter.rules.layout_signals import (
+    blank,
+    cell_kind,
+    dominant_kind,
+    header_value_kind,
+    is_number,
+    sample,
+    shared_stem,
+    slug,
+)
+from linter.rules.registry import define_rule, inspector
+from linter.rules.subject import Subject
+from linter.table import Frame, Table, first_row_header
+
+VALUES_IN_HEADERS = define_rule(
+    "layout.values-in-headers",
+    "Values stored as column names",
+    Severity.ERROR,
+    """
+    Finds a run of column headers that are values of one variable (years, dates, months,
+    numbers, ranges, levels of a declared code list, or labels that differ only by a number,
+    such as `wk1, wk2, wk3`) rather than names of variables. Analysis tools cannot filter,
+    group or plot by a variable that lives in the header, and every new year adds a column.
+    Fix: gather those columns into two columns, one for the header value and one for the cell.
+
+    Bad:
+        site,2024,2025
+        VB-014,3,5
+
+    Good:
+        site,year,count
+        VB-014,2024,3
+        VB-014,2025,5
+    """,
+)
+
+REPEATED_GROUPS = define_rule(
+    "layout.repeated-column-groups",
+    "Repeated groups of columns",
+    Severity.ERROR,
+    """
+    Finds groups of columns that repeat with a number (`Sample 1 Depth, Sample 1 Result,
+    Sample 2 Depth, Sample 2 Result`): each group is one observation laid out sideways, so
+    the row holds a variable number of observations and the columns cannot be compared.
+    Fix: one row per group, one column per member of the group, plus the group number.
+
+    Bad:
+        site,Sample 1 Depth,Sample 1 Result,Sample 2 Depth,Sample 2 Result
+        VB-014,0.5,1.2,2.0,1.4
+
+    Good:
+        site,sample,Depth,Result
+        VB-014,1,0.5,1.2
+        VB-014,2,2.0,1.4
+    """,
+)
+
+MULTI_ROW_HEADER = define_rule(
+    "layout.multi-row-header",
+    "Header spread over several rows",
+    Severity.ERROR,
+    """
+    Finds a header written over two rows (a group label over several columns, often a merged
+    cell, and the column labels below it). Readers take the first row as the header and the
+    second as data, so every column gets a wrong name and a text value in its first row.
+    Fix: one header row whose names join both labels.
+
+    Bad:
+        site,nitrate,,phosphate,
+        ,min,max,min,max
+        VB-014,0.4,1.1,0.02,0.05
+
+    Good:
+        site,nitrate min,nitrate max,phosphate min,phosphate max
+        VB-014,0.4,1.1,0.02,0.05
+    """,
+)
+
+NO_HEADER = define_rule(
+    "layout.no-header",
+    "No header row",
+    Severity.ERROR,
+    """
+    Finds a file whose first row is already data: its cells have the same kind and shape as
+    the values below them. Taken as a header, that first observation is lost and the
+    columns get meaningless names. Fix: add a header row naming every column.
+
+    Bad:
+        VB-014,2025-03-02,7.1
+        VB-015,2025-03-02,6.8
+
+    Good:
+        site_id,sampled_on,ph
+        VB-014,2025-03-02,7.1
+        VB-015,2025-03-02,6.8
+    """,
+)
+
+ID_RUN = re.compile(r"^[A-Za-z]?\d+([-_.]\d+)?[A-Za-z]?$")
+
+
+def _levels(contract: TableContract | None) -> dict[str, str]:
+    """Code-list level -> the declared variable it belongs to."""
+    found: dict[str, str] = {}
+    for variable in contract.variables if contract else ():
+        for code in variable.codes.values if variable.codes else ():
+            found.setdefault(code.strip().lower(), variable.name)
+    return found
+
+
+def _measured(contract: TableContract | None, present: set[str], names_to: str) -> str | None:
+    """The declared number-like variable the gathered cells most likely hold."""
+    for variable in contract.variables if contract else ():
+        if variable.name in present or variable.name == names_to or variable.name in contract.keys:
+            continue
+        if variable.type in (VarType.NUMBER, VarType.INTEGER):
+            return variable.name
+    return None
+
+
+def _body_kind(frame: Frame, label: str) -> str:
+    return dominant_kind(sample(frame.body[label]))[0]
+
+
+def _value_runs(frame: Frame, contract: TableContract | None) -> list[tuple[list[str], str]]:
+    """Runs of consecutive columns whose headers are values, with what kind of value they are."""
+    labels = list(frame.labels)
+    levels = _levels(contract)
+    declared = set(contract.names) if contract else set()
+    marks: list[str | None] = []
+    for name in frame.names:
+        if name in declared:
+            marks.append(None)
+        elif name.strip().lower() in levels:
+            marks.append("level:" + levels[name.strip().lower()])
+        else:
+            marks.append(header_value_kind(name))
+    runs: list[tuple[list[str], str]] = []
+    i = 0
+    while i < len(labels):
+        if marks[i] is None:
+            i += 1
+            continue
+        j = i
+        while j + 1 < len(labels) and marks[j + 1] is not None:
+            j += 1
+        kinds = {str(m).split(":")[0] for m in marks[i : j + 1]}
+        needed = 2 if kinds & {"year", "date", "month", "level"} else 3
+        run = labels[i : j + 1]
+        # A trailing "Don't know" style column of the same kind belongs to the run.
+        if (
+            j + 1 == len(labels) - 1
+            and len(run) >= 3
+            and _body_kind(frame, labels[j + 1]) == _body_kind(frame, run[-1])
+        ):
+            run = [*run, labels[j + 1]]
+        if len(run) >= needed and len({_body_kind(frame, c) for c in run} - {"empty"}) <= 1:
+            kind = next(iter(kinds)) if len(kinds) == 1 else "value"
+            runs.append((run, str(marks[i]) if kind == "level" else kind))
+        i = j + 1
+    return runs
+
+
+def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
+    """Runs of 3+ headers differing only by a number-like part (wk1, wk2, wk3)."""
+    labels = [label for label in frame.labels]
+    runs: list[tuple[list[str], str]] = []
+    i = 0
+    while i < len(labels):
+        j = i + 1
+        best = i
+        while j < len(labels) and labels[j] not in taken:
+            stem = shared_stem(labels[i : j + 1])
+            if stem is None:
+                break
+            best = j
+            j += 1
+        run = labels[i : best + 1]
+        if len(run) >= 3 and run[0] not in taken:
+            stem = shared_stem(run)
+            assert stem is not None
+            rests = [label[len(stem[0]) : len(label) - len(stem[1])] for label in run]
+            kinds = {_body_kind(frame, c) for c in run} - {"empty"}
+            if all(ID_RUN.match(r) for r in rests) and len(kinds) <= 1:
+                runs.append((run, slug(stem[0] + stem[1]) if (stem[0] + stem[1]).strip("_ ") else "item"))
+            i = best + 1
+        else:
+            i += 1
+    return runs
+
+
+CODE_LABEL = re.compile(r"^([a-z]{1,2})(\d+)$")
+
+
+def _code_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
+    """Runs of 3+ headers crossing a short code with a number (m014, m1524, f014): two variables."""
+    runs: list[tuple[list[str], str]] = []
+    current: list[str] = []
+    for label in [*frame.labels, ""]:
+        if label not in taken and CODE_LABEL.match(label):
+            current.append(label)
+            continue
+        if len(current) >= 3:
+            parts = [CODE_LABEL.match(c) for c in current]
+            by_code: dict[str, set[str]] = {}
+            for part in parts:
+                if part:
+                    by_code.setdefault(part[1], set()).add(part[2])
+            numbers = list(by_code.values())
+            crossed = len(by_code) >= 2 and bool(set.intersection(*numbers))
+            if crossed and len({_body_kind(frame, c) for c in current} - {"empty"}) <= 1:
+                runs.append((current, "code"))
+        current = []
+    return runs
+
+
+def find_values_in_headers(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = first_row_header(table)
+    if not frame.labels:
+        return []
+    grouped = {c for found in find_repeated_groups(table) for c in found.place.columns}
+    runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
+    taken = grouped | {c for r, _ in runs for c in r}
+    runs += _code_runs(frame, taken)
+    runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
+    findings: list[Finding] = []
+    present = set(frame.labels)
+    for run, kind in runs:
+        if len(run) == len(frame.labels) and table.grid.shape[0] <= 1:
+            continue
+        names_to = kind.split(":", 1)[1] if kind.startswith("level:") else kind
+        values_to = _measured(contract, present, names_to) or (
+            "count" if _all_counts(frame, run) else "value"
+        )
+        step = {"step": "gather", "columns": run, "names_to": names_to, "values_to": values_to}
+        step["keep_empty"] = True
+        findings.append(
+            layout_finding(
+                VALUES_IN_HEADERS,
+                table,
+                f"The headers {shown(run)} are values of one variable ({names_to}), not names of variables.",
+                f"Gather these {len(run)} columns into a '{names_to}' column and a '{values_to}' column.",
+                step,
+                rows=table.row_numbers[:1],
+                columns=run,
+                letters=frame_letters(frame, run),
+                count=len(run),
+                examples=run,
+                evidence={"header_kind": kind},
+            )
+        )
+    return findings
+
+
+def _all_counts(frame: Frame, run: list[str]) -> bool:
+    cells = [v for c in run for v in sample(frame.body[c]) if not blank(v)]
+    return bool(cells) and all(str(v).strip().isdigit() for v in cells)
+
+
+GROUP_ID_FIRST = re.compile(r"^(?P<stem>.*?\D)?(?P<id>\d+)(?P<sep>[ _.:-]+)(?P<member>[^\d\s].*)$")
+GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]+)(?P<id>\d+)$")
+
+
+def find_repeated_groups(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = first_row_header(table)
+    shapes: dict[tuple[str, str, str], list[tuple[str, str, str]]] = {}
+    for label in frame.labels:
+        first, last = GROUP_ID_FIRST.match(label), GROUP_ID_LAST.match(label)
+        if first:
+            key = ("first", first["stem"] or "", first["sep"])
+            shapes.setdefault(key, []).append((label, first["id"], first["member"]))
+        elif last:
+            shapes.setdefault(("last", "", last["sep"]), []).append((label, last["id"], last["member"]))
+    findings: list[Finding] = []
+    for (order, stem, sep), members in shapes.items():
+        by_id: dict[str, set[str]] = {}
+        for _, group_id, member in members:
+            by_id.setdefault(group_id, set()).add(member)
+        sets = list(by_id.values())
+        if len(by_id) < 2 or len(sets[0]) < 2 or any(s != sets[0] for s in sets):
+            continue
+        names_to = slug(stem) if stem.strip(" _.-") else "group"
+        if order == "first":
+            pattern = f"^{re.escape(stem)}(?P<{names_to}>\\d+){re.escape(sep)}(?P<member>.+)$"
+        else:
+            pattern = f"^(?P<member>.+?){re.escape(sep)}(?P<{names_to}>\\d+)$"
+        columns = [label for label, _, _ in members]
+        findings.append(
+            layout_finding(
+                REPEATED_GROUPS,
+                table,
+                f"{len(by_id)} groups of the columns {shown(sorted(sets[0]))} repeat side by side "
+                f"({shown(columns)}): each group is one observation.",
+                f"Write one row per {names_to} with one column per member: {', '.join(sorted(sets[0]))}.",
+                {"step": "gather_groups", "pattern": pattern, "names_to": names_to, "keep_empty": True},
+                rows=table.row_numbers[:1],
+                columns=columns,
+                letters=frame_letters(frame, columns),
+                count=len(by_id),
+                examples=columns,
+                evidence={"groups": sorted(by_id), "members": sorted(sets[0])},
+            )
+        )
+    return findings
+
+
+def find_multi_row_header(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[0] < 3 or grid.shape[1] < 3:
+        return []
+    top, second = grid.iloc[0].tolist(), grid.iloc[1].tolist()
+    filled_top = [i for i, v in enumerate(top) if not blank(v)]
+    if len(filled_top) < 2:
+        return []
+    carried = [i for i in range(filled_top[0] + 1, len(top)) if blank(top[i]) and not blank(second[i])]
+    second_labels = [str(v).strip() for v in second if not blank(v)]
+    if len(second_labels) < 0.6 * grid.shape[1] or any(cell_kind(v) != "text" for v in second_labels):
+        return []
+    repeats = len(set(second_labels)) < len(second_labels)
+    top_row = str(table.row_numbers[0])
+    merged = any(re.fullmatch(rf"[A-Z]+{top_row}:[A-Z]+{top_row}", r) for r in table.merged_ranges)
+    if not (carried and (repeats or merged)):
+        return []
+    below = [cell_kind(v) for v in sample(grid.iloc[2:].to_numpy().ravel().tolist())]
+    if "number" not in below and "date" not in below:
+        return []
+    rows = list(table.row_numbers[:2])
+    return [
+        layout_finding(
+            MULTI_ROW_HEADER,
+            table,
+            f"The header is written over rows {rows[0]} and {rows[1]}: row {rows[0]} labels groups of "
+            "columns and the column names are in the row below.",
+            "Write one header row whose names join the group label and the column label.",
+            {"step": "header", "rows": rows, "joiner": " "},
+            rows=rows,
+            letters=grid_letters(carried),
+            count=len(carried),
+            examples=[str(top[i]) for i in filled_top] + second_labels[:3],
+        )
+    ]
+
+
+def _shape(text: str) -> str:
+    """Letters become a, digits 9, runs collapsed: 'VB-014' -> 'a-9'."""
+    out = re.sub(r"[A-Za-z]+", "a", text.strip())
+    return re.sub(r"\d+", "9", out)
+
+
+def _looks_like_data(first: Iterable[object], body: Frame) -> bool:
+    cells = list(first)
+    seen_value = False
+    for index, value in enumerate(cells):
+        column = sample(body.body.iloc[:, index])
+        kind, share = dominant_kind(column)
+        mine = cell_kind(value)
+        if mine == "empty":
+            return False
+        if kind in ("number", "date"):
+            if mine != kind or share < 0.9:
+                return False
+            seen_value = True
+        elif kind == "text":
+            shapes = [_shape(str(v)) for v in column if not blank(v)]
+            common = max(set(shapes), key=shapes.count)
+            if shapes.count(common) < 0.9 * len(shapes) or _shape(str(value)) != common or common == "a":
+                return False
+            seen_value = True
+    return seen_value
+
+
+def find_no_header(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[0] < 3 or not table.header_given:
+        return []
+    frame = first_row_header(table)
+    first = grid.iloc[0].tolist()
+    if all(header_value_kind(str(v)) == "year" for v in first) or not _looks_like_data(first, frame):
+        return []
+    numbers = [str(v).strip() for v in first if not blank(v) and is_number(str(v))]
+    if len(numbers) >= 3 and numbers == [
+        str(n) for n in range(int(numbers[0]), int(numbers[0]) + len(numbers))
+    ]:
+        return []  # 1,2,3,... across the top is a row of labels
+    width = grid.shape[1]
+    if contract is not None and len(contract.variables) == width:
+        names = list(contract.names)
+    else:
+        names = [f"column_{letter}" for letter in grid_letters(range(width))]
+    return [
+        layout_finding(
+            NO_HEADER,
+            table,
+            f"Row {table.row_numbers[0]} is data, not a header: every cell has the kind and shape of the "
+            "values below it.",
+            "Add a header row that names every column.",
+            {"step": "header", "rows": [], "names": names},
+            rows=table.row_numbers[:1],
+            count=1,
+            examples=[str(v) for v in first[:5]],
+        )
+    ]
+
+
+@inspector()
+def values_in_headers(subject: Subject) -> Iterable[Finding]:
+    return find_values_in_headers(subject.table, subject.contract)
+
+
+@inspector()
+def repeated_groups(subject: Subject) -> Iterable[Finding]:
+    return find_repeated_groups(subject.table, subject.contract)
+
+
+@inspector()
+def multi_row_header(subject: Subject) -> Iterable[Finding]:
+    return find_multi_row_header(subject.table, subject.contract)
+
+
+@inspector()
+def no_header(subject: Subject) -> Iterable[Finding]:
+    return find_no_header(subject.table, subject.contract)

@@ -1,0 +1,175 @@
+"""Layout rules about what sits around the data: title rows, totals, notes, blank rows and columns."""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Iterable
+
+from linter.contract.model import TableContract
+from linter.findings import Finding, Severity
+from linter.rules.layout_place import grid_letters, layout_finding
+from linter.rules.layout_signals import blank, filled_positions
+from linter.rules.registry import define_rule, inspector
+from linter.rules.subject import Subject
+from linter.table import Table
+
+TOTALS_AND_NOTES = define_rule(
+    "layout.totals-and-notes",
+    "Totals, titles or notes among the data rows",
+    Severity.ERROR,
+    """
+    Finds rows that are not observations: a title above the header, total and subtotal rows,
+    and notes or footnotes under the data. Read as data, a total is counted twice and a note
+    becomes a malformed observation. Fix: remove those rows (put notes in a separate file or
+    in the contract's description; totals can be recomputed from the data).
+
+    Bad:
+        site,count
+        VB-014,3
+        VB-015,5
+        Total,8
+        * counts from the spring survey
+
+    Good:
+        site,count
+        VB-014,3
+        VB-015,5
+    """,
+)
+
+BLANK_ROWS_COLUMNS = define_rule(
+    "layout.blank-rows-columns",
+    "Blank rows or columns",
+    Severity.WARNING,
+    """
+    Finds rows or columns with no value at all (not even a header). They split the table for
+    readers that stop at the first blank row and add empty variables. Fix: delete them.
+
+    Bad:
+        site,,count
+        VB-014,,3
+        ,,
+        VB-015,,5
+
+    Good:
+        site,count
+        VB-014,3
+        VB-015,5
+    """,
+)
+
+TOTAL_LABEL = re.compile(r"^\s*((grand|sub)[\s-]?)?totals?\b|^\s*(sum|all sites|overall)\s*:?\s*$", re.I)
+NOTE_LABEL = re.compile(r"^\s*(notes?\b|source\b|\*|†|‡|¹|²|\(\d\)|\[\d\]|n\.?b\.?\b)", re.I)
+
+
+def _filled(table: Table) -> list[list[int]]:
+    return [filled_positions(row) for row in table.grid.itertuples(index=False, name=None)]
+
+
+def _data_span(filled: list[list[int]]) -> tuple[int, int] | None:
+    """First and last grid row holding at least two values (the header and observations)."""
+    wide = [i for i, f in enumerate(filled) if len(f) >= 2]
+    return (wide[0], wide[-1]) if wide else None
+
+
+def find_totals_and_notes(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[1] < 2 or grid.shape[0] < 2:
+        return []
+    filled = _filled(table)
+    span = _data_span(filled)
+    if span is None:
+        return []
+    first, last = span
+    titles = [i for i in range(first) if len(filled[i]) == 1]
+    notes = [i for i in range(last + 1, len(filled)) if filled[i]]
+    for i in range(first + 1, last + 1):
+        if len(filled[i]) == 1 and NOTE_LABEL.match(str(grid.iat[i, filled[i][0]])):
+            notes.append(i)
+    totals = []
+    for i in range(first + 1, last + 1):
+        if filled[i]:
+            label = str(grid.iat[i, filled[i][0]])
+            if TOTAL_LABEL.match(label) and len(filled[i]) >= 2:
+                totals.append(i)
+    findings: list[Finding] = []
+    for indexes, reason, what, fix in (
+        (
+            titles,
+            "title",
+            "title rows above the header",
+            "Remove the title rows; start the file with the header.",
+        ),
+        (
+            totals,
+            "total",
+            "total or subtotal rows",
+            "Remove total rows; totals are recomputed from the data.",
+        ),
+        (sorted(notes), "notes", "notes or footnotes", "Move the notes out of the data sheet."),
+    ):
+        if not indexes:
+            continue
+        rows = [table.row_numbers[i] for i in indexes]
+        examples = [str(grid.iat[i, filled[i][0]]) for i in indexes]
+        findings.append(
+            layout_finding(
+                TOTALS_AND_NOTES,
+                table,
+                f"{len(rows)} row(s) hold {what}, not observations (rows {', '.join(map(str, rows[:6]))}).",
+                fix,
+                {"step": "drop_rows", "rows": rows, "reason": reason},
+                rows=rows,
+                count=len(rows),
+                examples=examples,
+                evidence={"reason": reason},
+            )
+        )
+    return findings
+
+
+def find_blank_rows_columns(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[0] == 0:
+        return []
+    filled = _filled(table)
+    span = _data_span(filled)
+    findings: list[Finding] = []
+    blank_rows = [table.row_numbers[i] for i, f in enumerate(filled) if not f]
+    if blank_rows and span is not None:
+        findings.append(
+            layout_finding(
+                BLANK_ROWS_COLUMNS,
+                table,
+                f"{len(blank_rows)} row(s) are completely blank.",
+                "Delete the blank rows.",
+                {"step": "drop_rows", "rows": blank_rows, "reason": "blank"},
+                rows=blank_rows,
+                count=len(blank_rows),
+            )
+        )
+    blank_columns = [i for i in range(grid.shape[1]) if all(blank(v) for v in grid.iloc[:, i].tolist())]
+    if blank_columns and len(blank_columns) < grid.shape[1]:
+        letters = grid_letters(blank_columns)
+        findings.append(
+            layout_finding(
+                BLANK_ROWS_COLUMNS,
+                table,
+                f"{len(letters)} column(s) are completely blank, header included ({', '.join(letters)}).",
+                "Delete the blank columns.",
+                {"step": "drop_columns", "columns": list(letters), "reason": "blank"},
+                letters=letters,
+                count=len(letters),
+            )
+        )
+    return findings
+
+
+@inspector()
+def totals_and_notes(subject: Subject) -> Iterable[Finding]:
+    return find_totals_and_notes(subject.table, subject.contract)
+
+
+@inspector()
+def blank_rows_columns(subject: Subject) -> Iterable[Finding]:
+    return find_blank_rows_columns(subject.table, subject.contract)

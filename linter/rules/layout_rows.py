@@ -1,0 +1,313 @@
+"""Layout rules about rows: variables stored in rows, sideways tables, section titles, "same as above"."""
+
+from __future__ import annotations
+
+import itertools
+import re
+from collections.abc import Iterable
+
+import pandas as pd
+
+from linter.contract.model import TableContract
+from linter.findings import Finding, Severity
+from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL
+from linter.rules.layout_place import frame_letters, layout_finding, shown
+from linter.rules.layout_signals import blank, cell_kind, dominant_kind, filled_positions, sample
+from linter.rules.registry import define_rule, inspector
+from linter.rules.subject import Subject
+from linter.table import Table, first_row_header
+
+VARIABLES_IN_ROWS = define_rule(
+    "layout.variables-in-rows",
+    "Variables stored in rows",
+    Severity.ERROR,
+    """
+    Finds a column whose values are names of variables (`temp_min`, `temp_max`) beside a
+    column holding their values, so one observation is spread over several rows and one value
+    column mixes quantities of different kinds. Fix: spread the names into columns.
+
+    Bad:
+        site,day,measure,value
+        VB-014,2025-03-02,temp_min,4.1
+        VB-014,2025-03-02,temp_max,9.8
+
+    Good:
+        site,day,temp_min,temp_max
+        VB-014,2025-03-02,4.1,9.8
+    """,
+)
+
+TRANSPOSED = define_rule(
+    "layout.transposed",
+    "Table printed sideways",
+    Severity.ERROR,
+    """
+    Finds a table whose variables run down the first column and whose observations run across:
+    every row holds one kind of value while the columns mix kinds. Nothing can type or check
+    such columns. Fix: swap rows and columns.
+
+    Bad:
+        site,VB-014,VB-015
+        sampled_on,2025-03-02,2025-03-03
+        ph,7.1,6.8
+
+    Good:
+        site,sampled_on,ph
+        VB-014,2025-03-02,7.1
+        VB-015,2025-03-03,6.8
+    """,
+)
+
+SECTION_TITLES = define_rule(
+    "layout.section-titles",
+    "Section-title rows",
+    Severity.ERROR,
+    """
+    Finds rows with only their first cell filled that label the rows below them (a river, a
+    month, a laboratory). The label is a value of every row in its section but is written once,
+    so sorting or filtering loses it. Fix: move the label into its own column.
+
+    Bad:
+        site,ph
+        Upper Vell,
+        VB-014,7.1
+        Lower Vell,
+        VB-031,6.9
+
+    Good:
+        section,site,ph
+        Upper Vell,VB-014,7.1
+        Lower Vell,VB-031,6.9
+    """,
+)
+
+SAME_AS_ABOVE = define_rule(
+    "layout.same-as-above",
+    "Blank cells that mean 'same as above'",
+    Severity.ERROR,
+    """
+    Finds identifying columns written once per group (often merged cells) and left blank below,
+    where blank means "same as above", not "missing". A row read on its own then has no site or
+    date. Fix: repeat the value in every row.
+
+    Bad:
+        site,sampled_on,ph
+        VB-014,2025-03-02,7.1
+        ,2025-03-09,7.0
+
+    Good:
+        site,sampled_on,ph
+        VB-014,2025-03-02,7.1
+        VB-014,2025-03-09,7.0
+    """,
+)
+
+PAIRED = re.compile(
+    r"(^|[_ .-])(min|max|lo|hi|low|high|mean|start|end|first|last)($|[_ .-])|^t?(min|max)", re.I
+)
+
+
+def _holds_values(
+    body: pd.DataFrame,
+    names: pd.Series,
+    levels: list[str],
+    values_col: str,
+    labels: list[str],
+    declared: set[str],
+) -> bool:
+    """True when `values_col` holds the values of the variables named in `names`."""
+    names_col = str(names.name)
+    others = [c for c in labels if c not in (names_col, values_col)]
+    if not others or body.duplicated(subset=[*others, names_col]).any():
+        return False
+    if not body.duplicated(subset=others).any():
+        return False
+    by_kind = {dominant_kind(body.loc[names == level, values_col])[0] for level in levels} - {"empty"}
+    return (
+        len(declared & set(levels)) >= 2
+        or len(by_kind) >= 2
+        or sum(bool(PAIRED.search(level)) for level in levels) >= 2
+    )
+
+
+def find_variables_in_rows(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = first_row_header(table)
+    labels = list(frame.labels)
+    body = frame.body.iloc[[i for i in range(0, len(frame.body), max(1, len(frame.body) // 5000))]]
+    if len(labels) < 3 or len(body) < 4:
+        return []
+    declared = set(contract.names) if contract else set()
+    findings: list[Finding] = []
+    for position, names_col in enumerate(labels[:-1]):
+        names = body[names_col]
+        if names.isna().any() or dominant_kind(names)[0] != "text":
+            continue
+        levels = sorted({str(v) for v in names})
+        if not 2 <= len(levels) <= 20 or len(levels) * 2 > len(names):
+            continue
+        values_col = next(
+            (
+                v
+                for v in dict.fromkeys([labels[position + 1], labels[-1]])
+                if v != names_col and _holds_values(body, names, levels, v, labels, declared)
+            ),
+            None,
+        )
+        if values_col is None:
+            continue
+        findings.append(
+            layout_finding(
+                VARIABLES_IN_ROWS,
+                table,
+                f"The column '{names_col}' holds names of variables ({shown(levels)}) and "
+                f"'{values_col}' their values, so one observation takes {len(levels)} rows.",
+                f"Make one column per value of '{names_col}', filled from '{values_col}'.",
+                {"step": "spread", "names_from": names_col, "values_from": values_col},
+                columns=[names_col, values_col],
+                letters=frame_letters(frame, [names_col, values_col]),
+                count=len(levels),
+                examples=levels,
+            )
+        )
+        break
+    return findings
+
+
+def find_transposed(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[0] < 3 or grid.shape[1] < 3 or grid.shape[1] > 5000:
+        return []
+    firsts = grid.iloc[1:, 0].tolist()
+    if any(blank(v) for v in firsts) or len(set(firsts)) != len(firsts):
+        return []
+    if any(cell_kind(v) != "text" for v in firsts):
+        return []
+    declared = set(contract.names) if contract else set()
+    row_kinds: list[str] = []
+    for index in range(1, grid.shape[0]):
+        kind, share = dominant_kind(sample(grid.iloc[index, 1:].tolist()))
+        if share < 0.9:
+            return []
+        row_kinds.append(kind)
+    column_shares = [dominant_kind(grid.iloc[1:, j].tolist())[1] for j in range(1, grid.shape[1])]
+    mixed = len(set(row_kinds) - {"empty"}) >= 2 and max(column_shares) < 0.85
+    named = len(declared & {str(v) for v in firsts}) >= 2 and len(declared & set(map(str, grid.iloc[0]))) < 2
+    if not (mixed or named):
+        return []
+    return [
+        layout_finding(
+            TRANSPOSED,
+            table,
+            "The table is sideways: the first column names variables "
+            f"({shown([str(v) for v in firsts])}) and each column is one observation.",
+            "Swap rows and columns so that each variable is a column.",
+            {"step": "transpose"},
+            rows=table.row_numbers[1:],
+            columns=[str(grid.iat[0, 0] or "")],
+            letters=("A",),
+            count=grid.shape[1] - 1,
+            examples=[str(v) for v in firsts],
+        )
+    ]
+
+
+def find_section_titles(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[0] < 4 or grid.shape[1] < 3:
+        return []
+    filled = [filled_positions(row) for row in grid.itertuples(index=False, name=None)]
+    wide = [i for i, f in enumerate(filled) if len(f) >= 2]
+    if not wide or wide[0] != 0:
+        return []
+    last = wide[-1]
+    titles = [
+        i
+        for i in range(1, last)
+        if filled[i] == [0]
+        and not TOTAL_LABEL.match(str(grid.iat[i, 0]))
+        and not NOTE_LABEL.match(str(grid.iat[i, 0]))
+    ]
+    if not titles or titles[0] != 1 or any(b - a < 2 for a, b in itertools.pairwise(titles)):
+        return []
+    texts = [str(grid.iat[i, 0]).strip() for i in titles]
+    into = "section"
+    for variable in contract.variables if contract else ():
+        codes = set(variable.codes.values) if variable.codes else set()
+        if variable.name not in map(str, grid.iloc[0]) and codes and set(texts) <= codes:
+            into = variable.name
+    rows = [table.row_numbers[i] for i in titles]
+    return [
+        layout_finding(
+            SECTION_TITLES,
+            table,
+            f"{len(rows)} row(s) are section titles ({shown(texts)}) labelling the rows below them.",
+            f"Move each title into a '{into}' column on every row of its section.",
+            {"step": "lift_titles", "rows": rows, "into": into},
+            rows=rows,
+            letters=("A",),
+            count=len(rows),
+            examples=texts,
+        )
+    ]
+
+
+def find_same_as_above(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = first_row_header(table)
+    body = frame.body
+    if len(body) < 3 or len(frame.labels) < 2:
+        return []
+    chosen: list[str] = []
+    for label in frame.labels[:3]:
+        column = body[label].tolist()
+        kind = dominant_kind(sample(column))[0]
+        if kind == "number" and not chosen:
+            break
+        empties = sum(blank(v) for v in column)
+        values = [v for v in column if not blank(v)]
+        if blank(column[0]) or empties < len(column) / 4 or len(values) < 2:
+            continue
+        if len(set(values)) != len(values):
+            continue
+        rest = body.drop(columns=[label])
+        empty_rows = [i for i, v in enumerate(column) if blank(v)]
+        if any(rest.iloc[i].isna().all() for i in empty_rows[:200]):
+            continue
+        chosen.append(label)
+    if not chosen:
+        return []
+    examples = [str(v) for v in body[chosen[0]].tolist() if not blank(v)]
+    blanks = sum(int(body[c].isna().sum()) for c in chosen)
+    return [
+        layout_finding(
+            SAME_AS_ABOVE,
+            table,
+            f"The column(s) {shown(chosen)} name each group once and leave {blanks} cell(s) blank below, "
+            "meaning 'same as above'.",
+            "Repeat the value in every row of its group.",
+            {"step": "fill_down", "columns": chosen},
+            columns=chosen,
+            letters=frame_letters(frame, chosen),
+            count=blanks,
+            examples=examples,
+        )
+    ]
+
+
+@inspector()
+def variables_in_rows(subject: Subject) -> Iterable[Finding]:
+    return find_variables_in_rows(subject.table, subject.contract)
+
+
+@inspector()
+def transposed(subject: Subject) -> Iterable[Finding]:
+    return find_transposed(subject.table, subject.contract)
+
+
+@inspector()
+def section_titles(subject: Subject) -> Iterable[Finding]:
+    return find_section_titles(subject.table, subject.contract)
+
+
+@inspector()
+def same_as_above(subject: Subject) -> Iterable[Finding]:
+    return find_same_as_above(subject.table, subject.contract)

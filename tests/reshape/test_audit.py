@@ -1,0 +1,174 @@
+"""The value-conservation audit: kept, deliberately dropped and lost cells, each counted and named."""
+
+from __future__ import annotations
+
+from typing import Any
+
+import pytest
+from reshape_cases import STEP_CASES, Grid, recipe_json, table_of
+
+from linter.reshape.apply import apply_recipe
+from linter.reshape.audit import Audit, audit
+from linter.reshape.recipe import Recipe
+
+
+def audit_of(grid: Grid, *steps: dict[str, Any]) -> Audit:
+    table = table_of(grid)
+    return audit(table, apply_recipe(table, Recipe.from_json(recipe_json(*steps))), None)
+
+
+def lost_places(result: Audit) -> list[tuple[int, str, str]]:
+    return sorted((c.row, c.letter, c.text) for c in result.lost)
+
+
+# Every worked step case either keeps every cell or drops it for a stated reason.
+@pytest.mark.parametrize(("case", "grid", "steps", "expected"), STEP_CASES, ids=[c[0] for c in STEP_CASES])
+def test_every_step_case_is_lossless(
+    case: str, grid: Grid, steps: list[dict[str, Any]], expected: Grid
+) -> None:
+    result = audit_of(grid, *steps)
+    assert result.lossless, lost_places(result)
+    filled = sum(1 for row in grid for v in row if v is not None and v.strip())
+    assert result.input_cells == filled
+    assert sum(result.kept.values()) + len(result.dropped) == filled
+
+
+def test_gather_counts_header_derived_values() -> None:
+    result = audit_of(
+        [["site", "2019", "2020"], ["VB-014", "3", "4"], ["VB-015", "5", "6"]],
+        {"step": "gather", "columns": ["2019", "2020"], "names_to": "year", "values_to": "count"},
+    )
+    assert result.kept["header_value"] == 2 and result.kept["value"] == 6 and result.kept["column_name"] == 1
+
+
+def test_lossy_recipe_is_caught_with_every_lost_cell() -> None:
+    # Deliberately lossy: the values of row 3 are dropped under the false reason "blank".
+    result = audit_of(
+        [["site", "count"], ["VB-014", "3"], ["VB-015", "4"]],
+        {"step": "drop_rows", "rows": [3], "reason": "blank"},
+    )
+    assert not result.lossless
+    assert lost_places(result) == [(3, "A", "VB-015"), (3, "B", "4")]
+    assert {c.why for c in result.lost} == {"dropped as blank, but the cell holds text"}
+
+
+def test_gather_that_drops_a_column_header_then_spread_collision_is_lost() -> None:
+    result = audit_of(
+        [["site", "measure", "value"], ["VB-014", "ph", "7.1"], ["VB-014", "ph", "7.3"]],
+        {"step": "spread", "names_from": "measure", "values_from": "value"},
+    )
+    assert not result.lossless and result.collisions == 1
+    assert lost_places(result) == [(3, "C", "7.3")]
+    assert {c.why for c in result.dropped} == {"layout label"}  # the 'measure'/'value' headers
+
+
+def test_title_row_with_more_than_its_title_loses_the_rest() -> None:
+    result = audit_of(
+        [["site", "ph"], ["Upper Vell", "see note 2"], ["VB-014", "7.1"]],
+        {"step": "header", "rows": [1]},
+        {"step": "lift_titles", "rows": [2], "into": "reach"},
+    )
+    assert lost_places(result) == [(2, "B", "see note 2")]
+
+
+def test_title_with_no_rows_below_is_lost() -> None:
+    result = audit_of(
+        [["site", "ph"], ["VB-014", "7.1"], ["Lower Vell", None]],
+        {"step": "header", "rows": [1]},
+        {"step": "lift_titles", "rows": [3], "into": "reach"},
+    )
+    assert lost_places(result) == [(3, "A", "Lower Vell")]
+
+
+def test_total_that_the_data_recomputes_is_a_deliberate_drop() -> None:
+    grid: Grid = [
+        ["site", "count"],
+        ["VB-014", "3"],
+        ["VB-015", "4"],
+        ["Subtotal", "7"],
+        ["VB-016", "1.5"],
+        ["Subtotal", "1.5"],
+    ]
+    result = audit_of(grid, {"step": "drop_rows", "rows": [4, 6], "reason": "total"})
+    assert result.lossless
+    assert sorted((c.row, c.letter, c.why) for c in result.dropped) == [
+        (4, "A", "total"),
+        (4, "B", "total"),
+        (6, "A", "total"),
+        (6, "B", "total"),
+    ]
+
+
+def test_total_that_does_not_add_up_is_lost() -> None:
+    grid: Grid = [["site", "count"], ["VB-014", "3"], ["VB-015", "4"], ["Total", "8"]]
+    result = audit_of(grid, {"step": "drop_rows", "rows": [4], "reason": "total"})
+    assert lost_places(result) == [(4, "B", "8")]
+    assert "sum to 7" in result.lost[0].why
+
+
+def test_split_counts_unmatched_cells_and_keeps_their_text() -> None:
+    result = audit_of(
+        [["result"], ["12 mg/L"], ["n.d."], ["<0.5 mg/L"]],
+        {
+            "step": "split_column",
+            "column": "result",
+            "pattern": r"^(?P<value>[0-9.]+)\s*(?P<unit>\S+)$",
+            "into": ["value", "unit"],
+        },
+    )
+    assert result.unmatched == 2 and result.lossless
+    assert result.kept["part"] == 1 and result.kept["value"] == 2
+
+
+def test_split_pattern_that_cuts_text_away_loses_nothing_it_can_name() -> None:
+    # "mg/L" is consumed by the pattern's literal part: the piece "12" still lies inside the
+    # input text, so the cell counts as kept in parts (the unit is constant in the pattern).
+    result = audit_of(
+        [["result"], ["12 mg/L"]],
+        {
+            "step": "split_column",
+            "column": "result",
+            "pattern": r"^(?P<value>[0-9.]+) mg/L$",
+            "into": ["value"],
+        },
+    )
+    assert result.kept["part"] == 1
+
+
+def test_rename_is_kept_on_purpose_and_audit_json_is_ready() -> None:
+    result = audit_of([["Temp (C)"], ["8.5"]], {"step": "rename", "columns": {"Temp (C)": "water_temp"}})
+    assert result.kept["renamed"] == 1 and result.lossless
+    data = result.to_json()
+    assert data["lossless"] is True and data["counts"]["input_cells"] == 2
+
+
+def test_audit_refuses_a_result_of_another_table() -> None:
+    table = table_of([["a"], ["1"]])
+    other = table_of([["a"], ["1"]])
+    with pytest.raises(ValueError, match="not made from this table"):
+        audit(other, apply_recipe(table, Recipe()), None)
+
+
+def test_gather_dropping_empty_cells_lists_an_all_empty_column_header_as_dropped() -> None:
+    result = audit_of(
+        [["site", "2019", "2020"], ["VB-014", "3", None]],
+        {
+            "step": "gather",
+            "columns": ["2019", "2020"],
+            "names_to": "year",
+            "values_to": "n",
+            "keep_empty": False,
+        },
+    )
+    assert result.lossless
+    assert [(c.row, c.letter, c.text, c.why) for c in result.dropped] == [
+        (1, "C", "2020", "header of empty cells")
+    ]
+
+
+def test_spread_merges_equal_identifying_cells_without_loss() -> None:
+    result = audit_of(
+        [["site", "measure", "value"], ["VB-014", "tmin", "4"], ["VB-014", "tmax", "11"]],
+        {"step": "spread", "names_from": "measure", "values_from": "value"},
+    )
+    assert result.lossless and result.kept["value"] == 4  # both 'VB-014' cells and both values
