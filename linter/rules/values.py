@@ -1,8 +1,7 @@
-"""Value rules: each cell against its variable's type, unit, date format, range, pattern and nullability."""
+"""Value rules: each cell against its variable's type, unit, date format, range and nullability."""
 
 from __future__ import annotations
 
-import re
 from collections.abc import Iterator
 
 import pandas as pd
@@ -11,7 +10,7 @@ from linter.contract.convert import Converted
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
 from linter.findings import Finding, Severity
-from linter.rules.cell_findings import column_finding, counted, engine_result, plural, quoted, written
+from linter.rules.cell_findings import column_finding, counted, engine_result, plural, written
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 
@@ -77,19 +76,6 @@ define_rule(
     Good: result: 0.4
     """,
 )
-define_rule(
-    "values.pattern-mismatch",
-    "Text that does not match the declared pattern",
-    Severity.ERROR,
-    """
-    Finds text cells whose whole text does not match the variable's declared pattern
-    (a regular expression).
-
-    Bad:  site_id (pattern ^VB-\\d{3}$): VB-14 | vb-014
-    Good: site_id: VB-014
-    """,
-)
-
 WRONG_TYPE_NAMES = {
     VarType.NUMBER: "a number",
     VarType.INTEGER: "a whole number",
@@ -272,33 +258,3 @@ def out_of_range(subject: Subject) -> Iterator[Finding]:
             evidence={"minimum": variable.minimum, "maximum": variable.maximum},
         )
     result.raise_if_unrun("range")
-
-
-@inspector(needs_contract=True)
-def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
-    result = engine_result(subject)
-    if result is None or subject.contract is None:
-        return
-    for name in result.converted:
-        variable = subject.contract.variable(name)
-        failing = result.failing(name, "pattern")
-        if variable is None or failing.empty:
-            continue
-        rows = [int(r) for r in failing["row"]]
-        found = written(subject, name, rows[:3])
-        whole = re.compile(variable.pattern or "")
-        spaced = [f for f in written(subject, name, rows) if f != f.strip() and whole.fullmatch(f.strip())]
-        fix = f"write each {name} in the form {variable.pattern} (found {quoted(found)})"
-        if spaced:
-            fix += f"; {quoted(spaced[:3])} only need the surrounding spaces removed"
-        yield column_finding(
-            subject,
-            "values.pattern-mismatch",
-            name,
-            rows,
-            f"In {name}, {counted(len(rows), 'value', 'does', 'do')} not have the agreed form "
-            f"{variable.pattern}.",
-            fix,
-            evidence={"pattern": variable.pattern},
-        )
-    result.raise_if_unrun("pattern")

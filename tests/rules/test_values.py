@@ -131,13 +131,20 @@ CASES = (
         "pattern must match the whole text",
         Variable("site_id", pattern=r"VB-\d{3}"),
         ("VB-014", "VB-0145", "vb-014"),
-        (Expect("values.pattern-mismatch", (3, 4), "VB-\\d{3}", ("VB-0145", "vb-014")),),
+        (
+            Expect(
+                "values.pattern-mismatch",
+                (3, 4),
+                "like 'VB-014' (found 'VB-0145', 'vb-014'); write 'vb-014' in capital letters",
+                ("VB-0145", "vb-014"),
+            ),
+        ),
     ),
     Case(
         "surrounding spaces are named as the only problem",
         Variable("site_id", pattern=r"VB-\d{3}"),
         ("VB-014 ", "VB-14"),
-        (Expect("values.pattern-mismatch", (2, 3), "'VB-014 ' only need the surrounding spaces removed"),),
+        (Expect("values.pattern-mismatch", (2, 3), "remove the surrounding spaces from 'VB-014 '"),),
     ),
     Case(
         "empty cells and missing codes in a non-nullable variable",
