@@ -7,7 +7,7 @@ from collections.abc import Iterator
 
 from linter.contract.model import Variable
 from linter.findings import Finding, Severity
-from linter.rules.cell_findings import column_finding, counted, engine_result, written
+from linter.rules.cell_findings import column_finding, counted, engine_result, quoted, written
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 
@@ -64,13 +64,29 @@ def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], li
     result.raise_if_unrun("codes")
 
 
+def _labels_used(variable: Variable, found: list[str]) -> list[tuple[str, str]]:
+    """(value as written, code) where a provider wrote a code's label instead of the code."""
+    if variable.codes is None:
+        return []
+    by_label = {variant_key(label): code for code, label in variable.codes.labels.items()}
+    pairs: list[tuple[str, str]] = []
+    for value in dict.fromkeys(found):
+        code = by_label.get(variant_key(value))
+        if code is not None:
+            pairs.append((value, code))
+    return pairs
+
+
 @inspector(needs_contract=True)
 def code_variant(subject: Subject) -> Iterator[Finding]:
     for variable, variants, rows, _ in _code_cells(subject):
         if not rows:
             continue
+        by_code: dict[str, list[str]] = {}
+        for found, code in variants.items():
+            by_code.setdefault(code, []).append(found)
         fixes = "; ".join(
-            f"use the code {code} (found {found!r})" for found, code in list(variants.items())[:5]
+            f"use the code {code} (found {quoted(found[:3])})" for code, found in list(by_code.items())[:5]
         )
         yield column_finding(
             subject,
@@ -96,7 +112,11 @@ def not_in_code_list(subject: Subject) -> Iterator[Finding]:
         shown = ", ".join(codes[:LISTED_CODES]) + (", ..." if len(codes) > LISTED_CODES else "")
         source = f" (code list {variable.codes.source})" if variable.codes.source else ""
         fix = f"use one of the allowed codes{source}: {shown}"
-        if nearest is not None:
+        labelled = _labels_used(variable, written(subject, variable.name, rows))
+        if labelled:
+            pairs = "; ".join(f"write {code} instead of its label {label!r}" for label, code in labelled[:5])
+            fix = f"{pairs}. Otherwise {fix}"
+        elif nearest is not None:
             fix = f"did you mean {nearest} (found {first!r})? Otherwise {fix}"
         yield column_finding(
             subject,

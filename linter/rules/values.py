@@ -85,6 +85,11 @@ WRONG_TYPE_NAMES = {
 }
 
 
+def bound_text(bound: float | str) -> str:
+    """A bound as a provider writes it: 0 and 2000 rather than 0.0 and 2000.0; dates as given."""
+    return f"{bound:g}" if isinstance(bound, float) else str(bound)
+
+
 def agreed_date_form(variable: Variable) -> str:
     if variable.date_format:
         return f"the agreed form {variable.date_format}"
@@ -240,8 +245,8 @@ def out_of_range(subject: Subject) -> Iterator[Finding]:
         bounds = " and ".join(
             text
             for text in (
-                f"at least {variable.minimum}" if variable.minimum is not None else "",
-                f"at most {variable.maximum}" if variable.maximum is not None else "",
+                f"at least {bound_text(variable.minimum)}" if variable.minimum is not None else "",
+                f"at most {bound_text(variable.maximum)}" if variable.maximum is not None else "",
             )
             if text
         )

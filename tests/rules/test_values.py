@@ -11,6 +11,7 @@ from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.findings import Finding, Severity
 
 NITRATE_CODES = CodeList(("NITRATE", "PHOSPHATE", "AMMONIUM"))
+COUNTIES = CodeList(("ALD", "BRK"), labels={"ALD": "Aldermoor", "BRK": "Brookfold"})
 
 
 @dataclass(frozen=True)
@@ -116,7 +117,7 @@ CASES = (
             Expect(
                 "values.code-variant",
                 (3, 4),
-                "use the code NITRATE (found 'Nitrate ')",
+                "use the code NITRATE (found 'Nitrate ', 'nitrate')",
                 ("Nitrate ", "nitrate"),
             ),
         ),
@@ -126,6 +127,24 @@ CASES = (
         Variable("analyte", VarType.CATEGORY, codes=NITRATE_CODES),
         ("NITRATE", "AMONIUM", "LEAD"),
         (Expect("values.not-in-code-list", (3, 4), "did you mean AMMONIUM", ("AMONIUM", "LEAD")),),
+    ),
+    Case(
+        "a label written instead of its code",
+        Variable("county", VarType.CATEGORY, codes=COUNTIES),
+        ("ALD", "Aldermoor", "brookfold"),
+        (
+            Expect(
+                "values.not-in-code-list",
+                (3, 4),
+                "write ALD instead of its label 'Aldermoor'; write BRK instead of its label 'brookfold'",
+            ),
+        ),
+    ),
+    Case(
+        "bounds read as the contract wrote them",
+        Variable("result", VarType.NUMBER, minimum=0.0, maximum=2000.0),
+        ("2500",),
+        (Expect("values.out-of-range", (2,), "at least 0 and at most 2000"),),
     ),
     Case(
         "pattern must match the whole text",
