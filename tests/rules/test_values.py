@@ -86,6 +86,18 @@ CASES = (
         (Expect("values.wrong-type", (3,), "whole number", ("3.5",)),),
     ),
     Case(
+        "integer range",
+        Variable("count", VarType.INTEGER, minimum=1, maximum=10),
+        ("1", "11", "NA", "0"),
+        (Expect("values.out-of-range", (3, 5), "at least 1 and at most 10", ("11", "0")),),
+    ),
+    Case(
+        "date-time range",
+        Variable("taken_at", VarType.DATETIME, maximum="2026-12-31T23:59:59"),
+        ("2026-03-02T10:15:00", "2027-01-01T00:00:00"),
+        (Expect("values.out-of-range", (3,), "at most 2026-12-31T23:59:59", ("2027-01-01T00:00:00",)),),
+    ),
+    Case(
         "boolean words",
         Variable("filtered", VarType.BOOLEAN),
         ("true", "FALSE", "1", "yes"),
