@@ -23,6 +23,7 @@ define_rule(
     every other check still runs.
 
     Bad:  header site_id, sampled_on, result      (analyte is required)
+
     Good: header site_id, sampled_on, analyte, result
     """,
 )
@@ -35,6 +36,7 @@ define_rule(
     column that is missing (other case, spaces or a typo), and says which name to use.
 
     Bad:  header Site ID, sampeld_on
+
     Good: header site_id, sampled_on
     """,
 )
@@ -47,6 +49,7 @@ define_rule(
     decides whether this is an error, a warning (default) or allowed.
 
     Bad:  header site_id, result, my_notes      (my_notes is not agreed)
+
     Good: header site_id, result
     """,
 )
@@ -59,6 +62,7 @@ define_rule(
     order than the contract lists them.
 
     Bad:  header result, site_id
+
     Good: header site_id, result
     """,
 )

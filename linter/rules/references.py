@@ -18,6 +18,7 @@ define_rule(
     that column of the referenced table submitted alongside (a foreign key without its row).
 
     Bad:  chemistry.csv names site VB-099, which sites.csv does not list
+
     Good: every site_id in chemistry.csv is listed in sites.csv
     """,
 )
@@ -30,6 +31,7 @@ define_rule(
     this submission, so its values could not be checked against it.
 
     Bad:  chemistry.csv submitted alone, while site_id references sites.site_id
+
     Good: chemistry.csv and sites.csv submitted together
     """,
 )

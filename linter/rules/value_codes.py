@@ -20,6 +20,7 @@ define_rule(
     a code-list file), and is not merely a spacing or case variant of an allowed code.
 
     Bad:  analyte (codes NITRATE, PHOSPHATE): NITRITE-N
+
     Good: analyte: NITRATE
     """,
 )
@@ -32,6 +33,7 @@ define_rule(
     case is ignored, and names the exact code to use.
 
     Bad:  analyte: 'Nitrate ' | nitrate
+
     Good: analyte: NITRATE
     """,
 )

@@ -21,6 +21,7 @@ define_rule(
     names cells that only need their letter case or surrounding spaces corrected.
 
     Bad:  site_id (pattern ^VB-\\d{3}$): VB-14 | vb-014 | 'VB-014 '
+
     Good: site_id: VB-014
     """,
 )

@@ -23,6 +23,7 @@ define_rule(
     declares as not nullable (key columns are reported by keys.missing instead).
 
     Bad:  result is required for every row, but row 7 is empty or says NA.
+
     Good: every row has a result; a value below the detection limit is written <0.05.
     """,
 )
@@ -36,6 +37,7 @@ define_rule(
     separator, a decimal comma, a unit written in the cell, a day that does not exist.
 
     Bad:  result (number, mg/L): 1,234 | 12 mg/L | about 3
+
     Good: result: 1234 | 12 | 3
     """,
 )
@@ -48,6 +50,7 @@ define_rule(
     unit, which usually means the value was measured or reported on another scale.
 
     Bad:  result (unit mg/L): 12 ug/L
+
     Good: result: 0.012   (converted to mg/L, number alone)
     """,
 )
@@ -61,6 +64,7 @@ define_rule(
     readings when day and month cannot be told apart.
 
     Bad:  sampled_on: 03/02/2026 | 20260302 | 2 Mar 2026
+
     Good: sampled_on: 2026-03-02
     """,
 )
@@ -73,6 +77,7 @@ define_rule(
     <0.05 is checked by its detection limit 0.05.
 
     Bad:  result (min 0): -0.4
+
     Good: result: 0.4
     """,
 )
