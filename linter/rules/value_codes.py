@@ -79,6 +79,17 @@ def _labels_used(variable: Variable, found: list[str]) -> list[tuple[str, str]]:
     return pairs
 
 
+def _nearest_codes(found: list[str], codes: list[str]) -> list[tuple[str, str]]:
+    """(value, code) for distinct values that are close to one allowed code (a likely typo)."""
+    upper = {c.upper(): c for c in codes}
+    pairs: list[tuple[str, str]] = []
+    for value in dict.fromkeys(found):
+        near = difflib.get_close_matches(value.strip().upper(), list(upper), n=1, cutoff=0.6)
+        if near:
+            pairs.append((value, upper[near[0]]))
+    return pairs
+
+
 @inspector(needs_contract=True)
 def code_variant(subject: Subject) -> Iterator[Finding]:
     for variable, variants, rows, _ in _code_cells(subject):
@@ -108,18 +119,16 @@ def not_in_code_list(subject: Subject) -> Iterator[Finding]:
         if not rows or variable.codes is None:
             continue
         codes = list(variable.codes.values)
-        first = written(subject, variable.name, rows[:1])[0]
-        near = difflib.get_close_matches(first.strip().upper(), [c.upper() for c in codes], n=1, cutoff=0.6)
-        nearest = next((c for c in codes if near and c.upper() == near[0]), None)
+        found = written(subject, variable.name, rows)
         shown = ", ".join(codes[:LISTED_CODES]) + (", ..." if len(codes) > LISTED_CODES else "")
         source = f" (code list {variable.codes.source})" if variable.codes.source else ""
-        fix = f"use one of the allowed codes{source}: {shown}"
-        labelled = _labels_used(variable, written(subject, variable.name, rows))
-        if labelled:
-            pairs = "; ".join(f"write {code} instead of its label {label!r}" for label, code in labelled[:5])
-            fix = f"{pairs}. Otherwise {fix}"
-        elif nearest is not None:
-            fix = f"did you mean {nearest} (found {first!r})? Otherwise {fix}"
+        labelled = dict(_labels_used(variable, found))
+        hints = [f"write {code} instead of its label {label!r}" for label, code in labelled.items()]
+        hints += [
+            f"{value!r} looks like {code}: write {code} if that is meant"
+            for value, code in _nearest_codes([f for f in found if f not in labelled], codes)
+        ]
+        fix = "; ".join([*hints[:5], f"otherwise use one of the allowed codes{source}: {shown}"])
         yield column_finding(
             subject,
             "values.not-in-code-list",

@@ -137,8 +137,17 @@ CASES = (
     Case(
         "unknown code with a near miss",
         Variable("analyte", VarType.CATEGORY, codes=NITRATE_CODES),
-        ("NITRATE", "AMONIUM", "LEAD"),
-        (Expect("values.not-in-code-list", (3, 4), "did you mean AMMONIUM", ("AMONIUM", "LEAD")),),
+        ("NITRATE", "AMONIUM", "LEAD", "PHOSPHTE"),
+        (
+            Expect(
+                "values.not-in-code-list",
+                (3, 4, 5),
+                "'AMONIUM' looks like AMMONIUM: write AMMONIUM if that is meant; 'PHOSPHTE' looks like "
+                "PHOSPHATE: write PHOSPHATE if that is meant; otherwise use one of the allowed codes: "
+                "NITRATE, PHOSPHATE, AMMONIUM",
+                ("AMONIUM", "LEAD", "PHOSPHTE"),
+            ),
+        ),
     ),
     Case(
         "a label written instead of its code",
