@@ -30,7 +30,7 @@ format: venv
 	$(BIN)/ruff check --fix linter tests benchmarks
 
 bench: venv
-	$(BIN)/python benchmarks/run_all.py
+	for script in benchmarks/*.py; do echo "== $$script"; $(BIN)/python $$script || exit 1; done
 
 clean:
 	rm -rf $(VENV) demo-out .pytest_cache .mypy_cache .ruff_cache

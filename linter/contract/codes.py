@@ -73,7 +73,7 @@ def resolve_inside(reference: str, contract_path: str, at: Position) -> Path:
     if ".." in PurePosixPath(reference.replace("\\", "/")).parts:
         raise WeirError(f"{at}: code-list path {reference!r} may not leave the contract's folder ('..')")
     folder = Path(contract_path).resolve().parent
-    target = (folder / reference).resolve()
+    target = (folder / reference.replace("\\", "/")).resolve()  # a path written on Windows works too
     if not target.is_relative_to(folder):
         # a symbolic link can still lead outside; the folder is the trust boundary
         raise WeirError(f"{at}: code-list path {reference!r} leads outside the contract's folder")
@@ -98,6 +98,13 @@ def load_code_list(reference: YNode, contract_path: str) -> CodeList:
 
 
 def codes_from_csv(text: str, shown: str, source: str) -> CodeList:
+    try:
+        return read_csv_codes(text, shown, source)
+    except csv.Error as error:  # e.g. a field longer than the csv module allows
+        raise WeirError(f"{shown}:1:1: not a readable CSV code list: {error}") from None
+
+
+def read_csv_codes(text: str, shown: str, source: str) -> CodeList:
     reader = csv.reader(io.StringIO(text))
     header = [cell.strip().lower() for cell in next(reader, [])]
     if "code" not in header:

@@ -2,9 +2,11 @@
 
 from __future__ import annotations
 
+import re
+
 from linter.contract import entries
 from linter.contract.expressions import parse_rule
-from linter.contract.model import Comparison, Contract, Position, TableContract
+from linter.contract.model import Comparison, Contract, Position, TableContract, Variable, VarType
 from linter.contract.variables import load_variable
 from linter.contract.yaml_tree import YNode, parse_yaml, read_text
 from linter.errors import WeirError
@@ -25,6 +27,7 @@ TABLE_KEYS = (
 SINGLE_KEYS = (*HEADER_KEYS, *(k for k in TABLE_KEYS if k != "description"))
 BUNDLE_KEYS = (*HEADER_KEYS, "tables")
 EXTRA_COLUMNS = ("error", "warn", "allow")
+NAME = re.compile(r"^[^.\s]+$")
 
 
 def load_contract(path: str) -> Contract:
@@ -43,18 +46,30 @@ def contract_from_tree(tree: YNode, path: str) -> Contract:
                 f"{value.where}: {key!r} belongs inside one of the tables of a bundle (under 'tables:')"
             )
     top = entries.check_keys(tree, allowed, "the contract")
-    contract_id = entries.text(entries.require(top, "contract", tree, "a contract"), "contract")
+    id_node = entries.require(top, "contract", tree, "a contract")
+    contract_id = table_name(id_node, entries.text(id_node, "contract"))
     version = entries.text(entries.require(top, "version", tree, "a contract"), "version", numbers_ok=True)
     title = entries.text(top["title"], "title") if "title" in top else ""
     if bundle:
         named = entries.mapping(top["tables"], "tables")
         if not named:
             raise WeirError(f"{top['tables'].position}: a bundle needs at least one table under 'tables:'")
-        tables = tuple(load_table(name, node, path) for name, node in named.items())
+        tables = tuple(
+            load_table(table_name(YNode(name, node.where), name), node, path) for name, node in named.items()
+        )
     else:
         tables = (load_table(contract_id, tree, path, single=True),)
     check_bundle_references(tables)
     return Contract(id=contract_id, version=version, title=title, tables=tables, path=path)
+
+
+def table_name(node: YNode, name: str) -> str:
+    """Tables are named in references as `table.column`, so a name holds no dot and no space."""
+    if not NAME.match(name):
+        raise WeirError(
+            f"{node.position}: name {name!r} may not contain dots or spaces (it is used in table.column)"
+        )
+    return name
 
 
 def load_table(name: str, node: YNode, path: str, single: bool = False) -> TableContract:
@@ -82,7 +97,7 @@ def load_table(name: str, node: YNode, path: str, single: bool = False) -> Table
         applies_to=entries.text_list(given["applies_to"], "applies_to") if "applies_to" in given else (),
         # an empty cell is missing whatever else the contract lists
         missing=missing if "" in missing else ("", *missing),
-        comparisons=comparisons(given.get("rules"), tuple(declared)),
+        comparisons=typed_comparisons(comparisons(given.get("rules"), tuple(declared)), variables),
         complete_over=complete_over,
         extra_columns=(
             entries.one_of(given["extra_columns"], EXTRA_COLUMNS, "extra_columns")
@@ -123,6 +138,40 @@ def comparisons(node: YNode | None, known: tuple[str, ...]) -> tuple[Comparison,
             raise WeirError(f"{item.position}: a rule must be text like 'min_temp <= max_temp'")
         found.extend(parse_rule(item.value, rule_start(item), known))
     return tuple(found)
+
+
+FAMILIES = {
+    VarType.INTEGER: "number",
+    VarType.NUMBER: "number",
+    VarType.DATE: "date",
+    VarType.DATETIME: "date",
+    VarType.STRING: "text",
+    VarType.CATEGORY: "text",
+    VarType.BOOLEAN: "true/false",
+}
+"""Values of one family can be compared with each other; numbers and dates also by order."""
+
+
+def typed_comparisons(
+    found: tuple[Comparison, ...], variables: tuple[Variable, ...]
+) -> tuple[Comparison, ...]:
+    """Refuse rules that cannot be judged: a date against a number, text ordered with `<`, ..."""
+    types = {v.name: v.type for v in variables}
+    for rule in found:
+        left = FAMILIES[types[rule.left]]
+        right = FAMILIES[types[str(rule.right)]] if rule.right_is_variable else "number"
+        if left != right:
+            shown = f"{rule.right!r} ({types[str(rule.right)]})" if rule.right_is_variable else "a number"
+            raise WeirError(
+                f"{rule.position}: rule {rule.text!r} compares {rule.left!r} ({types[rule.left]}) "
+                f"with {shown}; both sides must be numbers, both dates, or both text"
+            )
+        if left not in ("number", "date") and rule.operator not in ("==", "!="):
+            raise WeirError(
+                f"{rule.position}: rule {rule.text!r} orders {left} values with {rule.operator}; "
+                "only numbers and dates have an order (use == or !=)"
+            )
+    return found
 
 
 def rule_start(item: YNode) -> Position:

@@ -96,6 +96,8 @@ def parse_yaml(text: str, file: str) -> YNode:
         raise WeirError(f"{where}: broken YAML: {problem}") from None
     except YAMLError as error:
         raise WeirError(f"{file}:1:1: broken YAML: {str(error).splitlines()[0]}") from None
+    except RecursionError:  # ruamel's composer recurses once per nesting level
+        raise WeirError(f"{file}:1:1: contract nests deeper than {MAX_DEPTH} levels") from None
     if root is None:
         raise WeirError(f"{file}:1:1: contract file holds no YAML document")
     budget = _Budget(file, yaml)
@@ -150,8 +152,9 @@ class _Budget:
             raise WeirError(f"{at}: YAML tag {node.tag!r} is not allowed in a contract")
         try:
             value = self.yaml.constructor.construct_object(node, deep=True)
-        except (YAMLError, ValueError) as error:
-            raise WeirError(f"{at}: cannot read value {node.value!r}: {error}") from None
+        except Exception:  # an explicit tag (!!bool, !!float...) on text that is not such a value
+            kind = node.tag.rsplit(":", 1)[-1]
+            raise WeirError(f"{at}: {node.value!r} is not a valid YAML {kind}") from None
         quote = node.style if node.style in ("'", '"') else ""
         return YNode(value, at, text=str(node.value), key_position=key_at, quote=quote or "")
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 import math
 from datetime import date, datetime, time, timedelta
 from decimal import Decimal
@@ -66,6 +67,9 @@ def cell_text(value: object, *, date_only: bool = False, digits: int | None = EX
         return value.isoformat()
     if isinstance(value, timedelta):
         return duration_text(value)
+    if isinstance(value, list | dict | tuple):
+        # Nested Parquet values (lists, structs, maps) as JSON, the text form most tools read back.
+        return json.dumps(value, default=str, ensure_ascii=False)
     if isinstance(value, bytes):
         return value.decode("utf-8", errors="backslashreplace")
     return str(value)

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import csv
 import io
+import re
 from collections import Counter
 from collections.abc import Iterator
 from contextlib import contextmanager
@@ -11,12 +12,15 @@ from contextlib import contextmanager
 import pandas as pd
 
 from linter.read.encoding import Decoding
-from linter.read.errors import UnreadableFile
+from linter.read.errors import UnreadableFile, too_many_cells
 from linter.read.limits import ReadLimits
 from linter.read.lines import LineScanner
 from linter.table import ReadNote, Table
 
 CANDIDATE_DELIMITERS = (",", "\t", ";", "|")
+SEPARATOR_HINT = re.compile(r"sep=(.)(?:\r\n|\n|\r|$)")
+# From memory of spreadsheet programs' CSV handling: a first line `sep=;` names the delimiter
+# (written by some European exports so the file opens in columns); it is not data.
 SAMPLE_CHARS = 64 * 1024
 SAMPLE_RECORDS = 50
 
@@ -83,7 +87,11 @@ def read_delimited(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab
 def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab: bool) -> Table:
     with open(path, encoding=decoding.encoding, newline="") as handle:
         sample = handle.read(SAMPLE_CHARS + 1)
-    delimiter = choose_delimiter(sample[:SAMPLE_CHARS], len(sample) <= SAMPLE_CHARS, prefer_tab)
+    hint = SEPARATOR_HINT.match(sample)
+    if hint:
+        delimiter = hint.group(1)
+    else:
+        delimiter = choose_delimiter(sample[:SAMPLE_CHARS], len(sample) <= SAMPLE_CHARS, prefer_tab)
 
     rows: list[list[str]] = []
     starts: list[int] = []
@@ -93,6 +101,7 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
         scanner = LineScanner(handle, limits.max_line_chars)
         reader = csv.reader(iter(scanner), delimiter=delimiter, quotechar='"', doublequote=True, strict=False)
         consumed = 0
+        cell_count = 0
         while True:
             start = consumed + 1
             try:
@@ -109,6 +118,8 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
             consumed = reader.line_num
             last_raw = scanner.raw
             scanner.raw = []
+            if hint and start == 1:
+                continue  # the `sep=` line is an instruction to the program, not a row of data
             if not any(record):
                 blank_lines.append(start)
                 continue
@@ -118,6 +129,9 @@ def decoded_table(path: str, decoding: Decoding, limits: ReadLimits, prefer_tab:
                     f"Line {start} has {len(record):,} cells, more than the limit of {limits.max_columns:,}.",
                     "Check the delimiter and send the table with one column per variable.",
                 )
+            cell_count += len(record)
+            if cell_count > limits.max_cells:
+                raise too_many_cells(limits)
             if len(rows) >= limits.max_rows:
                 raise UnreadableFile(
                     "file.too-many-rows",

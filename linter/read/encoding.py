@@ -16,6 +16,9 @@ GUESS_SAMPLE_BYTES = 256 * 1024
 
 # Source: The Unicode Standard §23.8 (byte order mark): EF BB BF, FF FE, FE FF.
 BOMS: tuple[tuple[bytes, str, str], ...] = (
+    # UTF-32 first: its little-endian mark FF FE 00 00 begins with UTF-16's FF FE.
+    (codecs.BOM_UTF32_LE, "utf-32", "UTF-32 little-endian"),
+    (codecs.BOM_UTF32_BE, "utf-32", "UTF-32 big-endian"),
     (codecs.BOM_UTF8, "utf-8-sig", "UTF-8 with a byte order mark"),
     (codecs.BOM_UTF16_LE, "utf-16", "UTF-16 little-endian"),
     (codecs.BOM_UTF16_BE, "utf-16", "UTF-16 big-endian"),
@@ -53,6 +56,24 @@ def first_invalid_utf8(path: str) -> tuple[int, bool] | None:
         except UnicodeDecodeError:
             return offset, seen_multibyte
     return None
+
+
+def line_of(path: str, offset: int) -> int:
+    """The 1-based physical line holding byte `offset` (CR, LF and CRLF each end a line)."""
+    breaks = 0
+    previous = b""
+    with open(path, "rb") as handle:
+        left = offset
+        while left > 0 and (chunk := handle.read(min(CHUNK_BYTES, left))):
+            left -= len(chunk)
+            joined = previous + chunk
+            # A CRLF split over two reads is counted once: the CR is held back until the next read.
+            body = joined[:-1] if joined.endswith(b"\r") else joined
+            breaks += body.count(b"\n") + body.count(b"\r") - body.count(b"\r\n")
+            previous = joined[len(body) :]
+    if previous:  # a CR just before the offset ends its line
+        breaks += 1
+    return breaks + 1
 
 
 def decodes_whole_file(path: str, encoding: str) -> bool:
@@ -160,11 +181,13 @@ def choose_decoding(path: str, head: bytes) -> Decoding:
             at = offset - sample_start
             around = sample[max(0, at - 12) : at + 12].decode(candidate, errors="replace")
             snippet = " ".join(around.split())
+            line = line_of(path, offset)
             notes = [
                 ReadNote(
                     "encoding",
-                    f"The file is not UTF-8 (first non-UTF-8 byte at offset {offset}); "
-                    f"it was read as {name}.",
+                    f"The file is not UTF-8 (the first character UTF-8 cannot read is on line {line}, "
+                    f"in {snippet!r}); it was read as {name}.",
+                    rows=(line,),
                     examples=(name, snippet),
                 )
             ]

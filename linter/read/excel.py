@@ -16,7 +16,7 @@ from openpyxl.worksheet._read_only import ReadOnlyWorksheet
 from openpyxl.worksheet.worksheet import Worksheet
 
 from linter.read.cells import cell_text
-from linter.read.errors import UnreadableFile
+from linter.read.errors import UnreadableFile, too_many_cells
 from linter.read.formulas import uncached_formulas
 from linter.read.limits import ReadLimits
 from linter.table import ReadNote, Table, column_letter
@@ -25,13 +25,17 @@ ZERO_PADDED = re.compile(r"0+")
 """A number format of zeros only (`000`) shows 7 as 007: the provider sees the zeros."""
 
 
+ARCHIVE_ERRORS = (zipfile.BadZipFile, NotImplementedError, EOFError, OSError, ValueError, KeyError)
+"""What zipfile raises for a damaged archive (bad offsets even surface as OSError from seek)."""
+
+
 def is_workbook(path: str) -> bool:
     """A ZIP archive is an Office Open XML workbook when it holds `xl/workbook.xml` (ECMA-376 Part 2)."""
     try:
         with zipfile.ZipFile(path) as archive:
             return "xl/workbook.xml" in archive.namelist()
-    except zipfile.BadZipFile:
-        return False
+    except ARCHIVE_ERRORS as error:
+        raise corrupt(f"its ZIP archive is damaged ({type(error).__name__}: {error})") from None
 
 
 def check_archive(path: str, limits: ReadLimits) -> int:
@@ -42,8 +46,8 @@ def check_archive(path: str, limits: ReadLimits) -> int:
     try:
         with zipfile.ZipFile(path) as archive:
             members = archive.infolist()
-    except zipfile.BadZipFile as error:
-        raise corrupt(f"it is not a valid ZIP archive ({error})") from None
+    except ARCHIVE_ERRORS as error:
+        raise corrupt(f"its ZIP archive is damaged ({type(error).__name__}: {error})") from None
     total = sum(m.file_size for m in members)
     ratios = [m.file_size / max(m.compress_size, 1) for m in members if m.file_size > 1 << 20]
     if total > limits.max_uncompressed_bytes or any(r > limits.max_compression_ratio for r in ratios):
@@ -105,6 +109,8 @@ def read_sheet(ws: Worksheet | ReadOnlyWorksheet, path: str, limits: ReadLimits)
         text = shown_text(cell)
         if text is not None:
             texts[(row, col)] = text
+            if len(texts) > limits.max_cells:
+                raise too_many_cells(limits)
     if not texts:
         return None
     last_row = max(r for r, _ in texts)
@@ -134,14 +140,17 @@ def read_sheet(ws: Worksheet | ReadOnlyWorksheet, path: str, limits: ReadLimits)
     hidden = sorted(r for r, dim in ws.row_dimensions.items() if dim.hidden and r <= last_row)
     if hidden:
         notes.append(ReadNote("hidden-rows", f"{len(hidden)} row(s) are hidden.", rows=tuple(hidden)))
-    hidden_cols = sorted(
-        {
-            column_letter(c - 1)
-            for dim in ws.column_dimensions.values()
-            if dim.hidden and dim.min is not None
-            for c in range(dim.min, min(dim.max or dim.min, last_col) + 1)
-        }
-    )
+    hidden_cols = [
+        column_letter(c - 1)
+        for c in sorted(
+            {
+                c
+                for dim in ws.column_dimensions.values()
+                if dim.hidden and dim.min is not None
+                for c in range(dim.min, min(dim.max or dim.min, last_col) + 1)
+            }
+        )
+    ]
     if hidden_cols:
         notes.append(
             ReadNote(
@@ -204,9 +213,11 @@ def read_workbook(path: str, limits: ReadLimits) -> list[Table]:
                 else:
                     tables.append(table)
             missing = uncached_formulas(path)
-        except (OSError, UnreadableFile):
+        except UnreadableFile:
             raise
-        except Exception as error:  # openpyxl raises many kinds on damaged XML; all mean "corrupt"
+        except Exception as error:  # openpyxl and zipfile raise many kinds (even OSError from a
+            # seek to a damaged offset) on a damaged file that read_path has already opened;
+            # all of them mean "corrupt"
             raise corrupt(f"{type(error).__name__}: {error}") from None
     tables = [with_uncached(t, missing.get(t.sheet or "")) for t in tables]
     if not tables:

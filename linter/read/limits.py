@@ -14,6 +14,8 @@ MAX_COLUMNS = 16_384
 # From memory of Excel's published specifications and limits: 16,384 columns (XFD) per worksheet.
 MAX_ROWS = 1_048_576
 # From memory of Excel's published specifications and limits: 1,048,576 rows per worksheet.
+MAX_CELLS = 20_000_000
+"""Cells per table; each is a Python string, so this bounds memory at a few GB at worst."""
 MAX_UNCOMPRESSED_BYTES = 1024 * 1024 * 1024
 """Declared inflated size of all members of a workbook archive; more is treated as a zip bomb."""
 MAX_COMPRESSION_RATIO = 200
@@ -37,6 +39,8 @@ class ReadLimits:
     """Widest row (`file.too-many-columns`)."""
     max_rows: int = MAX_ROWS
     """Most rows per table (`file.too-many-rows`)."""
+    max_cells: int = MAX_CELLS
+    """Most cells (rows x columns) per table (`file.too-many-cells`)."""
     max_uncompressed_bytes: int = MAX_UNCOMPRESSED_BYTES
     """Total declared size of a workbook's archive members (`file.zip-bomb`)."""
     max_compression_ratio: int = MAX_COMPRESSION_RATIO

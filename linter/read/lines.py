@@ -36,27 +36,26 @@ class LineScanner:
         readline = self.handle.readline
         cap = self.max_line_chars
         endings = self.endings
+        number = 0
+        # The loop runs once per line of every submission: only cheap tests on the common path.
         while line := readline(cap + 2):
-            self.lines += 1
-            if line.endswith("\r\n"):
-                ending = "\r\n"
-            elif line.endswith("\n"):
-                ending = "\n"
-            elif line.endswith("\r"):
-                ending = "\r"
-            else:
-                ending = ""
-            if len(line) - len(ending) > cap:
-                raise self.too_long(self.lines)
-            if ending:
-                endings[ending] += 1
-                if ending == "\r" and len(self.cr_only_lines) < 1000:
-                    self.cr_only_lines.append(self.lines)
+            number += 1
+            last = line[-1]
+            if last == "\n":
+                endings["\r\n" if line[-2:] == "\r\n" else "\n"] += 1
+            elif last == "\r":
+                endings["\r"] += 1
+                if len(self.cr_only_lines) < 1000:
+                    self.cr_only_lines.append(number)
             else:
                 self.final_newline = False
+            if len(line) > cap and len(line.rstrip("\r\n")) > cap:
+                self.lines = number
+                raise self.too_long(number)
             if "\x00" in line:
-                self.nul_lines.append(self.lines)
+                self.nul_lines.append(number)
             self.raw.append(line)
+            self.lines = number
             yield line
 
     def too_long(self, line: int) -> UnreadableFile:

@@ -10,7 +10,7 @@ import pyarrow as pa
 import pyarrow.parquet as pq
 
 from linter.read.cells import cell_text, number_text
-from linter.read.errors import UnreadableFile
+from linter.read.errors import UnreadableFile, too_many_cells
 from linter.read.limits import ReadLimits
 from linter.table import Table
 
@@ -42,8 +42,12 @@ def read_parquet(path: str, limits: ReadLimits) -> Table:
                 f"limits of {limits.max_rows:,} rows and {limits.max_columns:,} columns.",
                 "Split the submission into smaller files.",
             )
+        if meta.num_columns * meta.num_rows > limits.max_cells:
+            raise too_many_cells(limits)
         data = parquet.read()
-    except (pa.ArrowException, ValueError) as error:
+    except (pa.ArrowException, ValueError, OSError) as error:
+        # pyarrow reports damaged metadata as OSError ("Couldn't deserialize thrift"); the file
+        # itself was already opened and read by read_path, so here it means corrupt content.
         raise UnreadableFile(
             "file.corrupt",
             f"The Parquet file cannot be read: {error}.",

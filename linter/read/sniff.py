@@ -41,8 +41,8 @@ SIGNATURES: tuple[tuple[bytes, Kind], ...] = (
     (b"Rar!\x1a\x07", Kind.RAR),
 )
 
-TEXT_BOMS = (b"\xef\xbb\xbf", b"\xff\xfe", b"\xfe\xff")
-"""UTF-8, UTF-16 LE and UTF-16 BE byte order marks (Unicode §23.8)."""
+TEXT_BOMS = (b"\xef\xbb\xbf", b"\xff\xfe", b"\xfe\xff", b"\x00\x00\xfe\xff")
+"""UTF-8, UTF-16 LE/BE and UTF-32 BE byte order marks (Unicode §23.8); UTF-32 LE starts FF FE."""
 
 CONTROL_BYTES = frozenset(range(0, 32)) - {9, 10, 12, 13}
 """Bytes that plain text hardly ever holds (tab, LF, FF and CR excepted)."""

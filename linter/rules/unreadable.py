@@ -98,6 +98,18 @@ TOO_MANY_ROWS = define_rule(
     Good: one file per year.
     """,
 )
+TOO_MANY_CELLS = define_rule(
+    "file.too-many-cells",
+    "The table has more cells than the cell limit",
+    Severity.ERROR,
+    """
+    Finds tables with more cells (rows times columns) than the limit, which bounds the memory
+    one submission may take.
+
+    Bad: 40,000 rows of 1,000 columns each in one file.
+    Good: the same readings as a long table (site, date, variable, value), split by year.
+    """,
+)
 ZIP_BOMB = define_rule(
     "file.zip-bomb",
     "The workbook would inflate far beyond its size",

@@ -116,3 +116,16 @@ def test_inline_values_and_codes_together_are_refused(tmp_path: Path) -> None:
     path = contract_with(tmp_path, "c.yaml, values: [A]", {"contracts/c.yaml": "- A\n"})
     with pytest.raises(WeirError, match="either 'values' or 'codes'"):
         load_contract(path)
+
+
+def test_unreadable_csv_code_list(tmp_path: Path) -> None:
+    # Python's csv module refuses a field longer than its field_size_limit (131072 by default)
+    huge = "code,label\nA," + "x" * (csv.field_size_limit() + 10) + "\n"
+    path = contract_with(tmp_path, "q.csv", {"contracts/q.csv": huge})
+    with pytest.raises(WeirError, match=r"^contracts/q\.csv:1:1: not a readable CSV code list"):
+        load_contract(path)
+
+
+def test_windows_separators_in_a_code_list_path(tmp_path: Path) -> None:
+    path = contract_with(tmp_path, "'codes\\counties.yaml'", {"contracts/codes/counties.yaml": "- ALD\n"})
+    assert codes_of(path) == (("ALD",), {})

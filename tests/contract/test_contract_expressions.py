@@ -3,9 +3,12 @@
 from __future__ import annotations
 
 import operator
+import re
 from pathlib import Path
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from linter.contract.expressions import FLIPPED, parse_rule
 from linter.contract.model import Position
@@ -113,3 +116,19 @@ def test_code_in_a_rule_is_refused_and_never_run(tmp_path: Path, rule: str) -> N
 def test_without_known_names_any_name_parses() -> None:
     (comparison,) = parse_rule("anything <= other", AT)
     assert (comparison.left, comparison.right) == ("anything", "other")
+
+
+RULE_BITS = [*"ab_01.<=>!`()'\" \n\t-+eE", "and", "or", " min_temp "]
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.lists(st.sampled_from(RULE_BITS), max_size=20).map("".join))
+def test_any_text_parses_or_gives_one_positioned_line(rule: str) -> None:
+    try:
+        parsed = parse_rule(rule, AT)
+    except WeirError as error:
+        message = str(error)
+        assert re.match(r"^c\.yaml:\d+:\d+: rule ", message) and "\n" not in message
+        return
+    # whatever parsed is made only of names, numbers and the six operators
+    assert parsed and all(c.operator in FLIPPED and c.left for c in parsed)

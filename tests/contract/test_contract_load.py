@@ -73,6 +73,12 @@ def test_happy_path_fills_the_model(tmp_path: Path) -> None:
     )
 
 
+def test_text_variables_may_be_compared_for_equality(tmp_path: Path) -> None:
+    text = GOOD.replace('"depth_m >= 0"', '"site_id != analyte"')
+    (rule, *_) = load_contract(write(tmp_path, text)).tables[0].comparisons
+    assert (rule.left, rule.operator, rule.right) == ("site_id", "!=", "analyte")
+
+
 def test_key_variables_are_never_nullable(tmp_path: Path) -> None:
     table = load_contract(write(tmp_path, GOOD)).tables[0]
     assert all(not table.variable(k).nullable for k in table.keys)  # type: ignore[union-attr]
@@ -211,6 +217,18 @@ BROKEN = {
         "(depth",
         "unexpected character '('",
     ),
+    "rule on a date and a number": (
+        GOOD.replace('"depth_m >= 0"', '"sampled_on >= 0"'),
+        15,
+        "sampled_on",
+        "compares 'sampled_on' (date) with a number",
+    ),
+    "rule ordering text": (
+        GOOD.replace('"depth_m >= 0"', '"site_id < analyte"'),
+        15,
+        "site_id",
+        "only numbers and dates have an order",
+    ),
     "nullable key": (
         GOOD.replace("{type: date, min", "{type: date, nullable: true, min"),
         9,
@@ -274,3 +292,21 @@ def test_unquoted_yaml_date_and_quoted_iso_text_agree(tmp_path: Path) -> None:
     assert sampled is not None
     # Source: ISO 8601-1 calendar date, complete representation YYYY-MM-DD, as read by Python's date
     assert date.fromisoformat(str(sampled.minimum)) == date(2020, 1, 1)
+
+
+@pytest.mark.parametrize("item", ["depth_m >= 0 and result <= 5", "'depth_m >= 0 and result <= 5'"])
+def test_rule_positions_in_a_block_list(tmp_path: Path, item: str) -> None:
+    text = GOOD.replace('rules: ["depth_m >= 0", "0 <= result and result < 500"]\n', f"rules:\n  - {item}\n")
+    assert text != GOOD
+    path = write(tmp_path, text)
+    first, second = load_contract(path).tables[0].comparisons
+    line = text.splitlines().index(f"  - {item}") + 1
+    assert (first.position.line, first.position.column) == (
+        line,
+        text.splitlines()[line - 1].index("depth_m") + 1,
+    )
+    assert second.position.column == text.splitlines()[line - 1].index("result") + 1
+    with pytest.raises(
+        WeirError, match=rf"^{path}:{line}:{text.splitlines()[line - 1].index('resul') + 1}: "
+    ):
+        load_contract(write(tmp_path, text.replace("result <= 5", "resul <= 5")))

@@ -139,6 +139,11 @@ AGREE: dict[str, tuple[str, bool]] = {
     "version true": (MINIMAL.replace("version: 1", "version: true"), False),
     "blank title": (MINIMAL + "title: ' '\n", False),
     "null variable": (MINIMAL + "  q:\n", False),
+    "dotted contract id": (MINIMAL.replace("contract: c", "contract: c.v2"), False),
+    "table name with a space": (
+        "contract: b\nversion: 1\ntables:\n  site list: {observational_unit: x, variables: {a: string}}\n",
+        False,
+    ),
 }
 
 # Semantic cases no JSON Schema can express: the schema accepts them, the loader must refuse them.
@@ -151,6 +156,7 @@ LOADER_ONLY: dict[str, str] = {
     "code list escaping the folder": MINIMAL + "  q: {type: category, codes: ../up.yaml}\n",
     "rule with a call": MINIMAL + "rules: ['len(ph) > 0']\n",
     "rule naming no variable": MINIMAL + "rules: ['pH > 0']\n",
+    "rule ordering text": MINIMAL + "rules: ['site_id > 0']\n",
     "nullable key": MINIMAL.replace("{type: string, pattern", "{type: string, nullable: true, pattern"),
 }
 
@@ -180,3 +186,18 @@ def test_loader_refuses_what_no_schema_can_see(repo: Path, tmp_path: Path, case:
     text = LOADER_ONLY[case]
     assert schema_accepts(repo, text), f"{case} was meant to be schema-valid"
     assert not loader_accepts(tmp_path, text)
+
+
+def test_examples_in_the_contracts_guide_load_and_validate(repo: Path, tmp_path: Path) -> None:
+    guide = (repo / "contracts" / "README.md").read_text("utf-8")
+    blocks = [b.split("\n", 1)[1] for b in guide.split("```yaml")[1:]]
+    examples = [b.split("```", 1)[0] for b in blocks]
+    assert len(examples) >= 2
+    (tmp_path / "codes").mkdir()
+    for source in (repo / "contracts" / "codes").iterdir():
+        (tmp_path / "codes" / source.name).write_bytes(source.read_bytes())
+    validator = jsonschema.Draft202012Validator(schema(repo))
+    for index, example in enumerate(examples):
+        assert validator.is_valid(yaml_data(example)), index
+        (tmp_path / f"example{index}.yaml").write_text(example, encoding="utf-8")
+        assert load_contract(f"example{index}.yaml").tables

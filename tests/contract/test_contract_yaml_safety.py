@@ -93,3 +93,10 @@ def test_tab_indentation_reports_its_position() -> None:
     # From memory of YAML 1.2.2 §6.1: tabs are not allowed for indentation
     with pytest.raises(WeirError, match=r"^c\.yaml:2:1: broken YAML"):
         parse_yaml("a:\n\tb: 1\n", "c.yaml")
+
+
+@pytest.mark.parametrize("depth", [50, 5000])
+def test_deep_nesting_is_refused(tmp_path: Path, depth: int) -> None:
+    (tmp_path / "deep.yaml").write_text("a: " + "[" * depth + "]" * depth + "\n", encoding="utf-8")
+    with pytest.raises(WeirError, match=r"^deep\.yaml:\d+:\d+: contract nests deeper than"):
+        load_contract("deep.yaml")

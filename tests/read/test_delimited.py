@@ -154,3 +154,10 @@ def test_crlf_split_across_read_buffers_counts_once(pad: int) -> None:
     table = read_one("a.csv", data)
     assert table.row_numbers == (1, 2, 3)
     assert "line-endings" not in kinds(table)
+
+
+def test_separator_hint_line_names_the_delimiter_and_is_not_data() -> None:
+    table = read_one("a.csv", b"sep=;\r\nsite_id;result\r\nVB-014;4,2\r\n")
+    assert table.delimiter == ";"
+    assert cells(table) == [["site_id", "result"], ["VB-014", "4,2"]]
+    assert table.row_numbers == (2, 3)

@@ -36,9 +36,11 @@ def test_utf8_with_bom_drops_the_mark_from_the_first_name() -> None:
     [
         (b"\xff\xfe", "utf-16-le"),  # Source: Unicode §23.8: UTF-16LE BOM is FF FE.
         (b"\xfe\xff", "utf-16-be"),  # Source: Unicode §23.8: UTF-16BE BOM is FE FF.
+        (b"\xff\xfe\x00\x00", "utf-32-le"),  # Source: Unicode §23.8: UTF-32LE BOM is FF FE 00 00.
+        (b"\x00\x00\xfe\xff", "utf-32-be"),  # Source: Unicode §23.8: UTF-32BE BOM is 00 00 FE FF.
     ],
 )
-def test_utf16_with_bom(bom: bytes, codec: str) -> None:
+def test_utf16_and_utf32_with_bom(bom: bytes, codec: str) -> None:
     table = read_one("a.csv", bom + TEXT.encode(codec))
     assert cells(table) == EXPECTED
     assert "encoding" in kinds(table)
@@ -60,6 +62,7 @@ def test_windows_1252_is_read_and_noted() -> None:
     assert table.encoding == "cp1252"
     note = next(n for n in table.notes if n.kind == "encoding")
     assert "Windows-1252" in note.message
+    assert note.rows == (2,)  # ü of "Trübung" is the first non-UTF-8 byte, on line 2
 
 
 def test_latin1_text_reads_to_the_same_characters() -> None:
@@ -95,7 +98,7 @@ def test_nul_bytes_are_kept_and_noted_with_lines() -> None:
 
 def test_non_utf8_byte_after_the_first_megabyte_is_still_found() -> None:
     # The UTF-8 check streams the whole file, not a head sample.
-    filler = b"VB-014,4.2\n" * 120_000
+    filler = b"VB-014,4.2\n" * 100_000  # 1.1 MB: past the first 1 MiB read
     table = read_one("a.csv", b"site_id,result\n" + filler + "VB-099,Trübung\n".encode("cp1252"))
     assert table.encoding == "cp1252"
     assert table.grid.iloc[-1, 1] == "Trübung"
@@ -126,3 +129,26 @@ def test_utf16_bom_followed_by_bytes_that_are_not_utf16(data: bytes) -> None:
         assert verdict.rule.startswith("file.")
     else:
         assert tables[0].encoding != "utf-16"
+
+
+@pytest.mark.parametrize("newline", [b"\n", b"\r\n", b"\r"])
+def test_line_of_the_first_non_utf8_byte(newline: bytes) -> None:
+    lines = [b"site_id,note", b"VB-014,ok", b'VB-015,"two', b'lines"', "VB-016,Trübung".encode("cp1252")]
+    data = newline.join(lines)
+    note = next(n for n in read_one("a.csv", data).notes if n.kind == "encoding")
+    assert note.rows == (5,)
+
+
+@pytest.mark.parametrize("chunk", [1, 2, 3, 4, 5, 64])
+def test_line_counting_is_the_same_for_every_read_size(chunk: int, monkeypatch: pytest.MonkeyPatch) -> None:
+    from linter.read import encoding
+
+    data = b"ab\r\ncd\rde\nfg\r\n\r\nhi"
+    write("lines.bin", data)
+    monkeypatch.setattr(encoding, "CHUNK_BYTES", chunk)
+    # Expected from Python's own universal-newline splitting (str.splitlines on CR, LF, CRLF).
+    for offset in range(len(data)):
+        if data[offset : offset + 1] in b"\r\n":
+            continue
+        expected = len(data[: offset + 1].decode().splitlines())
+        assert encoding.line_of("lines.bin", offset) == expected, offset

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import time
 import tracemalloc
+from pathlib import Path
 
 import pytest
 from reader_helpers import write
@@ -59,6 +60,24 @@ def test_column_limit() -> None:
 def test_row_limit() -> None:
     name = write("a.csv", b"site_id\n" + b"VB-014\n" * 30)
     assert rule_of(name, ReadLimits(max_rows=10)) == "file.too-many-rows"
+
+
+def test_cell_limit_on_every_format(tmp_path: Path) -> None:
+    import pyarrow as pa
+    import pyarrow.parquet as pq
+    from openpyxl import Workbook
+
+    limits = ReadLimits(max_cells=50)
+    assert rule_of(write("a.csv", b"a,b,c\n" + b"1,2,3\n" * 20), limits) == "file.too-many-cells"
+    wb = Workbook()
+    sheet = wb.active
+    assert sheet is not None
+    for i in range(20):
+        sheet.append([i, i, i])
+    wb.save(tmp_path / "b.xlsx")
+    assert rule_of(str(tmp_path / "b.xlsx"), limits) == "file.too-many-cells"
+    pq.write_table(pa.table({"a": list(range(20)), "b": list(range(20)), "c": list(range(20))}), "c.parquet")
+    assert rule_of("c.parquet", limits) == "file.too-many-cells"
 
 
 def test_defaults_are_the_documented_ones() -> None:

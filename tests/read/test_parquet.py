@@ -65,3 +65,27 @@ def test_truncated_parquet_is_corrupt(tmp_path: Path) -> None:
 def test_header_only_parquet_reads_as_a_header_row(tmp_path: Path) -> None:
     pq.write_table(pa.table({"site_id": pa.array([], pa.string())}), tmp_path / "r.parquet")
     assert cells(read_path(str(tmp_path / "r.parquet"))[0]) == [["site_id"]]
+
+
+def test_nested_values_are_json_text(tmp_path: Path) -> None:
+    # Source: RFC 8259 (JSON) text, checked by parsing it back with Python's json module.
+    import json
+
+    data = pa.table({"depths": pa.array([[0.5, 1.0], None]), "probe": pa.array([{"id": "P-7"}, None])})
+    pq.write_table(data, tmp_path / "n.parquet")
+    grid = cells(read_path(str(tmp_path / "n.parquet"))[0])
+    assert json.loads(grid[1][0]) == [0.5, 1.0]
+    assert json.loads(grid[1][1]) == {"id": "P-7"}
+    assert grid[2] == [None, None]
+
+
+def test_damaged_footer_is_corrupt_not_an_os_error(tmp_path: Path) -> None:
+    # Source: Apache Parquet format: the file ends with the footer metadata, its 4-byte length
+    # and "PAR1". Regression: found by a mutation run, pyarrow raised OSError ("Couldn't
+    # deserialize thrift"), which the CLI would have reported as an unreadable path.
+    pq.write_table(pa.table({"a": [1, 2, 3], "b": ["x", "y", "z"]}), tmp_path / "r.parquet")
+    data = bytearray((tmp_path / "r.parquet").read_bytes())
+    data[-40:-8] = b"\xff" * 32
+    with pytest.raises(UnreadableFile) as caught:
+        read_path(write("d.parquet", bytes(data)))
+    assert caught.value.rule == "file.corrupt"

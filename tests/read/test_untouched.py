@@ -46,3 +46,13 @@ def test_no_input_is_modified(tmp_path: Path) -> None:
             read_path(str(path))
     assert {p: digest(p) for p in paths} == before
     assert sorted(tmp_path.iterdir()) == paths  # nothing written beside the inputs either
+
+
+def test_odd_file_names_read_like_any_other(tmp_path: Path) -> None:
+    # Common practice (no source): names with spaces, non-ASCII letters and a leading dash.
+    for name in ("chemistry March 2026.csv", "Trübung-Ødegård.csv", "-results.csv", "résultats .tsv"):
+        path = tmp_path / name
+        path.write_bytes(b"site_id,result\nVB-014,4.2\n")
+        (table,) = read_path(str(path))
+        assert table.source == str(path)
+        assert table.grid.iat[1, 0] == "VB-014"
