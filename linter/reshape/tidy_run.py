@@ -18,7 +18,8 @@ from linter.reshape.apply import Reshaped, apply_recipe, output_name
 from linter.reshape.audit import Audit, audit
 from linter.reshape.normalise import JoinAudit, SplitByUnit, UnitTable, audit_split
 from linter.reshape.recipe import Recipe, load_recipe
-from linter.reshape.search import Candidate, search
+from linter.reshape.search import Candidate
+from linter.reshape.search_sample import search_large
 from linter.reshape.steps import RecipeError, StepParams, step_from_json
 from linter.table import Table
 
@@ -66,7 +67,7 @@ def tidy_one(
             recipe,
             reshaped,
         )
-    found = search(table, contract, keep_empty=keep_empty)
+    found = search_large(table, contract, keep_empty=keep_empty)
     recipe = Recipe.of(step_from_json(s, i) for i, s in enumerate(found.best.steps, start=1))
     reshaped = apply_recipe(table, recipe)
     split = _unit_split(reshaped, table, contract)
