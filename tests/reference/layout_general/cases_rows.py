@@ -1,0 +1,529 @@
+"""Cases with variables in rows, transposed tables, and title, section, total, note and blank rows."""
+
+from __future__ import annotations
+
+from corpus_case import add, table
+
+
+def register() -> None:
+    add(
+        "measure-value-long",
+        "variables-in-rows",
+        "notebook",
+        "a measure column naming temp_min/temp_max beside value; spread to one column per measure",
+        table("""
+station|date|measure|value
+Kell Moor|2024-01-01|temp_min|-2.1
+Kell Moor|2024-01-01|temp_max|6.4
+Kell Moor|2024-01-02|temp_min|-1.0
+Kell Moor|2024-01-02|temp_max|7.2
+Ardle Gap|2024-01-01|temp_min|-4.0
+Ardle Gap|2024-01-01|temp_max|4.2
+Ardle Gap|2024-01-02|temp_min|-3.3
+Ardle Gap|2024-01-02|temp_max|5.0
+"""),
+        table("""
+station|date|temp_min|temp_max
+Kell Moor|2024-01-01|-2.1|6.4
+Kell Moor|2024-01-02|-1.0|7.2
+Ardle Gap|2024-01-01|-4.0|4.2
+Ardle Gap|2024-01-02|-3.3|5.0
+"""),
+    )
+    add(
+        "key-value-patient-attrs",
+        "variables-in-rows",
+        "spreadsheet",
+        "entity-attribute-value rows (patient, attribute, value); spread attributes to columns",
+        table("""
+patient|attribute|value
+P001|age|34
+P001|height_cm|171
+P001|weight_kg|68
+P002|age|51
+P002|height_cm|165
+P002|weight_kg|80
+P003|age|27
+P003|height_cm|182
+P003|weight_kg|77
+"""),
+        table("""
+patient|age|height_cm|weight_kg
+P001|34|171|68
+P002|51|165|80
+P003|27|182|77
+"""),
+    )
+    add(
+        "lab-analyte-result-long",
+        "variables-in-rows",
+        "spreadsheet",
+        "one row per analyte per sample, but every sample has the same three analytes; spread to columns",
+        table("""
+sample|parameter|result
+LS-01|pH|7.2
+LS-01|conductivity|410
+LS-01|turbidity|3.1
+LS-02|pH|6.8
+LS-02|conductivity|388
+LS-02|turbidity|5.6
+LS-03|pH|7.5
+LS-03|conductivity|402
+LS-03|turbidity|2.2
+"""),
+        table("""
+sample|pH|conductivity|turbidity
+LS-01|7.2|410|3.1
+LS-02|6.8|388|5.6
+LS-03|7.5|402|2.2
+"""),
+    )
+    add(
+        "periodic-three-row-records",
+        "periodic-rows",
+        "web",
+        "a pasted address list: every 3 rows (name, phone, town) form one record; spread to columns",
+        [
+            ["Ilse Varnham"],
+            ["0700 100201"],
+            ["Lowmoor"],
+            ["Bram Kettleby"],
+            ["0700 100377"],
+            ["Drayburn"],
+            ["Maud Fenner"],
+            ["0700 100412"],
+            ["Kessel"],
+            ["Orla Pettifer"],
+            ["0700 100598"],
+            ["Brannoch"],
+        ],
+        table("""
+name|phone|town
+Ilse Varnham|0700 100201|Lowmoor
+Bram Kettleby|0700 100377|Drayburn
+Maud Fenner|0700 100412|Kessel
+Orla Pettifer|0700 100598|Brannoch
+"""),
+    )
+    add(
+        "periodic-label-value-pairs",
+        "periodic-rows",
+        "forum",
+        "label/value rows repeating every 3 rows per device; spread to one row per device",
+        table("""
+Device|Pump A
+Flow|12.5
+Status|running
+Device|Pump B
+Flow|0
+Status|stopped
+Device|Pump C
+Flow|11.9
+Status|running
+"""),
+        table("""
+device|flow|status
+Pump A|12.5|running
+Pump B|0|stopped
+Pump C|11.9|running
+"""),
+    )
+    add(
+        "transposed-site-profile",
+        "transposed",
+        "spreadsheet",
+        "variables down the first column, one column per site; swap rows and columns",
+        table("""
+site|VB-014|VB-021|VB-033|VB-040
+river|Vell|Vell|Orrin Brook|Tarn Beck
+altitude_m|120|85|210|340
+catchment_km2|44.1|61.0|12.3|8.7
+opened|2011|2009|2015|2018
+"""),
+        table("""
+site|river|altitude_m|catchment_km2|opened
+VB-014|Vell|120|44.1|2011
+VB-021|Vell|85|61.0|2009
+VB-033|Orrin Brook|210|12.3|2015
+VB-040|Tarn Beck|340|8.7|2018
+"""),
+    )
+    add(
+        "transposed-player-stats",
+        "transposed",
+        "web",
+        "stat names down the side, one column per player; swap so each player is a row",
+        table("""
+Player|Dace|Orrin|Pell
+Games|12|14|9
+Goals|7|3|5
+Assists|2|6|1
+Minutes|980|1204|702
+"""),
+        table("""
+player|games|goals|assists|minutes
+Dace|12|7|2|980
+Orrin|14|3|6|1204
+Pell|9|5|1|702
+"""),
+    )
+    add(
+        "section-title-regions",
+        "section-titles",
+        "spreadsheet",
+        "rows with only a region name label the shops below; lift into a region column",
+        table("""
+shop|manager|staff
+North||
+Corran Street|Tamsin Orrow|6
+Mill Yard|Bram Kettleby|4
+South||
+Harbour Row|Ilse Varnham|9
+Depot Lane|Maud Fenner|3
+Quay End|Orla Pettifer|5
+"""),
+        table("""
+region|shop|manager|staff
+North|Corran Street|Tamsin Orrow|6
+North|Mill Yard|Bram Kettleby|4
+South|Harbour Row|Ilse Varnham|9
+South|Depot Lane|Maud Fenner|3
+South|Quay End|Orla Pettifer|5
+"""),
+    )
+    add(
+        "section-title-lab-batches",
+        "section-titles",
+        "forum",
+        "'Batch 12' style rows label the samples below; lift into a batch column",
+        table("""
+sample|nitrate|phosphate
+Batch 12||
+LS-01|4.1|0.12
+LS-02|3.8|0.09
+Batch 13||
+LS-03|5.2|0.20
+LS-04|4.9|0.18
+"""),
+        table("""
+batch|sample|nitrate|phosphate
+Batch 12|LS-01|4.1|0.12
+Batch 12|LS-02|3.8|0.09
+Batch 13|LS-03|5.2|0.20
+Batch 13|LS-04|4.9|0.18
+"""),
+    )
+    add(
+        "same-as-above-blank-group",
+        "same-as-above",
+        "spreadsheet",
+        "the site is written once per block and left blank below; fill down",
+        table("""
+site|date|ph
+VB-014|2024-05-01|7.1
+|2024-05-08|7.0
+|2024-05-15|7.3
+VB-021|2024-05-01|6.8
+|2024-05-08|6.9
+"""),
+        table("""
+site|date|ph
+VB-014|2024-05-01|7.1
+VB-014|2024-05-08|7.0
+VB-014|2024-05-15|7.3
+VB-021|2024-05-01|6.8
+VB-021|2024-05-08|6.9
+"""),
+    )
+    add(
+        "same-as-above-two-levels",
+        "same-as-above",
+        "spreadsheet",
+        "hierarchical labels year then term written once per block; fill both down",
+        table("""
+year|term|subject|average
+2023|Autumn|Maths|61
+||English|66
+|Spring|Maths|63
+||English|64
+2024|Autumn|Maths|65
+||English|69
+"""),
+        table("""
+year|term|subject|average
+2023|Autumn|Maths|61
+2023|Autumn|English|66
+2023|Spring|Maths|63
+2023|Spring|English|64
+2024|Autumn|Maths|65
+2024|Autumn|English|69
+"""),
+    )
+    add(
+        "ditto-marks",
+        "same-as-above",
+        "forum",
+        'ditto marks (") stand for the value above; fill down',
+        [
+            ["bus", "stop", "departs"],
+            ["12", "Quay End", "07:10"],
+            ['"', "Mill Yard", "07:18"],
+            ['"', "Corran St", "07:25"],
+            ["14", "Depot Lane", "07:40"],
+            ['"', "Harbour Row", "07:52"],
+        ],
+        table("""
+bus|stop|departs
+12|Quay End|07:10
+12|Mill Yard|07:18
+12|Corran St|07:25
+14|Depot Lane|07:40
+14|Harbour Row|07:52
+"""),
+    )
+    add(
+        "grand-total-row",
+        "totals-and-notes",
+        "spreadsheet",
+        "a Grand total row under the data is derived; drop it",
+        table("""
+department|headcount|cost
+Finance|12|540000
+Planning|8|352000
+Parks|21|690000
+Grand total|41|1582000
+"""),
+        table("""
+department|headcount|cost
+Finance|12|540000
+Planning|8|352000
+Parks|21|690000
+"""),
+    )
+    add(
+        "subtotals-per-group",
+        "totals-and-notes",
+        "spreadsheet",
+        "subtotal rows after each region and a total at the end; drop them",
+        table("""
+region|shop|sales
+North|Corran Street|1200
+North|Mill Yard|880
+North Subtotal||2080
+South|Harbour Row|2310
+South|Depot Lane|640
+South Subtotal||2950
+Total||5030
+"""),
+        table("""
+region|shop|sales
+North|Corran Street|1200
+North|Mill Yard|880
+South|Harbour Row|2310
+South|Depot Lane|640
+"""),
+    )
+    add(
+        "footnotes-and-source",
+        "totals-and-notes",
+        "web",
+        "footnote and source lines under the table are not data; drop them",
+        table("""
+district|turnout_pct
+Kessel Ward|61.2
+Brannoch|58.9
+Oldfold|64.0
+* Provisional figures.|
+Source: Vell Basin count office, invented demo data.|
+"""),
+        table("""
+district|turnout_pct
+Kessel Ward|61.2
+Brannoch|58.9
+Oldfold|64.0
+"""),
+    )
+    add(
+        "sum-row-first-column",
+        "totals-and-notes",
+        "notebook",
+        "a 'Sum' row at the bottom; drop it",
+        table("""
+crop|plots|yield_t
+barley|4|12.2
+oats|3|7.9
+rye|2|4.1
+Sum|9|24.2
+"""),
+        table("""
+crop|plots|yield_t
+barley|4|12.2
+oats|3|7.9
+rye|2|4.1
+"""),
+    )
+    add(
+        "blank-rows-between",
+        "blank-rows-columns",
+        "spreadsheet",
+        "blank rows separate groups of data; drop them",
+        table("""
+item|count
+Bolts M6|1200
+Washers 6mm|3300
+|
+Hinges 75mm|210
+Brackets|95
+|
+Screws 4x30|5000
+"""),
+        table("""
+item|count
+Bolts M6|1200
+Washers 6mm|3300
+Hinges 75mm|210
+Brackets|95
+Screws 4x30|5000
+"""),
+    )
+    add(
+        "blank-leading-column-row",
+        "blank-rows-columns",
+        "spreadsheet",
+        "table starts at B2: an empty first row and column; drop them",
+        [
+            ["", "", "", ""],
+            ["", "runner", "club", "time_s"],
+            ["", "Dace", "Kell Harriers", "1012"],
+            ["", "Pell", "Ardle AC", "998"],
+            ["", "Orrin", "Kell Harriers", "1045"],
+        ],
+        table("""
+runner|club|time_s
+Dace|Kell Harriers|1012
+Pell|Ardle AC|998
+Orrin|Kell Harriers|1045
+"""),
+    )
+    add(
+        "title-rows-above",
+        "title-rows",
+        "spreadsheet",
+        "a title and a date line above the real header; drop them",
+        table("""
+Vell Basin volunteer hours||
+Prepared 2024-07-01||
+volunteer|group|hours
+Ilse Varnham|Tarn Beck Watch|14
+Bram Kettleby|Orrin Friends|9
+Maud Fenner|Tarn Beck Watch|21
+"""),
+        table("""
+volunteer|group|hours
+Ilse Varnham|Tarn Beck Watch|14
+Bram Kettleby|Orrin Friends|9
+Maud Fenner|Tarn Beck Watch|21
+"""),
+    )
+    add(
+        "unnamed-index-column",
+        "index-column",
+        "notebook",
+        "a pandas index written as an unnamed first column; drop it",
+        table("""
+|species|wing_mm|mass_g
+0|dipper|92|64
+1|dipper|95|66
+2|wagtail|88|21
+3|wagtail|86|20
+"""),
+        table("""
+species|wing_mm|mass_g
+dipper|92|64
+dipper|95|66
+wagtail|88|21
+wagtail|86|20
+"""),
+    )
+    add(
+        "unnamed-0-header",
+        "index-column",
+        "notebook",
+        "'Unnamed: 0' column from a re-read pandas export; drop it",
+        table("""
+Unnamed: 0|order_id|amount
+0|A-1001|12.50
+1|A-1002|8.00
+2|A-1003|30.25
+"""),
+        table("""
+order_id|amount
+A-1001|12.50
+A-1002|8.00
+A-1003|30.25
+"""),
+    )
+    add(
+        "repeated-header-rows",
+        "repeated-header-rows",
+        "web",
+        "an HTML table repeats its header every few rows; drop the repeats",
+        table("""
+Pos|Team|Played|Points
+1|Dunmore Rovers|10|24
+2|Kell Town|10|21
+3|Ardle United|10|18
+Pos|Team|Played|Points
+4|Fenwick Athletic|10|12
+5|Wenlow Wanderers|10|9
+Pos|Team|Played|Points
+6|Oldfold City|10|4
+"""),
+        table("""
+Pos|Team|Played|Points
+1|Dunmore Rovers|10|24
+2|Kell Town|10|21
+3|Ardle United|10|18
+4|Fenwick Athletic|10|12
+5|Wenlow Wanderers|10|9
+6|Oldfold City|10|4
+"""),
+    )
+    add(
+        "no-header-numbers",
+        "no-header",
+        "forum",
+        "pasted data with no header row; the first line is data and must be kept",
+        table("""
+VB-014|2024-05-01|7.1|12.3
+VB-021|2024-05-01|6.8|11.9
+VB-033|2024-05-02|7.4|13.0
+VB-040|2024-05-02|7.0|12.6
+"""),
+        table("""
+column_1|column_2|column_3|column_4
+VB-014|2024-05-01|7.1|12.3
+VB-021|2024-05-01|6.8|11.9
+VB-033|2024-05-02|7.4|13.0
+VB-040|2024-05-02|7.0|12.6
+"""),
+    )
+    add(
+        "no-header-names",
+        "no-header",
+        "forum",
+        "a name/score list pasted without a header; keep every line as data",
+        table("""
+Anwen Hask|64
+Joss Mellor|80
+Rhea Tollan|55
+Tomos Wray|71
+"""),
+        table("""
+column_1|column_2
+Anwen Hask|64
+Joss Mellor|80
+Rhea Tollan|55
+Tomos Wray|71
+"""),
+    )
