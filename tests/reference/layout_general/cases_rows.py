@@ -55,27 +55,30 @@ P003|27|182|77
 """),
     )
     add(
-        "lab-analyte-result-long",
+        "lab-field-sheet-long",
         "variables-in-rows",
         "spreadsheet",
-        "one row per analyte per sample, but every sample has the same three analytes; spread to columns",
+        "field sheet as field/entry rows per visit with mixed kinds (names, times, numbers); spread fields",
         table("""
-sample|parameter|result
-LS-01|pH|7.2
-LS-01|conductivity|410
-LS-01|turbidity|3.1
-LS-02|pH|6.8
-LS-02|conductivity|388
-LS-02|turbidity|5.6
-LS-03|pH|7.5
-LS-03|conductivity|402
-LS-03|turbidity|2.2
+visit|field|entry
+V-1|sampler|Ilse Varnham
+V-1|arrived|09:40
+V-1|water_temp_c|11.2
+V-1|weather|overcast
+V-2|sampler|Bram Kettleby
+V-2|arrived|10:15
+V-2|water_temp_c|12.0
+V-2|weather|rain
+V-3|sampler|Maud Fenner
+V-3|arrived|08:55
+V-3|water_temp_c|10.7
+V-3|weather|dry
 """),
         table("""
-sample|pH|conductivity|turbidity
-LS-01|7.2|410|3.1
-LS-02|6.8|388|5.6
-LS-03|7.5|402|2.2
+visit|sampler|arrived|water_temp_c|weather
+V-1|Ilse Varnham|09:40|11.2|overcast
+V-2|Bram Kettleby|10:15|12.0|rain
+V-3|Maud Fenner|08:55|10.7|dry
 """),
     )
     add(

@@ -200,9 +200,9 @@ A-1003|1|Reed lamp|1|18.99|18.99
     (
         "survey-likert-items",
         "notebook",
-        "one row per respondent with item columns q1..q4 that are different questions",
+        "one row per respondent; q1_access..q4_recommend are different questions, not levels",
         """
-respondent|q1|q2|q3|q4
+respondent|q1_access|q2_price|q3_staff|q4_recommend
 R001|4|5|3|2
 R002|2|2|4|5
 R003|5|4|4|4
@@ -468,6 +468,53 @@ H-01|1|44|head|yes
 H-01|2|41|spouse|
 H-01|3|12|child|
 H-02|1|70|head|no
+""",
+    ),
+    (
+        "units-in-headers",
+        "spreadsheet",
+        "units in headers (depth (m), temp (C)) name variables; tidy",
+        """
+profile|depth (m)|temp (C)|do (mg/L)
+PR-1|0.5|11.2|9.8
+PR-1|2.0|9.8|9.1
+PR-2|0.5|12.1|9.4
+PR-2|3.0|9.2|8.2
+""",
+    ),
+    (
+        "initials-names",
+        "web",
+        "'Hask, A.'-style author names are one value each and must not be split",
+        """
+report|author|year
+VB-R-01|Hask, A.|2021
+VB-R-02|Mellor, J.|2022
+VB-R-03|Tollan, R.|2022
+VB-R-04|Wray, T.|2023
+""",
+    ),
+    (
+        "summary-stats-columns",
+        "notebook",
+        "mean, sd and n per group are distinct statistics of one row",
+        """
+group|n|mean|sd|min|max
+control|12|0.41|0.02|0.38|0.44
+salt|12|0.28|0.03|0.24|0.33
+heat|11|0.35|0.04|0.29|0.41
+""",
+    ),
+    (
+        "letter-grades-with-signs",
+        "spreadsheet",
+        "grades like A- and B+ are single values",
+        """
+student|module|grade
+Anwen Hask|Ecology|A-
+Joss Mellor|Ecology|B+
+Rhea Tollan|Ecology|B
+Tomos Wray|Ecology|C+
 """,
     ),
 ]

@@ -2,12 +2,32 @@
 
 from __future__ import annotations
 
-from corpus_case import add, gather, table
+import re
+from collections.abc import Callable
+
+from corpus_case import add, as_written, gather, table
 
 
-def _wide(name: str, style: str, why: str, text: str, ids: int, key: str, value: str) -> None:
+def trailing_number(header: str) -> str:
+    """`rep2`, `T0`, `W01` -> the number: the prefix names the variable, as with the billboard
+    data's `wk1`.. columns becoming week 1.. in Wickham, Tidy Data (J. Stat. Softw. 59(10), 2014)."""
+    match = re.search(r"(\d+)$", header)
+    assert match, header
+    return match.group(1)
+
+
+def _wide(
+    name: str,
+    style: str,
+    why: str,
+    text: str,
+    ids: int,
+    key: str,
+    value: str,
+    label: Callable[[str], str] = as_written,
+) -> None:
     rows = table(text)
-    add(name, "values-in-headers", style, why, rows, gather(rows[0], rows[1:], ids, key, value))
+    add(name, "values-in-headers", style, why, rows, gather(rows[0], rows[1:], ids, key, value, label))
 
 
 def register() -> None:
@@ -43,7 +63,7 @@ Brackwater High|1102|1099|1120|1131|1150
     _wide(
         "budget-fiscal-years",
         "spreadsheet",
-        "budget line per row, one column per fiscal year label FY2020..; gather",
+        "one column per fiscal year; gather, label FY2020 kept as written (not calendar 2020)",
         """
 Budget line|FY2020|FY2021|FY2022|FY2023
 Road maintenance|412000|398500|430250|455000
@@ -155,7 +175,7 @@ W-3|0.03|0.18|0.40|0.70|0.93
     _wide(
         "replicates-rep-columns",
         "notebook",
-        "replicate labels rep1..rep3 as headers; gather to sample, replicate, od",
+        "rep1..rep3 headers; gather, replicate is the number (prefix names the variable)",
         """
 sample|treatment|rep1|rep2|rep3
 S01|control|0.412|0.398|0.405
@@ -166,11 +186,12 @@ S04|salt|0.266|0.259|0.270
         2,
         "replicate",
         "od",
+        trailing_number,
     )
     _wide(
         "timepoints-t0-t3",
         "forum",
-        "time points T0..T3 as headers; gather to patient, timepoint, score",
+        "T0..T3 headers; gather, timepoint is the number (prefix names the variable)",
         """
 id|arm|T0|T1|T2|T3
 P001|A|22|18|15|12
@@ -181,6 +202,7 @@ P004|B|27|25|23|22
         2,
         "timepoint",
         "score",
+        trailing_number,
     )
     _wide(
         "weekly-timesheet",
@@ -199,7 +221,7 @@ Ilse Varnham||7|7|7|7
     _wide(
         "week-number-headers",
         "notebook",
-        "ISO week labels W01..; gather to ward, week, cases",
+        "W01.. headers; gather, week is the number (prefix names the variable)",
         """
 ward|W01|W02|W03|W04|W05|W06
 Heron|12|15|11|9|14|18
@@ -209,6 +231,7 @@ Plover|21|19|25|22|20|17
         1,
         "week",
         "cases",
+        trailing_number,
     )
     _wide(
         "daily-date-headers",
@@ -314,22 +337,21 @@ Oldfold|20|41|17|38
         several,
         tidy,
     )
-    sexyear = table("""
-county|male_2019|male_2020|female_2019|female_2020
-Aldmere|5402|5450|5611|5680
-Wythen|3120|3155|3302|3340
+    varyear = table("""
+county|pop_2019|pop_2020|births_2019|births_2020
+Aldmere|11013|11130|98|102
+Wythen|6422|6495|51|47
 """)
-    tidy = [["county", "sex", "year", "population"]]
-    for row in sexyear[1:]:
-        for j, head in enumerate(sexyear[0][1:], start=1):
-            sex, year = head.split("_")
-            tidy.append([row[0], sex, year, row[j]])
+    tidy = [["county", "year", "pop", "births"]]
+    for row in varyear[1:]:
+        tidy.append([row[0], "2019", row[1], row[3]])
+        tidy.append([row[0], "2020", row[2], row[4]])
     add(
-        "sex-year-underscore-headers",
-        "values-in-headers",
+        "variable-year-underscore-headers",
+        "repeated-column-groups",
         "notebook",
-        "headers join sex and year with an underscore; gather then split at the underscore",
-        sexyear,
+        "headers join variable and year (pop_2019); one row per county and year, a column per variable",
+        varyear,
         tidy,
     )
     minmax = table("""
@@ -364,7 +386,7 @@ West|7100|240|||7600|255
         "quarter-sales-units-groups",
         "repeated-column-groups",
         "spreadsheet",
-        "pairs of Sales/Units per quarter; one row per region and quarter, empty pair kept as empty values",
+        "Sales/Units pairs per quarter; a row per region and quarter (Q1 kept as written), empty kept",
         groups,
         tidy,
     )

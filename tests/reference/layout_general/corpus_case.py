@@ -65,10 +65,21 @@ def table(text: str) -> Rows:
     return [[cell.strip() for cell in line.split("|")] for line in text.strip().splitlines()]
 
 
-def gather(header: Sequence[str], rows: Rows, ids: int, key: str, value: str) -> Rows:
+def as_written(header: str) -> str:
+    return header
+
+
+def gather(
+    header: Sequence[str],
+    rows: Rows,
+    ids: int,
+    key: str,
+    value: str,
+    label: Callable[[str], str] = as_written,
+) -> Rows:
     """The tidy form of a wide block: one row per cell, an empty cell kept as an empty value."""
     out: Rows = [[*header[:ids], key, value]]
     for row in rows:
         for j in range(ids, len(header)):
-            out.append([*row[:ids], header[j], row[j] if j < len(row) else ""])
+            out.append([*row[:ids], label(header[j]), row[j] if j < len(row) else ""])
     return out
