@@ -78,3 +78,27 @@ def test_layout_general_accuracy_and_false_alarms(capsys: pytest.CaptureFixture[
     assert len(results) == len(FOLDERS)
     # Issue 3 bar: at most 2 % of already-tidy tables may draw a layout error or be changed.
     assert alarms <= 0.02
+
+
+WIDE = [f for f in FOLDERS if "family: values-in-headers" in (f / "case.yaml").read_text(encoding="utf-8")]
+
+
+@pytest.mark.parametrize("folder", WIDE, ids=[f.name for f in WIDE])
+def test_wide_ground_truth_matches_pandas_melt(folder: Path) -> None:
+    # Source: pandas.melt (pandas reference library): the ground truth of a plain gather must be
+    # what melt makes of the input, keeping NaN rows; header labels either as written or, for
+    # prefix-number headers (rep1, W01), the number as in Wickham, Tidy Data (2014), billboard weeks.
+    import pandas as pd
+
+    expected_text = (folder / "expected.csv").read_text(encoding="utf-8")
+    wide = pd.read_csv(folder / "input.csv", dtype=str, keep_default_na=False)
+    kept = next(csv.reader(io.StringIO(expected_text)))
+    ids = [c for c in wide.columns if c in kept]
+    if len(kept) != len(ids) + 2:
+        pytest.skip("header packs several variables; not a plain melt")
+    long = wide.melt(id_vars=ids, var_name="key", value_name="value")
+    numbered = long.assign(key=long["key"].str.extract(r"(\d+)$", expand=False))
+    scorer = _scorer()
+    assert scorer.same_content(expected_text, long.to_csv(index=False)) or (
+        numbered["key"].notna().all() and scorer.same_content(expected_text, numbered.to_csv(index=False))
+    )
