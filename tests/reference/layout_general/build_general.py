@@ -18,6 +18,7 @@ HERE = Path(__file__).resolve().parent
 sys.path.insert(0, str(HERE))
 
 import cases_combo  # noqa: E402
+import cases_extra  # noqa: E402
 import cases_large  # noqa: E402
 import cases_more  # noqa: E402
 import cases_packed  # noqa: E402
@@ -51,7 +52,16 @@ def write_case(case: Case) -> None:
 
 
 def main() -> None:
-    for module in (cases_wide, cases_packed, cases_rows, cases_combo, cases_more, cases_large, cases_tidy):
+    for module in (
+        cases_wide,
+        cases_packed,
+        cases_rows,
+        cases_combo,
+        cases_more,
+        cases_extra,
+        cases_large,
+        cases_tidy,
+    ):
         module.register()
     for case in CASES:
         write_case(case)
