@@ -18,6 +18,7 @@ HERE = Path(__file__).resolve().parent
 sys.path.insert(0, str(HERE))
 
 import cases_combo  # noqa: E402
+import cases_edges  # noqa: E402
 import cases_extra  # noqa: E402
 import cases_large  # noqa: E402
 import cases_more  # noqa: E402
@@ -56,6 +57,7 @@ def main() -> None:
         cases_wide,
         cases_packed,
         cases_rows,
+        cases_edges,
         cases_combo,
         cases_more,
         cases_extra,
