@@ -23,6 +23,7 @@ import cases_extra  # noqa: E402
 import cases_large  # noqa: E402
 import cases_more  # noqa: E402
 import cases_packed  # noqa: E402
+import cases_pivot  # noqa: E402
 import cases_rows  # noqa: E402
 import cases_tidy  # noqa: E402
 import cases_wide  # noqa: E402
@@ -62,6 +63,7 @@ def main() -> None:
         cases_more,
         cases_extra,
         cases_large,
+        cases_pivot,
         cases_tidy,
     ):
         module.register()
