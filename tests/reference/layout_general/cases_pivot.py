@@ -1,4 +1,4 @@
-"""Pivot-style exports: answer levels and years across the top, grand totals on both edges, sideways series."""
+"""Pivot-style exports: levels and years across the top, grand totals on both edges, sideways series."""
 
 from __future__ import annotations
 
