@@ -10,7 +10,7 @@ import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
-from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL
+from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL, below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_signals import blank, dominant_kind, filled_mask, frame_of, row_fill, sample
 from linter.rules.registry import define_rule, inspector
@@ -163,4 +163,4 @@ def section_titles(subject: Subject) -> Iterable[Finding]:
 
 @inspector()
 def same_as_above(subject: Subject) -> Iterable[Finding]:
-    return find_same_as_above(subject.table, subject.contract)
+    return find_same_as_above(below_titles(subject.table), subject.contract)

@@ -7,6 +7,7 @@ from collections.abc import Iterable
 
 from linter.contract.model import TableContract, VarType
 from linter.findings import Finding, Severity
+from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_signals import (
     blank,
@@ -283,9 +284,9 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
 
 @inspector()
 def values_in_headers(subject: Subject) -> Iterable[Finding]:
-    return find_values_in_headers(subject.table, subject.contract)
+    return find_values_in_headers(below_titles(subject.table), subject.contract)
 
 
 @inspector()
 def repeated_groups(subject: Subject) -> Iterable[Finding]:
-    return find_repeated_groups(subject.table, subject.contract)
+    return find_repeated_groups(below_titles(subject.table), subject.contract)

@@ -9,6 +9,7 @@ import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
+from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_signals import (
     blank,
@@ -166,6 +167,8 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
     grid = table.grid
     if not 3 <= grid.shape[0] <= MAX_VARIABLES or grid.shape[1] < 3:
         return []  # a sideways table has one row per variable: a few, not thousands
+    if any(blank(v) for v in grid.iloc[0].tolist()):
+        return []  # the top row of a sideways table names every observation
     firsts = grid.iloc[1:, 0].tolist()
     if any(blank(v) for v in firsts) or len(set(firsts)) != len(firsts):
         return []
@@ -202,7 +205,7 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
 
 @inspector()
 def variables_in_rows(subject: Subject) -> Iterable[Finding]:
-    return find_variables_in_rows(subject.table, subject.contract)
+    return find_variables_in_rows(below_titles(subject.table), subject.contract)
 
 
 @inspector()
