@@ -64,6 +64,13 @@ def propose_update(text: str, path: str, contract: Contract, draft: TableDraft) 
             if code_lists:  # a long code list stays inline here: the update writes one file only
                 proposal.pop("codes", None)
                 proposal["values"] = list(variable.values)
+            if variables.fa.flow_style():
+                # Inside a one-line mapping a comment would break the line: the entry goes in bare.
+                bare = CommentedMap(proposal.items())
+                bare.fa.set_flow_style()
+                variables[variable.name] = bare
+                added.append(f"variable {variable.name} (not required)")
+                continue
             variables[variable.name] = proposal
             variables.yaml_add_eol_comment(
                 f"new column seen in {files}; proposed as not required", variable.name

@@ -147,3 +147,19 @@ def test_update_of_a_broken_contract_is_one_line_and_exit_2(tmp_path: Path) -> N
     assert result.exit_code == 2
     assert "Traceback" not in result.output
     assert len(result.output.strip().splitlines()) == 1
+
+
+def test_update_of_a_one_line_variables_mapping_stays_one_line(tmp_path: Path) -> None:
+    contract = tmp_path / "t.yaml"
+    contract.write_text(
+        "contract: t\nversion: 1\nobservational_unit: one site  # what a row is\n"
+        "keys: [site_id]\nvariables: {site_id: string, ph: number}\n"
+    )
+    sample = tmp_path / "t-1.csv"
+    sample.write_text("site_id,ph,river\nVB-001,7.1,Vell\nVB-002,7.2,Ash\n")
+    code, output = run("draft", str(sample), "--update", str(contract), "--write")
+    assert code == 0, output
+    lines = contract.read_text().splitlines()
+    assert lines[-1].startswith("variables: {site_id: string, ph: number, river: {")
+    assert "# what a row is" in lines[2]
+    assert run("check", str(sample), "-c", str(contract))[0] == 0
