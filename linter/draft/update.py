@@ -17,7 +17,7 @@ from linter.contract.model import Contract, TableContract, Variable, VarType
 from linter.contract.yaml_tree import parse_yaml
 from linter.draft.columns import VariableDraft
 from linter.draft.infer import TableDraft
-from linter.draft.write import variable_node, yaml_writer
+from linter.draft.write import evidence_comment, variable_node, yaml_writer
 from linter.errors import WeirError
 
 
@@ -72,8 +72,8 @@ def propose_update(text: str, path: str, contract: Contract, draft: TableDraft) 
                 added.append(f"variable {variable.name} (not required)")
                 continue
             variables[variable.name] = proposal
-            variables.yaml_add_eol_comment(
-                f"new column seen in {files}; proposed as not required", variable.name
+            evidence_comment(
+                variables, f"new column seen in {files}; proposed as not required", variable.name
             )
             added.append(f"variable {variable.name} (not required)")
             continue

@@ -40,6 +40,12 @@ def dump(node: object) -> str:
     return stream.getvalue()
 
 
+def evidence_comment(node: CommentedMap, text: str, key: str) -> None:
+    """The evidence for an entry as an end-of-line comment, one space after the value on every line."""
+    if text:
+        node.yaml_add_eol_comment(f"# {text}", key, column=1)
+
+
 def flow(items: list[object]) -> CommentedSeq:
     seq = CommentedSeq(items)
     seq.fa.set_flow_style()
@@ -75,7 +81,7 @@ def variable_node(variable: VariableDraft, contract_id: str, code_lists: dict[st
         else:
             node["values"] = flow(list(variable.values))
             key = "values"
-        node.yaml_add_eol_comment(variable.evidence.get("values", ""), key)
+        evidence_comment(node, variable.evidence.get("values", ""), key)
     if isinstance(variable.minimum, str):
         node["min"] = quoted(variable.minimum)  # quoted: a date bound is ISO 8601 text
     elif variable.minimum is not None:
@@ -92,7 +98,7 @@ def variable_node(variable: VariableDraft, contract_id: str, code_lists: dict[st
         node["date_format"] = variable.date_format
     for key in ("nullable", "required", "min", "max", "pattern", "unit", "censored_prefix", "date_format"):
         if key in node and variable.evidence.get(key):
-            node.yaml_add_eol_comment(variable.evidence[key], key)
+            evidence_comment(node, variable.evidence[key], key)
     return node
 
 
@@ -114,22 +120,22 @@ def contract_node(draft: TableDraft, contract_id: str, code_lists: dict[str, str
     top["applies_to"] = flow(list(draft.applies_to))
     if draft.keys:
         top["keys"] = flow(list(draft.keys))
-        top.yaml_add_eol_comment(draft.key_evidence, "keys")
+        evidence_comment(top, draft.key_evidence, "keys")
     variables = CommentedMap()
     for variable in draft.variables:
         variables[variable.name] = variable_node(variable, contract_id, code_lists)
         if variable.evidence.get(""):
-            variables.yaml_add_eol_comment(variable.evidence[""], variable.name)
+            evidence_comment(variables, variable.evidence[""], variable.name)
     top["variables"] = variables
     top["missing"] = flow(list(draft.missing))
     if draft.missing_evidence:
-        top.yaml_add_eol_comment(draft.missing_evidence, "missing")
+        evidence_comment(top, draft.missing_evidence, "missing")
     if draft.rules:
         top["rules"] = flow(list(draft.rules))
-        top.yaml_add_eol_comment("every row keeps it", "rules")
+        evidence_comment(top, "every row keeps it", "rules")
     if draft.complete_over:
         top["complete_over"] = flow(list(draft.complete_over))
-        top.yaml_add_eol_comment(draft.complete_evidence, "complete_over")
+        evidence_comment(top, draft.complete_evidence, "complete_over")
     top["extra_columns"] = "warn"
     top["column_order"] = False
     return top
