@@ -38,7 +38,7 @@ def drafted(source: Path, *options: str) -> TableContract:
 
 
 def test_palmer_penguins_types_and_code_lists_match_the_package_documentation() -> None:
-    # Dataset: penguins.csv shipped in the `palmerpenguins` package (PyPI), 344 rows.
+    # Dataset: penguins.csv shipped in the `palmerpenguins` package (from the package index), 344 rows.
     table = drafted(packaged("palmerpenguins", "data", "penguins.csv"))
     types = {v.name: v.type for v in table.variables}
     # Source: palmerpenguins.load_penguins docstring: "species | A string denoting penguin species
@@ -75,7 +75,7 @@ def test_palmer_penguins_types_and_code_lists_match_the_package_documentation() 
 
 
 def test_seattle_weather_is_keyed_by_its_date_with_its_own_date_format() -> None:
-    # Dataset: seattle-weather.csv shipped (locally) in the `vega_datasets` package (PyPI).
+    # Dataset: seattle-weather.csv shipped (locally) in the `vega_datasets` package (from the package index).
     table = drafted(packaged("vega_datasets", "_data", "seattle-weather.csv"))
     # Source: vega_datasets/dataset_info.json: "precipitation totals, temperature extremes, wind
     # speed, and weather type recorded daily in Seattle from 2012 to 2015": one row per day.
@@ -93,7 +93,7 @@ def test_seattle_weather_is_keyed_by_its_date_with_its_own_date_format() -> None
 
 
 def test_airports_are_keyed_by_their_code() -> None:
-    # Dataset: airports.csv shipped (locally) in the `vega_datasets` package (PyPI).
+    # Dataset: airports.csv shipped (locally) in the `vega_datasets` package (from the package index).
     table = drafted(packaged("vega_datasets", "_data", "airports.csv"))
     # Source: vega_datasets/dataset_info.json: "This dataset lists US airports, including airport
     # code, city, state, latitude, and longitude": the code (column iata) identifies an airport.
