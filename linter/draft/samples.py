@@ -3,17 +3,12 @@
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import replace
 
 from linter.check import submitted_files
 from linter.draft.infer import Sample
 from linter.errors import WeirError
 from linter.read import UnreadableFile, read_path
 from linter.table import Table, first_row_header
-
-SEARCH_ROWS = 5_000
-"""Rows the layout search looks at: a table up to this long is searched whole; a longer one by its top
-rows, where its shape shows (a header, titles, wide columns), so the cost stays flat however long."""
 
 
 def read_samples(paths: Sequence[str], tidy: bool = True) -> list[Sample]:
@@ -34,44 +29,22 @@ def read_samples(paths: Sequence[str], tidy: bool = True) -> list[Sample]:
 
 
 def sample_of_table(table: Table, tidy: bool) -> Sample:
-    """The table's body as sent, or as the best lossless recipe reshapes it when it is untidy."""
+    """The table's body as sent, or as the best lossless recipe reshapes it when it is untidy.
+
+    The layout search is the reshape package's own: a long table is searched on its head, its
+    tail and the rows the margin detectors name, and the recipe is then applied and audited on
+    every row (`reshape/search_sample.py`), so the cost stays near one pass over the table.
+    """
     frame = first_row_header(table)
-    label = table.source
     if not tidy:
-        return Sample(frame.body, label)
-    steps = best_steps(table)
-    if not steps:
-        return Sample(frame.body, label)
-    from linter.reshape.apply import apply_recipe
-    from linter.reshape.audit import audit
-    from linter.reshape.recipe import Recipe
-    from linter.reshape.steps import RecipeError, step_from_json
-
-    try:
-        recipe = Recipe.of(step_from_json(s, i) for i, s in enumerate(steps, start=1))
-        reshaped = apply_recipe(table, recipe)
-    except (RecipeError, ValueError, KeyError, IndexError, TypeError):
-        return Sample(frame.body, label)  # the recipe fits the top rows only: draft the file as sent
-    if len(reshaped.tables) != 1 or not audit(table, reshaped, recipe).lossless:
-        return Sample(frame.body, label)
-    output = next(iter(reshaped.tables.values()))
-    return Sample(output, label, tuple(dict(s) for s in steps))
-
-
-def best_steps(table: Table) -> tuple[dict[str, object], ...]:
-    """The steps of the best recipe the layout search finds on the table's top rows."""
-    from linter.reshape.search import search
+        return Sample(frame.body, table.source)
+    from linter.reshape.search_sample import search_large
     from linter.reshape.steps import RecipeError
 
-    top = table
-    if table.grid.shape[0] > SEARCH_ROWS:
-        top = replace(
-            table,
-            grid=table.grid.iloc[:SEARCH_ROWS].reset_index(drop=True),
-            row_numbers=table.row_numbers[:SEARCH_ROWS],
-        )
     try:
-        found = search(top)
+        best = search_large(table).best
     except RecipeError:
-        return ()
-    return tuple(dict(s) for s in found.best.steps)
+        return Sample(frame.body, table.source)  # no header to search from: draft the file as sent
+    if not best.steps or not best.lossless:
+        return Sample(frame.body, table.source)
+    return Sample(best.output, table.source, tuple(dict(s) for s in best.steps))
