@@ -105,8 +105,11 @@ def propose_update(text: str, path: str, contract: Contract, draft: TableDraft) 
             added.append(f"codes {', '.join(new_codes)} of {variable.name}")
     seen = [c for c in draft.missing if c and c not in table.missing]
     if seen:
-        if isinstance(node.get("missing"), list):
-            node["missing"].extend(seen)
+        written = node.get("missing")
+        if isinstance(written, list):
+            written.extend(seen)
+        elif written is not None:  # a single code written without brackets stays first
+            node["missing"] = _flow([written, *seen])
         else:
             node["missing"] = _flow(["", *seen])
         added.append(f"missing-value codes {', '.join(seen)}")

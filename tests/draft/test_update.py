@@ -163,3 +163,15 @@ def test_update_of_a_one_line_variables_mapping_stays_one_line(tmp_path: Path) -
     assert lines[-1].startswith("variables: {site_id: string, ph: number, river: {")
     assert "# what a row is" in lines[2]
     assert run("check", str(sample), "-c", str(contract))[0] == 0
+
+
+def test_a_single_missing_code_written_without_brackets_is_kept(tmp_path: Path) -> None:
+    contract = tmp_path / "t.yaml"
+    contract.write_text(
+        "contract: t\nversion: 1\nobservational_unit: one site\nkeys: [site_id]\n"
+        "variables:\n  site_id: string\n  ph: number\nmissing: NA\n"
+    )
+    sample = tmp_path / "t-1.csv"
+    sample.write_text("site_id,ph\nVB-001,-999\nVB-002,NA\nVB-003,7.2\n")
+    assert run("draft", str(sample), "--update", str(contract), "--write")[0] == 0
+    assert load_contract(str(contract)).tables[0].missing == ("", "NA", "-999")
