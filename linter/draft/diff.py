@@ -126,6 +126,15 @@ def table_changes(old: TableContract, new: TableContract) -> Iterator[Change]:
             new.extra_columns == "error",
             f"Undeclared columns now earn: {new.extra_columns} (was {old.extra_columns}).",
         )
+    if set(old.applies_to) != set(new.applies_to):
+        yield change(
+            "applies_to",
+            "file-names-changed",
+            False,
+            "The contract now governs files named "
+            + (", ".join(new.applies_to) or "as the settings say")
+            + ".",
+        )
     if old.column_order != new.column_order:
         yield change(
             "column_order",

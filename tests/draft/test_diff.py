@@ -111,6 +111,13 @@ PLANTED: list[tuple[str, str, str, bool, str | None]] = [
     ),
     ("extra_columns: warn", "extra_columns: allow", "extra-columns-loosened", False, None),
     ("extra_columns: warn", "extra_columns: warn\ncolumn_order: true", "order-changed", False, None),
+    (
+        'applies_to: ["chemistry*.csv"]',
+        'applies_to: ["chemistry*.csv", "chemistry*.xlsx"]',
+        "file-names-changed",
+        False,
+        None,
+    ),
     # A plain 5 passes both: a new unit changes what every number means, which no check can see.
     ("unit: mg/L", "unit: ug/L", "unit-changed", True, None),
     (', censored_prefix: "<"', "", "censoring-changed", True, HEADER + "VB-001,2026-03-03,NITRATE,<0.05,\n"),
