@@ -119,3 +119,20 @@ def test_a_penguin_the_documentation_does_not_allow_fails_the_draft() -> None:
     findings = json.loads(Path("odd.json").read_text())["tables"][0]["findings"]
     flagged = {tuple(f["place"]["columns"]) for f in findings if f["rule"] == "values.not-in-code-list"}
     assert flagged == {("species",), ("island",)}
+
+
+def test_the_penguins_as_parquet_draft_the_same_types_as_the_csv() -> None:
+    # Dataset: penguins.csv of `palmerpenguins`, written to Parquet by pyarrow (the reference writer):
+    # pandas reads flipper_length_mm as float64 because of its NA cells, yet the documented
+    # "An integer denoting flipper length" must still be drafted as an integer.
+    import pandas as pd
+
+    source = packaged("palmerpenguins", "data", "penguins.csv")
+    from_csv = {v.name: v.type for v in drafted(source).variables}
+    pd.read_csv(source).to_parquet("penguins.parquet")
+    runner = CliRunner()
+    assert runner.invoke(app, ["draft", "penguins.parquet", "--out", "pq.yaml"]).exit_code == 0
+    assert runner.invoke(app, ["check", "penguins.parquet", "-c", "pq.yaml"]).exit_code == 0
+    from_parquet = {v.name: v.type for v in load_contract("pq.yaml").tables[0].variables}
+    assert from_parquet == from_csv
+    assert from_parquet["flipper_length_mm"] is VarType.INTEGER
