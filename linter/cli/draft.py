@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 import sys
 from pathlib import Path
 
@@ -44,6 +45,8 @@ def draft(
     for path in paths:
         if not path.exists():
             raise WeirError(f"no such file or folder: {path}")
+    if name is not None and not re.fullmatch(r"[^.\s]+", name):
+        raise WeirError(f"--name {name!r} may not contain dots or spaces (it is used in table.column)")
     if write and update is None:
         raise WeirError("--write saves the additions of --update; give --update CONTRACT")
     if update is not None and out is not None:

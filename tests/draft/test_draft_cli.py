@@ -43,6 +43,9 @@ def test_bad_arguments_are_one_line(tmp_path: Path) -> None:
     assert one_line_error(*run("draft", str(sample), "--write"))
     assert one_line_error(*run("draft", str(sample), "--out", "a.yaml", "--update", "b.yaml"))
     assert one_line_error(*run("draft", str(sample), "--update", "no-such-contract.yaml"))
+    assert one_line_error(*run("draft", str(sample), "--name", "stream chemistry"))
+    code, output = run("draft", str(sample), "--name", "vell-sites")
+    assert code == 0 and "contract: vell-sites" in output
 
 
 def test_an_existing_contract_or_a_sample_file_is_never_overwritten(tmp_path: Path) -> None:
