@@ -70,6 +70,9 @@ def draft_table(samples: Sequence[Sample], name: str | None = None) -> TableDraf
             f"the samples share no column, so they are not one kind of table ({names}); draft each separately"
         )
     body, absent_from = combined(samples)
+    # A column with neither a name nor a value is a margin, not a variable: it is left out.
+    unnamed_empty = [c for c in body.columns if MADE_UP.search(str(c)) and body[c].isna().all()]
+    body = body.drop(columns=unnamed_empty)
     variables = []
     for label in body.columns:
         variable = draft_variable(str(label), body[label])
@@ -99,7 +102,16 @@ def draft_table(samples: Sequence[Sample], name: str | None = None) -> TableDraf
         rules=bound_rules(body, variables),
         applies_to=file_globs(sources),
         recipes=tuple((s.source, s.recipe) for s in samples if s.recipe),
-        notes=label_notes(body.columns) + padding_notes(variables) + unit_notes(body, keys),
+        notes=(
+            (
+                (f"Left out {', '.join(map(str, unnamed_empty))}: no header and no value in any row.",)
+                if unnamed_empty
+                else ()
+            )
+            + label_notes(body.columns)
+            + padding_notes(variables)
+            + unit_notes(body, keys)
+        ),
     )
 
 

@@ -153,3 +153,14 @@ def test_update_finds_the_table_of_a_bundle_by_its_file_globs(tmp_path: Path) ->
     other = tmp_path / "counties-2026.csv"
     other.write_text("county\nALD\nBRK\n")
     assert one_line_error(*run("draft", str(other), "--update", str(bundle)))
+
+
+def test_a_column_with_no_header_and_no_value_is_left_out_and_said(tmp_path: Path) -> None:
+    sample = tmp_path / "ph-2026.csv"
+    sample.write_text("site_id,,ph\nVB-001,,7.1\nVB-002,,7.3\nVB-003,,6.9\n")
+    code, output = run("draft", str(sample), "--as-sent", "--out", "ph.yaml")
+    assert code == 0, output
+    text = Path("ph.yaml").read_text()
+    assert "# Left out (column B): no header and no value in any row." in text
+    assert load_contract("ph.yaml").tables[0].names == ("site_id", "ph")
+    assert run("check", str(sample), "-c", "ph.yaml")[0] == 0  # the blank column is a warning only
