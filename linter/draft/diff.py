@@ -198,8 +198,10 @@ def variable_changes(table: str, old: Variable, new: Variable) -> Iterator[Chang
         yield change(
             "censoring-changed",
             old.censored_prefix is not None,
-            f"values below a limit are now written {new.censored_prefix or 'not at all'}"
-            f"{'' if new.censored_prefix is None else 'LIMIT'}.",
+            f"a value below the detection limit is now written {new.censored_prefix}LIMIT."
+            if new.censored_prefix is not None
+            else f"a value below the detection limit may no longer be written {old.censored_prefix}LIMIT; "
+            "ask the data manager how to report it.",
         )
     if old.references != new.references:
         yield change(
