@@ -219,8 +219,9 @@ def bound_changes(
 ) -> Iterator[Change]:
     if old == new:
         return
+    old_text, new_text = bound_text(old), bound_text(new)
     if new is None:
-        yield change(f"{key}-removed", False, f"no {key} any more (was {old}).")
+        yield change(f"{key}-removed", False, f"no {key} any more (was {old_text}).")
         return
     if old is None:
         yield change(
@@ -228,12 +229,19 @@ def bound_changes(
         )
         return
     if isinstance(old, str) != isinstance(new, str):
-        yield change(f"{key}-changed", True, f"{key} is now {new} (was {old}).")
+        yield change(f"{key}-changed", True, f"{key} is now {new_text} (was {old_text}).")
         return
     lowered = new < old  # type: ignore[operator]  # both numbers, or both ISO 8601 texts (ordered as text)
     looser = lowered if lower_is_looser else not lowered
     word = "lowered" if lowered else "raised"
-    yield change(f"{key}-{word}", not looser, f"{key} is now {new} (was {old}).")
+    yield change(f"{key}-{word}", not looser, f"{key} is now {new_text} (was {old_text}).")
+
+
+def bound_text(value: float | str | None) -> str:
+    """A bound as people write it: 500, not 500.0."""
+    if isinstance(value, float) and value.is_integer():
+        return str(int(value))
+    return str(value)
 
 
 def set_changes(

@@ -184,7 +184,7 @@ def test_provider_summary_lists_what_to_change_first_and_flags_an_unbumped_versi
     text = provider_summary(old, new, contract_changes(old, new))
     must, may = text.index("What you must change"), text.index("What you may do")
     assert must < may
-    assert "max is now 40.0 (was 100.0)" in text[must:may]
+    assert "max is now 40 (was 100)" in text[must:may]
     assert "CHLORIDE" in text[may:]
     assert "the version is still 2" in text
 
