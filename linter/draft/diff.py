@@ -224,9 +224,8 @@ def bound_changes(
         yield change(f"{key}-removed", False, f"no {key} any more (was {old_text}).")
         return
     if old is None:
-        yield change(
-            f"{key}-added", True, f"values must now be {'at least' if key == 'min' else 'at most'} {new}."
-        )
+        side = "at least" if key == "min" else "at most"
+        yield change(f"{key}-added", True, f"values must now be {side} {new_text}.")
         return
     if isinstance(old, str) != isinstance(new, str):
         yield change(f"{key}-changed", True, f"{key} is now {new_text} (was {old_text}).")
