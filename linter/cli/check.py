@@ -10,6 +10,7 @@ import typer
 from linter.cli.app import app, guarded
 from linter.errors import WeirError
 from linter.findings import Severity
+from linter.limits import Limits
 from linter.output import write_bytes_atomic
 from linter.report.model import Report
 
@@ -99,13 +100,14 @@ def check(
         raise WeirError(f"--export {export}: name a .csv or .xlsx file")
     settings = find_settings(Path.cwd())
     contract_files = list(contract) or (contract_paths(settings) if settings else [])
+    bounds = settings.bounds if settings else Limits()
     contracts = []
     if contract_files:
         from linter.contract.load import load_contract
 
-        contracts = [load_contract(str(p)) for p in contract_files]
+        contracts = [load_contract(str(p), bounds) for p in contract_files]
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
-    result = check_paths([str(p) for p in paths], contracts, threshold)
+    result = check_paths([str(p) for p in paths], contracts, threshold, bounds)
     if redact or examples is not None:
         result = redacted(result, hide_values=redact, examples=examples)
     console_report.render(result, Console(), verbose=verbose)

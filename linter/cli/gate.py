@@ -30,6 +30,7 @@ def gate(
     from linter.gate.governance import load_governance
     from linter.gate.inbox import Gate, new_owner, run_pass
     from linter.gate.ledger import SqliteLedger
+    from linter.limits import Limits
     from linter.report.model import Report
 
     if not inbox.is_dir():
@@ -40,9 +41,10 @@ def gate(
         raise WeirError("no contract: name one with --contract or list them in weir.toml")
     layout = settings.inbox if settings else InboxLayout()
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
+    bounds = settings.bounds if settings else Limits()
 
     def check(path: Path) -> Report:
-        return check_paths([str(path)], list(governance.for_file(str(path), inbox)), threshold)
+        return check_paths([str(path)], list(governance.for_file(str(path), inbox)), threshold, bounds)
 
     ledger = SqliteLedger(inbox / layout.ledger)
     try:
