@@ -262,9 +262,9 @@ def search(table: Table, contract: TableContract | None = None, *, keep_empty: b
     unique: dict[int, Candidate] = {}
     for c in seen.values():
         if c.lossless:
-            key = _fingerprint(c.output)
-            if key not in unique or c.score > unique[key].score:
-                unique[key] = c
+            fingerprint = _fingerprint(c.output)
+            if fingerprint not in unique or c.score > unique[fingerprint].score:
+                unique[fingerprint] = c
     ranked = sorted(unique.values(), key=lambda c: -c.score)
     best = ranked[0] if ranked else start[0]
     renames = contract_names(best.output, contract)

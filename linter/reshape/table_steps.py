@@ -8,11 +8,12 @@ from dataclasses import dataclass, replace
 import numpy as np
 import pandas as pd
 
-from linter.reshape.sheet import NO_ORIGIN, Sheet, as_header
+from linter.reshape.sheet import NO_ORIGIN, Carried, Sheet, as_header
 from linter.reshape.steps import Outcome, RecipeError, StepParams, register_sheet_step
 
-EMPTY_HEADER = "header of empty cells"
-"""Drop reason for the header of a gathered column whose cells were all empty (keep_empty off)."""
+EMPTY_HEADER = "header with no values"
+"""Drop reason for the header of a gathered column that leaves no row: its cells were all
+empty and empty values were dropped, or the table has no body rows at all."""
 
 
 def _need_columns(sheet: Sheet, columns: tuple[str, ...] | list[str]) -> None:
@@ -39,6 +40,12 @@ def _compile(pattern: str) -> re.Pattern[str]:
 
 def _header(sheet: Sheet) -> dict[str, tuple[int, ...]]:
     return dict(sheet.header or {})
+
+
+def _text(values: np.ndarray) -> pd.Series:
+    """A column of text/None kept as object dtype (pandas would infer its string dtype, slowly,
+    and turn None into NaN)."""
+    return pd.Series(values, dtype=object)
 
 
 def _empty(values: pd.Series) -> np.ndarray:
@@ -106,19 +113,18 @@ def gather(p: Gather, sheet: Sheet) -> Outcome:
     origin = sheet.origin[ids].iloc[take].reset_index(drop=True)
     names = np.tile(np.asarray(p.columns, dtype=object), n)
     name_codes = np.tile(np.asarray([(header.get(c) or (NO_ORIGIN,))[-1] for c in p.columns]), n)
-    cells[p.names_to] = names
+    cells[p.names_to] = _text(names)
     origin[p.names_to] = as_header(name_codes)
-    cells[p.values_to] = sheet.cells[list(p.columns)].to_numpy(dtype=object).ravel()
+    cells[p.values_to] = _text(sheet.cells[list(p.columns)].to_numpy(dtype=object).ravel())
     origin[p.values_to] = sheet.origin[list(p.columns)].to_numpy().ravel()
     rows = sheet.rows[take]
-    dropped: tuple[tuple[tuple[int, ...], str], ...] = ()
-    if not p.keep_empty:
-        keep = ~_empty(cells[p.values_to])
-        # a gathered column whose every cell was empty leaves no row: its header goes on purpose
-        gone = [c for c in p.columns if not keep[names == c].any()]
-        dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
-        cells, origin, rows = cells[keep], origin[keep], rows[keep]
-    carried = tuple((c, name) for name in p.columns for c in (header.get(name) or ())[:-1])
+    keep = ~_empty(cells[p.values_to]) if not p.keep_empty else np.ones(len(cells), dtype=bool)
+    # a gathered column that leaves no row takes its header with it, on purpose
+    left = set(names[keep].tolist()) if not keep.all() else set(p.columns)
+    gone = [c for c in p.columns if c not in left]
+    dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
+    cells, origin, rows = cells[keep], origin[keep], rows[keep]
+    carried = (Carried.of([(c, name) for name in p.columns for c in (header.get(name) or ())[:-1]]),)
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: (), p.values_to: ()}
     made = replace(sheet.with_frames(cells, origin, rows), header=new_header)
     return Outcome(made, dropped=dropped, carried=carried)
@@ -185,7 +191,7 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
     for g in group_ids:
         codes = [(header.get(column_of[(g, m)]) or (NO_ORIGIN,))[-1] for m in members if (g, m) in column_of]
         id_codes.append(codes[0] if codes else NO_ORIGIN)
-    cells[p.names_to] = np.tile(np.asarray(group_ids, dtype=object), n)
+    cells[p.names_to] = _text(np.tile(np.asarray(group_ids, dtype=object), n))
     origin[p.names_to] = as_header(np.tile(np.asarray(id_codes, dtype=np.int64), n))
     blank = np.full(n, None, dtype=object)
     no_origin = np.full(n, NO_ORIGIN, dtype=np.int64)
@@ -198,17 +204,19 @@ def gather_groups(p: GatherGroups, sheet: Sheet) -> Outcome:
             sheet.origin[column_of[(g, member)]].to_numpy() if (g, member) in column_of else no_origin
             for g in group_ids
         ]
-        cells[member] = np.column_stack(stacked_cells).ravel()
+        cells[member] = _text(np.column_stack(stacked_cells).ravel())
         origin[member] = np.column_stack(stacked_codes).ravel()
     rows = sheet.rows[take]
-    dropped: tuple[tuple[tuple[int, ...], str], ...] = ()
+    keep = np.ones(len(cells), dtype=bool)
     if not p.keep_empty:
         keep = ~np.logical_and.reduce([_empty(cells[m]) for m in members])
-        group_of = cells[p.names_to].to_numpy()
-        gone = [c for c, m in matched.items() if not keep[group_of == m.group(id_group)].any()]
-        dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
-        cells, origin, rows = cells[keep], origin[keep], rows[keep]
-    carried = tuple((c, m.group(id_group)) for col, m in matched.items() for c in header.get(col, ()))
+    group_of = cells[p.names_to].to_numpy()
+    gone = [c for c, m in matched.items() if not keep[group_of == m.group(id_group)].any()]
+    dropped = ((tuple(x for c in gone for x in header.get(c, ())), EMPTY_HEADER),)
+    cells, origin, rows = cells[keep], origin[keep], rows[keep]
+    carried = (
+        Carried.of([(c, m.group(id_group)) for col, m in matched.items() for c in header.get(col, ())]),
+    )
     new_header = {c: header.get(c, ()) for c in ids} | {p.names_to: ()}
     for member in members:
         new_header[member] = tuple(
@@ -234,10 +242,13 @@ def _spread_code(p: Spread) -> list[str]:
     return [
         f"ids = [c for c in df.columns if c not in ({n}, {v})]",
         "df = df.assign(_row=df.groupby(ids, dropna=False, sort=False).ngroup() if ids else 0)",
-        f"df = df.drop_duplicates(['_row', {n}]).dropna(subset=[{n}])",
-        f"wide = df.pivot(index='_row', columns={n}, values={v})[list(df[{n}].unique())]",
-        "df = df.drop_duplicates('_row').set_index('_row')[ids].join(wide).reset_index(drop=True)",
-        "df = df.astype(object).where(df.notna(), None)",
+        "first = df.drop_duplicates('_row')  # a group's first row keeps its row number",
+        f"named = df.dropna(subset=[{n}]).drop_duplicates(['_row', {n}])  # a second value is lost",
+        f"wide = named.pivot(index='_row', columns={n}, values={v})",
+        f"wide = wide.reindex(columns=list(named[{n}].unique()))",
+        "out = first.set_index('_row')[ids].join(wide)",
+        "out.index = first.index",
+        "df = out.astype(object).where(out.notna(), None)",
         "df.columns.name = None",
     ]
 
@@ -271,12 +282,12 @@ def spread(p: Spread, sheet: Sheet) -> Outcome:
     cells = sheet.cells[ids].iloc[first].reset_index(drop=True)
     origin = sheet.origin[ids].iloc[first].reset_index(drop=True)
     for j, name in enumerate(names):
-        cells[name] = wide[:, j]
+        cells[name] = _text(wide[:, j])
         origin[name] = wide_codes[:, j]
     name_codes = sheet.origin[p.names_from].to_numpy()
     new_header = {c: header.get(c, ()) for c in ids}
     for j, name in enumerate(names):
-        new_header[name] = tuple(int(c) for c in name_codes[named & (name_index == j)] if c >= 0)
+        new_header[name] = tuple(name_codes[named & (name_index == j) & (name_codes >= 0)].tolist())
     labels = tuple(header.get(p.names_from, ()) + header.get(p.values_from, ()))
     notes: list[tuple[str, str, tuple[int, ...]]] = []
     if clash.any():
@@ -296,9 +307,7 @@ def spread(p: Spread, sheet: Sheet) -> Outcome:
     later[first] = False
     id_texts = sheet.cells[ids].to_numpy(dtype=object)[later]
     id_codes = sheet.origin[ids].to_numpy()[later]
-    carried = tuple(
-        (int(c), str(t)) for c, t in zip(id_codes.ravel(), id_texts.ravel(), strict=True) if c >= 0 and t
-    )
+    carried = (Carried(id_codes.ravel().astype(np.int64), id_texts.ravel()),)
     made = replace(sheet.with_frames(cells, origin, sheet.rows[first]), header=new_header)
     return Outcome(made, dropped=((labels, "layout label"),), notes=tuple(notes), carried=carried)
 

@@ -16,8 +16,9 @@ from linter.output import write_text_atomic
 from linter.reshape.apply import apply_recipe, output_name
 from linter.reshape.audit import Audit, audit
 from linter.reshape.recipe import Recipe, load_recipe
-from linter.reshape.search import Candidate, search
-from linter.reshape.steps import RecipeError, step_from_json
+from linter.reshape.search import Candidate
+from linter.reshape.search_sample import search_large
+from linter.reshape.steps import RecipeError, StepParams, step_from_json
 from linter.table import Table
 
 
@@ -37,7 +38,7 @@ class TidyResult:
 def _without_empty_rows(recipe: Recipe, keep_empty: bool) -> Recipe:
     if keep_empty:
         return recipe
-    steps = []
+    steps: list[StepParams] = []
     for step in recipe.steps:
         data = step.to_json()
         if "keep_empty" in data:
@@ -56,7 +57,7 @@ def tidy_one(
             raise RecipeError("this recipe makes several tables; weir tidy writes one per input table")
         name, output = next(iter(reshaped.tables.items()))
         return TidyResult(table, name, output, recipe.to_json(), audit(table, reshaped, recipe))
-    found = search(table, contract, keep_empty=keep_empty)
+    found = search_large(table, contract, keep_empty=keep_empty)
     recipe = Recipe.of(step_from_json(s, i) for i, s in enumerate(found.best.steps, start=1))
     reshaped = apply_recipe(table, recipe)
     checked = audit(table, reshaped, recipe)

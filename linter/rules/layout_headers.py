@@ -12,15 +12,17 @@ from linter.rules.layout_signals import (
     blank,
     cell_kind,
     dominant_kind,
+    frame_of,
     header_value_kind,
     is_number,
     sample,
     shared_stem,
+    sideways_by_names,
     slug,
 )
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
-from linter.table import Frame, Table, first_row_header
+from linter.table import Frame, Table
 
 VALUES_IN_HEADERS = define_rule(
     "layout.values-in-headers",
@@ -120,7 +122,9 @@ def _levels(contract: TableContract | None) -> dict[str, str]:
 
 def _measured(contract: TableContract | None, present: set[str], names_to: str) -> str | None:
     """The declared number-like variable the gathered cells most likely hold."""
-    for variable in contract.variables if contract else ():
+    if contract is None:
+        return None
+    for variable in contract.variables:
         if variable.name in present or variable.name == names_to or variable.name in contract.keys:
             continue
         if variable.type in (VarType.NUMBER, VarType.INTEGER):
@@ -225,14 +229,15 @@ def _code_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
 
 
 def find_values_in_headers(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     if not frame.labels:
         return []
     grouped = {c for found in find_repeated_groups(table) for c in found.place.columns}
     runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
     taken = grouped | {c for r, _ in runs for c in r}
-    runs += _code_runs(frame, taken)
-    runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
+    if not sideways_by_names(table):  # ids across the top of a sideways table are observations
+        runs += _code_runs(frame, taken)
+        runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []
     present = set(frame.labels)
     for run, kind in runs:
@@ -242,8 +247,13 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
         values_to = _measured(contract, present, names_to) or (
             "count" if _all_counts(frame, run) else "value"
         )
-        step = {"step": "gather", "columns": run, "names_to": names_to, "values_to": values_to}
-        step["keep_empty"] = True
+        step: dict[str, object] = {
+            "step": "gather",
+            "columns": run,
+            "names_to": names_to,
+            "values_to": values_to,
+            "keep_empty": True,
+        }
         findings.append(
             layout_finding(
                 VALUES_IN_HEADERS,
@@ -268,11 +278,11 @@ def _all_counts(frame: Frame, run: list[str]) -> bool:
 
 
 GROUP_ID_FIRST = re.compile(r"^(?P<stem>.*?\D)?(?P<id>\d+)(?P<sep>[ _.:-]+)(?P<member>[^\d\s].*)$")
-GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]+)(?P<id>\d+)$")
+GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]*)(?P<id>\d+)$")
 
 
 def find_repeated_groups(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     shapes: dict[tuple[str, str, str], list[tuple[str, str, str]]] = {}
     for label in frame.labels:
         first, last = GROUP_ID_FIRST.match(label), GROUP_ID_LAST.match(label)
@@ -383,7 +393,7 @@ def find_no_header(table: Table, contract: TableContract | None = None) -> list[
     grid = table.grid
     if grid.shape[0] < 3 or not table.header_given:
         return []
-    frame = first_row_header(table)
+    frame = frame_of(table)
     first = grid.iloc[0].tolist()
     if all(header_value_kind(str(v)) == "year" for v in first) or not _looks_like_data(first, frame):
         return []

@@ -6,16 +6,26 @@ import itertools
 import re
 from collections.abc import Iterable
 
+import numpy as np
 import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL
 from linter.rules.layout_place import frame_letters, layout_finding, shown
-from linter.rules.layout_signals import blank, cell_kind, dominant_kind, filled_positions, sample
+from linter.rules.layout_signals import (
+    blank,
+    cell_kind,
+    dominant_kind,
+    filled_mask,
+    frame_of,
+    row_fill,
+    sample,
+    sideways_by_names,
+)
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
-from linter.table import Table, first_row_header
+from linter.table import Table
 
 VARIABLES_IN_ROWS = define_rule(
     "layout.variables-in-rows",
@@ -102,6 +112,10 @@ SAME_AS_ABOVE = define_rule(
     """,
 )
 
+MAX_VARIABLES = 500
+"""More rows than this and a table is not a sideways one."""
+SAMPLE_BLOCK = 5000
+"""Rows looked at by the variables-in-rows detector (the first ones, so row groups stay whole)."""
 PAIRED = re.compile(
     r"(^|[_ .-])(min|max|lo|hi|low|high|mean|start|end|first|last)($|[_ .-])|^t?(min|max)", re.I
 )
@@ -127,13 +141,37 @@ def _holds_values(
         len(declared & set(levels)) >= 2
         or len(by_kind) >= 2
         or sum(bool(PAIRED.search(level)) for level in levels) >= 2
+        or (
+            not any(UNIT_NAME.match(c) for c in others)
+            and (_scales_differ(body, names, levels, values_col) or bool(GENERIC_NAMES.match(names_col)))
+        )
     )
 
 
+GENERIC_NAMES = re.compile(
+    r"^(measure|measurement|variable|var|field|attribute|property|key|element|type|quantity|metric)s?$", re.I
+)
+"""Headers that say "this column names variables" (an analyte or a taxon column is a key, not this)."""
+UNIT_NAME = re.compile(r"^(units?|uom|unit_of_measure)$", re.I)
+SCALE_GAP = 1000.0
+"""Median magnitudes this far apart mean the names are different quantities (cases vs population)."""
+
+
+def _scales_differ(body: pd.DataFrame, names: pd.Series, levels: list[str], values_col: str) -> bool:
+    medians = []
+    for level in levels:
+        numbers = pd.to_numeric(body.loc[names == level, values_col], errors="coerce").abs().dropna()
+        if numbers.empty:
+            return False
+        medians.append(float(numbers.median()))
+    low, high = min(medians), max(medians)
+    return low > 0 and high / low >= SCALE_GAP
+
+
 def find_variables_in_rows(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     labels = list(frame.labels)
-    body = frame.body.iloc[[i for i in range(0, len(frame.body), max(1, len(frame.body) // 5000))]]
+    body = frame.body.iloc[:SAMPLE_BLOCK]  # a contiguous block: row groups must stay whole
     if len(labels) < 3 or len(body) < 4:
         return []
     declared = set(contract.names) if contract else set()
@@ -175,8 +213,8 @@ def find_variables_in_rows(table: Table, contract: TableContract | None = None) 
 
 def find_transposed(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
-    if grid.shape[0] < 3 or grid.shape[1] < 3 or grid.shape[1] > 5000:
-        return []
+    if not 3 <= grid.shape[0] <= MAX_VARIABLES or grid.shape[1] < 3:
+        return []  # a sideways table has one row per variable: a few, not thousands
     firsts = grid.iloc[1:, 0].tolist()
     if any(blank(v) for v in firsts) or len(set(firsts)) != len(firsts):
         return []
@@ -192,7 +230,7 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
     column_shares = [dominant_kind(grid.iloc[1:, j].tolist())[1] for j in range(1, grid.shape[1])]
     mixed = len(set(row_kinds) - {"empty"}) >= 2 and max(column_shares) < 0.85
     named = len(declared & {str(v) for v in firsts}) >= 2 and len(declared & set(map(str, grid.iloc[0]))) < 2
-    if not (mixed or named):
+    if not (mixed or named or sideways_by_names(table)):
         return []
     return [
         layout_finding(
@@ -215,17 +253,16 @@ def find_section_titles(table: Table, contract: TableContract | None = None) -> 
     grid = table.grid
     if grid.shape[0] < 4 or grid.shape[1] < 3:
         return []
-    filled = [filled_positions(row) for row in grid.itertuples(index=False, name=None)]
-    wide = [i for i, f in enumerate(filled) if len(f) >= 2]
-    if not wide or wide[0] != 0:
+    counts, first_cell = row_fill(grid)
+    wide = np.flatnonzero(counts >= 2)
+    if not wide.size or wide[0] != 0:
         return []
-    last = wide[-1]
+    last = int(wide[-1])
+    lone = [int(i) for i in np.flatnonzero((counts == 1) & (first_cell == 0)) if 0 < i < last]
     titles = [
         i
-        for i in range(1, last)
-        if filled[i] == [0]
-        and not TOTAL_LABEL.match(str(grid.iat[i, 0]))
-        and not NOTE_LABEL.match(str(grid.iat[i, 0]))
+        for i in lone
+        if not TOTAL_LABEL.match(str(grid.iat[i, 0])) and not NOTE_LABEL.match(str(grid.iat[i, 0]))
     ]
     if not titles or titles[0] != 1 or any(b - a < 2 for a, b in itertools.pairwise(titles)):
         return []
@@ -251,26 +288,39 @@ def find_section_titles(table: Table, contract: TableContract | None = None) -> 
     ]
 
 
+def _nested(body: pd.DataFrame, left: list[str], chosen: list[str], empty_rows: list[int]) -> bool:
+    """A "same as above" blank sits inside its group: every column to its left repeats the row above."""
+    if not left:
+        return True
+    view = body[left].copy()
+    if chosen:
+        view[chosen] = view[chosen].ffill()
+    rows = [i for i in empty_rows[:500] if i > 0]
+    return all(view.iloc[i].tolist() == view.iloc[i - 1].tolist() for i in rows)
+
+
 def find_same_as_above(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     body = frame.body
     if len(body) < 3 or len(frame.labels) < 2:
         return []
     chosen: list[str] = []
-    for label in frame.labels[:3]:
-        column = body[label].tolist()
-        kind = dominant_kind(sample(column))[0]
-        if kind == "number" and not chosen:
+    filled = filled_mask(table.grid)[1:]
+    for position, label in enumerate(frame.labels[:3]):
+        present = filled[:, position]
+        empties = int((~present).sum())
+        if not present[0] or empties < len(present) / 4 or present.sum() < 2:
+            continue
+        values = body[label][present]
+        if dominant_kind(sample(values))[0] == "number":
             break
-        empties = sum(blank(v) for v in column)
-        values = [v for v in column if not blank(v)]
-        if blank(column[0]) or empties < len(column) / 4 or len(values) < 2:
-            continue
-        if len(set(values)) != len(values):
-            continue
-        rest = body.drop(columns=[label])
-        empty_rows = [i for i, v in enumerate(column) if blank(v)]
-        if any(rest.iloc[i].isna().all() for i in empty_rows[:200]):
+        if body[[*frame.labels[:position], label]][present].duplicated().any():
+            continue  # a label written once per group appears once within its enclosing group
+        empty_rows = [int(i) for i in np.flatnonzero(~present)]
+        others = np.delete(filled, position, axis=1)
+        if not others[empty_rows[:500]].any(axis=1).all():
+            continue  # a blank row is not a "same as above" row
+        if not _nested(body, list(frame.labels[:position]), chosen, empty_rows):
             continue
         chosen.append(label)
     if not chosen:
