@@ -27,10 +27,10 @@ def gate(
     from linter.check import check_paths
     from linter.config import InboxLayout, find_settings
     from linter.gate.answer import guarded as answering
+    from linter.gate.companions import check_in_bundle
     from linter.gate.governance import load_governance
     from linter.gate.inbox import Gate, new_owner, run_pass
     from linter.gate.ledger import SqliteLedger
-    from linter.limits import Limits
     from linter.report.model import Report
 
     if not inbox.is_dir():
@@ -41,10 +41,13 @@ def gate(
         raise WeirError("no contract: name one with --contract or list them in weir.toml")
     layout = settings.inbox if settings else InboxLayout()
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
-    bounds = settings.bounds if settings else Limits()
 
     def check(path: Path) -> Report:
-        return check_paths([str(path)], list(governance.for_file(str(path), inbox)), threshold, bounds)
+        if settings is not None and settings.bundles:
+            return check_in_bundle(path, inbox, layout, settings, governance, threshold)
+        return check_paths(
+            [str(path)], list(governance.for_file(str(path), inbox)), threshold, governance.limits
+        )
 
     ledger = SqliteLedger(inbox / layout.ledger)
     try:

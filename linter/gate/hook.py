@@ -64,7 +64,7 @@ def check_data_files(options: argparse.Namespace) -> int:
     fail_on = (
         Severity(options.fail_on) if options.fail_on else (settings.fail_on if settings else Severity.ERROR)
     )
-    checked = check_groups(split_safe_groups(options.files, governance), fail_on)
+    checked = check_groups(split_safe_groups(options.files, governance), fail_on, governance.limits)
     if options.report_dir:
         for group, report in checked:
             write_text_atomic(Path(options.report_dir) / report_name(group.name), json_report.render(report))
