@@ -47,7 +47,9 @@ def workbook(fill: Callable[[object], None], macro: bool = False) -> bytes:
     if macro:
         # Source: ECMA-376 Part 2 / [MS-OFFMACRO2]: a macro-enabled workbook carries
         # xl/vbaProject.bin; Weir must never run it (openpyxl does not even parse it).
-        members["xl/vbaProject.bin"] = b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1" + b"Attribute VB_Name = \"Auto_Open\"\n"
+        members["xl/vbaProject.bin"] = (
+            b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1" + b'Attribute VB_Name = "Auto_Open"\n'
+        )
     return zipped(members)
 
 
@@ -77,7 +79,11 @@ def hidden_and_merged(book: object) -> None:
     sheet = book.active  # type: ignore[attr-defined]
     sheet.append(["Vell Basin Water Network - March 2026"])
     sheet.merge_cells("A1:C1")
-    for row in (["site_id", "sampled_on", "result"], ["VB-014", "2026-03-02", 4.2], ["VB-015", "2026-03-02", 3.9]):
+    for row in (
+        ["site_id", "sampled_on", "result"],
+        ["VB-014", "2026-03-02", 4.2],
+        ["VB-015", "2026-03-02", 3.9],
+    ):
         sheet.append(row)
     sheet.row_dimensions[4].hidden = True
     book.create_sheet("scratch").sheet_state = "hidden"  # type: ignore[attr-defined]
@@ -93,7 +99,9 @@ def xml_entities_sheet() -> bytes:
     base = workbook(rows_sheet([["site_id"], ["VB-014"]]))
     with zipfile.ZipFile(io.BytesIO(base)) as archive:
         members = {n: archive.read(n) for n in archive.namelist()}
-    entities = '<!ENTITY a0 "lol">' + "".join(f'<!ENTITY a{i} "{("&a" + str(i - 1) + ";") * 10}">' for i in range(1, 10))
+    entities = '<!ENTITY a0 "lol">' + "".join(
+        f'<!ENTITY a{i} "{("&a" + str(i - 1) + ";") * 10}">' for i in range(1, 10)
+    )
     sheet = members["xl/worksheets/sheet1.xml"].decode("utf-8")
     head, _, rest = sheet.partition("?>")
     members["xl/worksheets/sheet1.xml"] = f"{head}?><!DOCTYPE worksheet [{entities}]>{rest}".replace(
@@ -164,7 +172,8 @@ def corpus() -> dict[str, bytes]:
         "utf16le-no-bom.csv": GOOD.encode("utf-16-le"),
         "utf32le-bom.csv": GOOD.encode("utf-32"),
         "windows-1252.csv": "site_id,note\nVB-014,Trübung – hoch\nVB-015,€ 12\n".encode("cp1252"),
-        "mixed-encodings.csv": "site_id,note\nVB-014,Trübung\n".encode() + "VB-015,Trübung\n".encode("cp1252"),
+        "mixed-encodings.csv": "site_id,note\nVB-014,Trübung\n".encode()
+        + "VB-015,Trübung\n".encode("cp1252"),
         "nul-bytes.csv": b"site_id,result\nVB-014,4\x002\nVB-015,3.9\n",
         "cr-only.csv": GOOD.replace("\n", "\r").encode(),
         "mixed-line-ends.csv": b"site_id,result\r\nVB-014,4.2\nVB-015,3.9\rVB-016,1.0\r\n",
@@ -188,7 +197,9 @@ def corpus() -> dict[str, bytes]:
         "header-only.csv": b"site_id,sampled_on,result\n",
         "only-delimiters.csv": b",,,\n,,,\n,,,\n",
         "formula-injection.csv": b'site_id,note\nVB-014,=HYPERLINK("http://example.invalid","x")\nVB-015,@SUM(1+1)\n',
-        "ten-thousand-columns.csv": (",".join(f"c{i}" for i in range(10_000)) + "\n" + ",".join("1" * 10_000) + "\n").encode(),
+        "ten-thousand-columns.csv": (
+            ",".join(f"c{i}" for i in range(10_000)) + "\n" + ",".join("1" * 10_000) + "\n"
+        ).encode(),
         "too-many-columns.csv": (",".join("x" * 20_000) + "\n").encode(),
         "long-line.csv": b"site_id,note\nVB-014," + b"x" * 3000 + b"\n",
         "long-cell.csv": b'site_id,note\nVB-014,"' + b"y" * 500 + b'"\n',
@@ -211,8 +222,12 @@ def corpus() -> dict[str, bytes]:
         "billion-laughs.yaml": laughs(),
         "python-object-tag.yaml": b"contract: !!python/object/apply:os.system ['echo hacked']\nversion: 1\n",
         "custom-tag.yaml": b"contract: x\nversion: !include secrets.yaml\n",
-        "code-list-escape.yaml": (CONTRACT + "  analyte: {type: category, codes: ../../../../etc/passwd}\n").encode(),
-        "code-list-absolute.yaml": (CONTRACT + "  analyte: {type: category, codes: /etc/hostname}\n").encode(),
+        "code-list-escape.yaml": (
+            CONTRACT + "  analyte: {type: category, codes: ../../../../etc/passwd}\n"
+        ).encode(),
+        "code-list-absolute.yaml": (
+            CONTRACT + "  analyte: {type: category, codes: /etc/hostname}\n"
+        ).encode(),
         "deep-nesting.yaml": nested_yaml(500),
         "contract-not-utf8.yaml": CONTRACT.replace("one sample", "ein Probenahmeort für").encode("cp1252"),
         "contract-binary.yaml": bytes(range(256)),
