@@ -9,6 +9,8 @@ All content is invented (the Vell Basin Water Network scenario).
 from __future__ import annotations
 
 import io
+import random
+import re
 import struct
 import sys
 import zipfile
@@ -44,6 +46,10 @@ def workbook(fill: Callable[[object], None], macro: bool = False) -> bytes:
     book.save(raw)
     with zipfile.ZipFile(io.BytesIO(raw.getvalue())) as archive:
         members = {n: archive.read(n) for n in archive.namelist()}
+    # openpyxl stamps the save time into the core properties; pin it so rebuilds match.
+    members["docProps/core.xml"] = re.sub(
+        rb"(<dcterms:modified[^>]*>)[^<]*", rb"\g<1>2026-03-01T00:00:00Z", members["docProps/core.xml"]
+    )
     if macro:
         # Source: ECMA-376 Part 2 / [MS-OFFMACRO2]: a macro-enabled workbook carries
         # xl/vbaProject.bin; Weir must never run it (openpyxl does not even parse it).
@@ -161,6 +167,8 @@ CONTRACT = (
 def corpus() -> dict[str, bytes]:
     """File name -> bytes, for every case in the manifest."""
     zeros = bytes(8 << 20)
+    rnd = random.Random(7)  # fixed seed: high bytes with commas, no encoding can read them as text
+    noise = bytes(rnd.choice([*range(0x80, 0x100), *[0x2C] * 10]) for _ in range(2000))
     return {
         # --- bytes and encodings ---
         "empty.csv": b"",
@@ -192,11 +200,15 @@ def corpus() -> dict[str, bytes]:
         "parquet-renamed.csv": parquet_bytes(),
         # --- delimited text that fights the parser ---
         "unclosed-quote.csv": b'site_id,note\nVB-014,"never closed\nVB-015,ok\n',
-        "ragged-rows.csv": b"site_id,sampled_on,result\nVB-014,2026-03-02\nVB-015,2026-03-02,3.9,extra,more\n",
+        "ragged-rows.csv": b"site_id,sampled_on,result\nVB-014,2026-03-02\nVB-015,2026-03-02,3.9,extra,x\n",
         "duplicate-headers.csv": b"site_id,result,result\nVB-014,4.2,4.3\n",
         "header-only.csv": b"site_id,sampled_on,result\n",
         "only-delimiters.csv": b",,,\n,,,\n,,,\n",
-        "formula-injection.csv": b'site_id,note\nVB-014,=HYPERLINK("http://example.invalid","x")\nVB-015,@SUM(1+1)\n',
+        "formula-injection.csv": b'site_id,note\nVB-014,"=HYPERLINK(""http://example.invalid"",""x"")"\n'
+        b"VB-015,@SUM(1+1)\nVB-016,+cmd|' /C calc'!A0\n",
+        "high-byte-noise.csv": b"site_id,note\n" + noise + b"\n",
+        "-leading-dash.csv": GOOD.encode(),
+        "space and ünïcode name.csv": GOOD.encode(),
         "ten-thousand-columns.csv": (
             ",".join(f"c{i}" for i in range(10_000)) + "\n" + ",".join("1" * 10_000) + "\n"
         ).encode(),
