@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import difflib
 from collections.abc import Mapping
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field, fields, replace
 
 from linter.contract import yaml_tree
 from linter.errors import WeirError
@@ -31,20 +31,14 @@ class Limits:
 
 DEFAULT = Limits()
 
-READ_KEYS = {
-    "file_bytes": "max_file_bytes",
-    "line_chars": "max_line_chars",
-    "cell_chars": "max_cell_chars",
-    "columns": "max_columns",
-    "rows": "max_rows",
-    "cells": "max_cells",
-    "uncompressed_bytes": "max_uncompressed_bytes",
-    "compression_ratio": "max_compression_ratio",
-    "sheets": "max_sheets",
-    "full_workbook_bytes": "full_workbook_bytes",
+READ_KEYS = tuple(f.name for f in fields(ReadLimits))
+"""Settings keys that are ReadLimits fields, named as there (`max_rows`, `max_cell_chars`...)."""
+OTHER_KEYS = {
+    "max_contract_bytes": "contract_bytes",
+    "max_contract_nodes": "contract_nodes",
+    "max_folder_depth": "folder_depth",
+    "max_seconds_per_file": "seconds_per_file",
 }
-"""Settings key -> ReadLimits field (the settings names drop the `max_` prefix)."""
-OTHER_KEYS = ("contract_bytes", "contract_nodes", "folder_depth", "seconds_per_file")
 KNOWN = (*READ_KEYS, *OTHER_KEYS)
 
 
@@ -62,12 +56,10 @@ def parse_limits(table: Mapping[str, object], source: str = "settings") -> Limit
         close = difflib.get_close_matches(key, KNOWN, n=1)
         hint = f"; did you mean {close[0]!r}?" if close else f" (known: {', '.join(KNOWN)})"
         raise WeirError(f"{source} [limits]: unknown limit {key!r}{hint}")
-    read_changes = {
-        READ_KEYS[k]: positive_number(v, k, source, whole=True) for k, v in table.items() if k in READ_KEYS
-    }
+    read_changes = {k: positive_number(v, k, source, whole=True) for k, v in table.items() if k in READ_KEYS}
     other = {
-        k: positive_number(table[k], k, source, whole=k != "seconds_per_file")
-        for k in OTHER_KEYS
+        name: positive_number(table[k], k, source, whole=k != "max_seconds_per_file")
+        for k, name in OTHER_KEYS.items()
         if k in table
     }
     return replace(DEFAULT, read=replace(ReadLimits(), **read_changes), **other)  # type: ignore[arg-type]
@@ -75,6 +67,6 @@ def parse_limits(table: Mapping[str, object], source: str = "settings") -> Limit
 
 def describe_defaults() -> list[tuple[str, str]]:
     """(settings key, default) for every limit, in the order the README lists them."""
-    rows = [(key, getattr(DEFAULT.read, name)) for key, name in READ_KEYS.items()]
-    rows += [(key, getattr(DEFAULT, key)) for key in OTHER_KEYS]
+    rows = [(key, getattr(DEFAULT.read, key)) for key in READ_KEYS]
+    rows += [(key, getattr(DEFAULT, name)) for key, name in OTHER_KEYS.items()]
     return [(key, f"{value:,}" if isinstance(value, int) else f"{value:g}") for key, value in rows]

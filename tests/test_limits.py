@@ -46,17 +46,17 @@ def test_every_settings_key_changes_its_bound() -> None:
 def test_defaults_listed_for_the_readme() -> None:
     listed = dict(describe_defaults())
     # From memory of Excel's published specifications and limits: 16,384 columns per sheet.
-    assert listed["columns"] == f"{MAX_COLUMNS:,}" == "16,384"
-    assert listed["seconds_per_file"] == "300"
+    assert listed["max_columns"] == f"{MAX_COLUMNS:,}" == "16,384"
+    assert listed["max_seconds_per_file"] == "300"
 
 
 @pytest.mark.parametrize(
     ("table", "said"),
     [
-        ({"colums": 5}, "did you mean 'columns'"),
-        ({"rows": -1}, "'rows' must be a number >= 0"),
-        ({"rows": 2.5}, "whole number"),
-        ({"rows": True}, "must be a number"),
+        ({"max_colums": 5}, "did you mean 'max_columns'"),
+        ({"max_rows": -1}, "'max_rows' must be a number >= 0"),
+        ({"max_rows": 2.5}, "whole number"),
+        ({"max_rows": True}, "must be a number"),
     ],
 )
 def test_bad_limits_are_one_line_errors(table: dict[str, object], said: str) -> None:
@@ -65,19 +65,19 @@ def test_bad_limits_are_one_line_errors(table: dict[str, object], said: str) -> 
 
 
 def test_misspelt_limit_in_weir_toml_fails_the_command(tmp_path: Path) -> None:
-    (tmp_path / "weir.toml").write_text("[limits]\nrow = 5\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_row = 5\n", encoding="utf-8")
     (tmp_path / "a.csv").write_text("site_id\nVB-014\n", encoding="utf-8")
     code, out = run("check", "a.csv")
-    assert code == 2 and "did you mean 'rows'" in out and "Traceback" not in out
+    assert code == 2 and "did you mean 'max_rows'" in out and "Traceback" not in out
 
 
 def test_row_limit_from_settings_reaches_check(tmp_path: Path) -> None:
-    (tmp_path / "weir.toml").write_text("[limits]\nrows = 3\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_rows = 3\n", encoding="utf-8")
     rows = "".join(f"VB-{i:03d},{i}\n" for i in range(10))
     (tmp_path / "a.csv").write_text("site_id,result\n" + rows, encoding="utf-8")
     code, _ = run("check", "a.csv", "--report", "r.json")
     assert code == 1 and "file.too-many-rows" in rules_in(tmp_path / "r.json")
-    (tmp_path / "weir.toml").write_text("[limits]\nrows = 30\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_rows = 30\n", encoding="utf-8")
     run("check", "a.csv", "--report", "r.json")
     assert "file.too-many-rows" not in rules_in(tmp_path / "r.json")
 
@@ -104,10 +104,10 @@ def test_contract_limits_from_settings(tmp_path: Path) -> None:
     (tmp_path / "c.yaml").write_text(contract, encoding="utf-8")
     (tmp_path / "a.csv").write_text("site_id\nVB-014\n", encoding="utf-8")
     assert run("check", "a.csv", "-c", "c.yaml")[0] == 0
-    (tmp_path / "weir.toml").write_text("[limits]\ncontract_nodes = 5\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_contract_nodes = 5\n", encoding="utf-8")
     code, out = run("check", "a.csv", "-c", "c.yaml")
     assert code == 2 and "more than 5 YAML nodes" in out
-    (tmp_path / "weir.toml").write_text("[limits]\ncontract_bytes = 20\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_contract_bytes = 20\n", encoding="utf-8")
     code, out = run("check", "a.csv", "-c", "c.yaml")
     assert code == 2 and "the limit is 20" in out
 
@@ -117,7 +117,7 @@ def test_folder_depth_is_reported_not_silently_skipped(tmp_path: Path) -> None:
     deep.mkdir(parents=True)
     (deep / "results.csv").write_text("site_id\nVB-014\n", encoding="utf-8")
     (tmp_path / "inbox" / "top.csv").write_text("site_id\nVB-015\n", encoding="utf-8")
-    (tmp_path / "weir.toml").write_text("[limits]\nfolder_depth = 2\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_folder_depth = 2\n", encoding="utf-8")
     code, _ = run("check", "inbox", "--report", "r.json")
     data = json.loads((tmp_path / "r.json").read_text(encoding="utf-8"))
     assert [Path(r["file"]).name for r in data["tables"]] == ["top.csv"]
@@ -149,7 +149,7 @@ def test_timed_out_file_gets_a_finding_and_the_rest_are_checked(
         return real(path, limits)
 
     monkeypatch.setattr(check, "read_path", slow_for_one)
-    (tmp_path / "weir.toml").write_text("[limits]\nseconds_per_file = 0.3\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_seconds_per_file = 0.3\n", encoding="utf-8")
     for name in ("slow.csv", "fast.csv"):
         (tmp_path / name).write_text("site_id\nVB-014\n", encoding="utf-8")
     code, out = run("check", "slow.csv", "fast.csv", "--report", "r.json")
@@ -160,6 +160,6 @@ def test_timed_out_file_gets_a_finding_and_the_rest_are_checked(
 
 
 def test_settings_are_found_with_their_limits(tmp_path: Path) -> None:
-    (tmp_path / "weir.toml").write_text("[limits]\ncell_chars = 10\n", encoding="utf-8")
+    (tmp_path / "weir.toml").write_text("[limits]\nmax_cell_chars = 10\n", encoding="utf-8")
     settings = find_settings(Path(os.getcwd()))
     assert settings is not None and settings.bounds.read.max_cell_chars == 10

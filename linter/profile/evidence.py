@@ -61,7 +61,7 @@ def table_key(frame: pd.DataFrame, declared: Sequence[str] = ()) -> tuple[str, .
         return tuple(declared)
     if declared:
         return None
-    keys = unique_combinations(frame).keys
+    keys = unique_combinations(frame, skip_measurements=True).keys
     return keys[0] if keys else None
 
 
@@ -82,13 +82,26 @@ def mixed_units(
         return None
     min_group = MIN_GROUP_WITH_CONTRACT if with_contract else MIN_GROUP
     found = [d for d in functional_dependencies(frame, max_lhs=MAX_LHS) if d.determinant]
+    repeating: dict[tuple[str, ...], bool] = {}
+    varied: dict[str, bool] = {}
+
+    def repeats(columns: tuple[str, ...]) -> bool:
+        if columns not in repeating:
+            repeating[columns] = _repeats(frame, columns, min_group)
+        return repeating[columns]
+
+    def varies(column: str) -> bool:
+        if column not in varied:
+            varied[column] = frame[column].nunique(dropna=False) >= 2
+        return varied[column]
+
     strong = tuple(
         d
         for d in found
         if not set(key) <= set(d.determinant)
         and d.dependent not in key
-        and frame[d.dependent].nunique(dropna=False) >= 2
-        and _repeats(frame, d.determinant, min_group)
+        and varies(d.dependent)
+        and repeats(d.determinant)
     )
     if not strong:
         return None
@@ -97,9 +110,7 @@ def mixed_units(
     backing = [
         d
         for d in found
-        if d.dependent in key
-        and not set(key) <= set(d.determinant)
-        and _repeats(frame, d.determinant, min_group)
+        if d.dependent in key and not set(key) <= set(d.determinant) and repeats(d.determinant)
     ]
     split = propose_split(
         [str(c) for c in frame.columns],
@@ -119,7 +130,9 @@ def entry_errors(frame: pd.DataFrame, declared_key: Sequence[str] = ()) -> list[
     min_group = MIN_GROUP_WITH_CONTRACT if with_contract else MIN_GROUP
     column = [str(c) for c in frame.columns]
     found: dict[tuple[str, tuple[int, ...]], EntryError] = {}
-    for d in functional_dependencies(frame, max_lhs=1, max_error=MAX_ERROR_SHARE):
+    # The budget is the smaller of the share and the row cap, so that long tables stay cheap.
+    share = min(MAX_ERROR_SHARE, MAX_ERROR_ROWS / len(frame))
+    for d in functional_dependencies(frame, max_lhs=1, max_error=share):
         if d.exact or not d.determinant or d.dependent in key or d.breaking_rows > MAX_ERROR_ROWS:
             continue
         if frame[d.dependent].nunique(dropna=False) < 2 or not _repeats(frame, d.determinant, min_group):

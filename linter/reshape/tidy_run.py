@@ -4,7 +4,8 @@ from __future__ import annotations
 
 import json
 import shutil
-from dataclasses import dataclass
+from collections.abc import Mapping
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
@@ -13,8 +14,9 @@ import pandas as pd
 from linter.contract.model import TableContract
 from linter.errors import WeirError
 from linter.output import write_text_atomic
-from linter.reshape.apply import apply_recipe, output_name
+from linter.reshape.apply import Reshaped, apply_recipe, output_name
 from linter.reshape.audit import Audit, audit
+from linter.reshape.normalise import JoinAudit, SplitByUnit, UnitTable, audit_split
 from linter.reshape.recipe import Recipe, load_recipe
 from linter.reshape.search import Candidate
 from linter.reshape.search_sample import search_large
@@ -33,6 +35,10 @@ class TidyResult:
     audit: Audit
     runners_up: tuple[Candidate, ...] = ()
     chosen: Candidate | None = None
+    others: Mapping[str, pd.DataFrame] = field(default_factory=dict)
+    """Further tables the recipe made (a split by observational unit), written beside `output`."""
+    join: JoinAudit | None = None
+    """For a split: whether joining the tables gives back the table that was split."""
 
 
 def _without_empty_rows(recipe: Recipe, keep_empty: bool) -> Recipe:
@@ -53,18 +59,54 @@ def tidy_one(
     if recipe_path is not None:
         recipe = _without_empty_rows(load_recipe(recipe_path), keep_empty)
         reshaped = apply_recipe(table, recipe)
-        if len(reshaped.tables) != 1:
+        if len(reshaped.tables) != 1 and not isinstance(recipe.steps[-1], SplitByUnit):
             raise RecipeError("this recipe makes several tables; weir tidy writes one per input table")
         name, output = next(iter(reshaped.tables.items()))
-        return TidyResult(table, name, output, recipe.to_json(), audit(table, reshaped, recipe))
+        return _with_split(
+            TidyResult(table, name, output, recipe.to_json(), audit(table, reshaped, recipe)),
+            recipe,
+            reshaped,
+        )
     found = search_large(table, contract, keep_empty=keep_empty)
     recipe = Recipe.of(step_from_json(s, i) for i, s in enumerate(found.best.steps, start=1))
     reshaped = apply_recipe(table, recipe)
+    split = _unit_split(reshaped, table, contract)
+    if split is not None:  # the tidy table still holds several units: split it too
+        recipe = Recipe.of([*recipe.steps, split])
+        reshaped = apply_recipe(table, recipe)
     checked = audit(table, reshaped, recipe)
     if not checked.lossless:  # the search only picks lossless recipes; this guards a disagreement
         raise RecipeError(f"the chosen recipe would lose {len(checked.lost)} cell(s); nothing was written")
     name, output = next(iter(reshaped.tables.items()))
-    return TidyResult(table, name, output, recipe.to_json(), checked, found.runners_up, found.best)
+    result = TidyResult(table, name, output, recipe.to_json(), checked, found.runners_up, found.best)
+    return _with_split(result, recipe, reshaped)
+
+
+def _unit_split(reshaped: Reshaped, table: Table, contract: TableContract | None) -> SplitByUnit | None:
+    """The split_by_unit step for a single tidy output that mixes units (same evidence as units.mixed)."""
+    from linter.profile.evidence import mixed_units
+
+    if len(reshaped.tables) != 1:
+        return None
+    ((name, frame),) = reshaped.tables.items()
+    found = mixed_units(frame, tuple(contract.keys) if contract else (), contract.name if contract else name)
+    if found is None:
+        return None
+    return SplitByUnit(tuple(UnitTable(t.name, t.key, t.columns) for t in found.split.tables))
+
+
+def _with_split(result: TidyResult, recipe: Recipe, reshaped: Reshaped) -> TidyResult:
+    """Add the other tables of a split and the audit that joining them gives back the split table."""
+    step = recipe.steps[-1] if recipe.steps else None
+    if not isinstance(step, SplitByUnit):
+        return result
+    before = apply_recipe(result.table, Recipe(recipe.steps[:-1]))
+    ((_, whole),) = before.tables.items()
+    join = audit_split(whole, reshaped.tables, step)
+    if not join.lossless:
+        raise RecipeError("joining the split tables would not give back the table; nothing was written")
+    others = {n: t for n, t in reshaped.tables.items() if n != result.name}
+    return replace(result, others=others, join=join)
 
 
 def tidy_tables(
@@ -98,9 +140,26 @@ def write_outputs(results: list[TidyResult], source: Path, out: Path) -> list[st
         write_text_atomic(
             out / f"{prefix}recipe.json", json.dumps(result.recipe, indent=2, ensure_ascii=False) + "\n"
         )
+        for other, frame in result.others.items():
+            extra = out / f"{other}.csv"
+            if extra.resolve() == source.resolve() or extra == target:
+                raise WeirError(
+                    f"the split table {other} would overwrite {extra}; choose another --out folder"
+                )
+            write_text_atomic(extra, _csv(frame))
+            lines.append(
+                f"{extra}: {len(frame)} rows, {frame.shape[1]} columns (split by observational unit)"
+            )
+        audited = result.audit.to_json()
+        if result.join is not None:
+            audited["join"] = {
+                "lossless": result.join.lossless,
+                "input_rows": result.join.input_rows,
+                "joined_rows": result.join.joined_rows,
+                "tables": [result.name, *result.others],
+            }
         write_text_atomic(
-            out / f"{prefix}audit.json",
-            json.dumps(result.audit.to_json(), indent=2, ensure_ascii=False) + "\n",
+            out / f"{prefix}audit.json", json.dumps(audited, indent=2, ensure_ascii=False) + "\n"
         )
         report = {
             "input": str(source),

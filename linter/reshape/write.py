@@ -107,7 +107,7 @@ def write_tidy(
     audit_text = json.dumps(audit_json(table, reshaped, result), indent=2, ensure_ascii=False) + "\n"
     write_text_atomic(planned["audit"], audit_text)
     if with_code:
-        write_text_atomic(planned["code"], pandas_code(recipe, Path(table.source).name))
+        write_text_atomic(planned["code"], pandas_code(recipe, Path(table.source).name, sheet=table.sheet))
     return Written(
         tuple(table_paths), tuple(origin_paths), planned["recipe"], planned["audit"], planned.get("code")
     )

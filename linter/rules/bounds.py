@@ -10,7 +10,7 @@ TOO_MANY_SHEETS = define_rule(
     "The workbook has more sheets than the limit",
     Severity.ERROR,
     """
-    Finds workbooks whose archive lists more worksheets than `[limits] sheets` allows; they are
+    Finds workbooks whose archive lists more worksheets than `[limits] max_sheets` allows; they are
     refused from the archive's table of contents, before any sheet is inflated.
 
     Bad: a workbook generated with one sheet per sample, 5,000 sheets in all.
@@ -22,7 +22,7 @@ TIMED_OUT = define_rule(
     "Reading and checking the file took longer than the time limit",
     Severity.ERROR,
     """
-    Finds files that Weir gave up on after `[limits] seconds_per_file`; the other files of the
+    Finds files that Weir gave up on after `[limits] max_seconds_per_file`; the other files of the
     run are still checked. The file itself is left exactly as it was.
 
     Bad: one 400 MB sheet with a million formulas' cached values and stray cells far away.
@@ -34,7 +34,7 @@ TOO_DEEP = define_rule(
     "Folders are nested deeper than the limit",
     Severity.ERROR,
     """
-    Finds folders below a checked folder that are nested deeper than `[limits] folder_depth`;
+    Finds folders below a checked folder that are nested deeper than `[limits] max_folder_depth`;
     files inside them are not searched, so nothing there is silently taken as checked.
 
     Bad: `inbox/a/a/a/.../a/results.csv`, forty folders down.

@@ -199,3 +199,12 @@ def test_spread_merges_equal_identifying_cells_without_loss() -> None:
         {"step": "spread", "names_from": "measure", "values_from": "value"},
     )
     assert result.lossless and result.kept["value"] == 4  # both 'VB-014' cells and both values
+
+
+def test_gather_on_a_header_only_table_drops_the_gathered_headers_on_purpose() -> None:
+    # Found by the property test (twice: once again after a speed-up): no body row is left.
+    result = audit_of(
+        [["site", "2020"]], {"step": "gather", "columns": ["2020"], "names_to": "y", "values_to": "n"}
+    )
+    assert result.lossless
+    assert [(c.row, c.letter, c.why) for c in result.dropped] == [(1, "B", "header with no values")]
