@@ -66,16 +66,23 @@ class SearchResult:
 
 def layout_detectors() -> list[Detector]:
     """The layout detectors in the order their steps should apply (margins and header first)."""
-    from linter.rules import layout_cells, layout_headers, layout_margins, layout_rows
+    from linter.rules import (
+        layout_cells,
+        layout_groups,
+        layout_header_rows,
+        layout_headers,
+        layout_margins,
+        layout_rows,
+    )
 
     return [
         layout_margins.find_blank_rows_columns,
         layout_margins.find_totals_and_notes,
-        layout_headers.find_multi_row_header,
-        layout_headers.find_no_header,
+        layout_header_rows.find_multi_row_header,
+        layout_header_rows.find_no_header,
         layout_rows.find_transposed,
-        layout_rows.find_section_titles,
-        layout_rows.find_same_as_above,
+        layout_groups.find_section_titles,
+        layout_groups.find_same_as_above,
         layout_headers.find_repeated_groups,
         layout_headers.find_values_in_headers,
         layout_cells.find_packed_column,

@@ -14,8 +14,8 @@ from linter.reshape.recipe import Recipe
 from linter.reshape.search import SearchResult, search
 from linter.reshape.steps import RecipeError, step_from_json
 from linter.reshape.tidiness import tidiness
+from linter.rules.layout_groups import find_section_titles
 from linter.rules.layout_margins import find_blank_rows_columns, find_totals_and_notes
-from linter.rules.layout_rows import find_section_titles
 from linter.table import Table
 
 SAMPLE_HEAD = 2000

@@ -8,6 +8,8 @@ from linter.rules import (  # noqa: F401
     header,
     keys,
     layout_cells,
+    layout_groups,
+    layout_header_rows,
     layout_headers,
     layout_margins,
     layout_rows,

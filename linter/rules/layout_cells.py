@@ -8,6 +8,7 @@ from collections.abc import Iterable
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
+from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import layout_finding
 from linter.rules.layout_signals import blank, cell_kind, frame_of, header_value_kind, sample, slug
 from linter.rules.registry import define_rule, inspector
@@ -214,9 +215,9 @@ def find_list_cells(table: Table, contract: TableContract | None = None) -> list
 
 @inspector()
 def packed_column(subject: Subject) -> Iterable[Finding]:
-    return find_packed_column(subject.table, subject.contract)
+    return find_packed_column(below_titles(subject.table), subject.contract)
 
 
 @inspector()
 def list_cells(subject: Subject) -> Iterable[Finding]:
-    return find_list_cells(subject.table, subject.contract)
+    return find_list_cells(below_titles(subject.table), subject.contract)

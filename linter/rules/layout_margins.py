@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterable
+from dataclasses import replace
 
 import numpy as np
 
@@ -180,6 +181,20 @@ def find_blank_rows_columns(table: Table, contract: TableContract | None = None)
             )
         )
     return findings
+
+
+def below_titles(table: Table) -> Table:
+    """The table from its header row down: title and blank rows above the header left out.
+
+    `weir check` judges the header rules on this, so a title line does not hide, say, months
+    used as column names; row numbers stay the provider's.
+    """
+    counts, _ = row_fill(table.grid)
+    span = _data_span(counts)
+    if span is None or span[0] == 0:
+        return table
+    grid = table.grid.iloc[span[0] :].reset_index(drop=True)
+    return replace(table, grid=grid, row_numbers=table.row_numbers[span[0] :])
 
 
 @inspector()

@@ -49,3 +49,15 @@ def test_contract_code_list_turns_headers_into_a_finding() -> None:
     assert steps and steps[0]["names_to"] == "taxon" and steps[0]["values_to"] == "individuals"
     without = check_paths(["taxa.csv"], [])
     assert not [f for f in without.all_findings() if f.rule == "layout.values-in-headers"]
+
+
+def test_a_title_line_does_not_hide_months_in_the_header() -> None:
+    Path("monthly.csv").write_text(
+        "Nitrate by month,,,\nsite_id,Jan 2026,Feb 2026,Mar 2026\nVB-003,1.8,2.1,2.4\nVB-007,0.9,,1.2\n",
+        encoding="utf-8",
+    )
+    findings = check_paths(["monthly.csv"], []).all_findings()
+    months = [f for f in findings if f.rule == "layout.values-in-headers"]
+    assert months and months[0].place.rows == (2,) and months[0].place.letters == ("B", "C", "D")
+    assert {f.step["reason"] for f in findings if f.rule == "layout.totals-and-notes"} == {"title"}
+    assert not [f for f in findings if f.rule == "layout.transposed"]
