@@ -150,8 +150,23 @@ def table_name(key: Sequence[str]) -> str:
                 stem = stem[: -len(suffix)]
                 break
         stems.append(stem.replace(" ", "_").lower())
-    name = "_".join(stems)
-    return name if name.endswith("s") else f"{name}s"
+    return plural_noun("_".join(stems))
+
+
+def plural_noun(name: str) -> str:
+    """English plural of a unit name: site -> sites, county -> counties, batch -> batches.
+
+    Common practice (no source): the regular English spelling rules; irregular nouns are rare
+    in column names and keep the plain -s.
+    """
+    lower = name.lower()
+    if lower.endswith("s"):
+        return name
+    if lower.endswith("y") and len(lower) > 1 and lower[-2] not in "aeiou":
+        return name[:-1] + "ies"
+    if lower.endswith(("x", "z", "ch", "sh")):
+        return name + "es"
+    return name + "s"
 
 
 def propose_split(

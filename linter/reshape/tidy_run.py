@@ -39,6 +39,12 @@ class TidyResult:
     """Further tables the recipe made (a split by observational unit), written beside `output`."""
     join: JoinAudit | None = None
     """For a split: whether joining the tables gives back the table that was split."""
+    by_unit: TidyResult | None = None
+    """When the tidy table still mixes observational units: the same table split by unit.
+
+    It is written beside the tidy table, not instead of it: the tidy table stays the answer to
+    "what is this file in one table", the split is the answer to "and in normal form".
+    """
 
 
 def _without_empty_rows(recipe: Recipe, keep_empty: bool) -> Recipe:
@@ -62,24 +68,35 @@ def tidy_one(
         if len(reshaped.tables) != 1 and not isinstance(recipe.steps[-1], SplitByUnit):
             raise RecipeError("this recipe makes several tables; weir tidy writes one per input table")
         name, output = next(iter(reshaped.tables.items()))
+        checked = audit(table, reshaped, recipe)
+        if not checked.lossless:  # a saved recipe that no longer fits this file must not lose values
+            first = checked.lost[0]
+            raise RecipeError(
+                f"the saved recipe would lose {len(checked.lost)} cell(s) of this file "
+                f"(first: {first.letter}{first.row} {first.text!r}); nothing was written"
+            )
         return _with_split(
-            TidyResult(table, name, output, recipe.to_json(), audit(table, reshaped, recipe)),
+            TidyResult(table, name, output, recipe.to_json(), checked),
             recipe,
             reshaped,
         )
     found = search_large(table, contract, keep_empty=keep_empty)
     recipe = Recipe.of(step_from_json(s, i) for i, s in enumerate(found.best.steps, start=1))
     reshaped = apply_recipe(table, recipe)
-    split = _unit_split(reshaped, table, contract)
-    if split is not None:  # the tidy table still holds several units: split it too
-        recipe = Recipe.of([*recipe.steps, split])
-        reshaped = apply_recipe(table, recipe)
     checked = audit(table, reshaped, recipe)
     if not checked.lossless:  # the search only picks lossless recipes; this guards a disagreement
         raise RecipeError(f"the chosen recipe would lose {len(checked.lost)} cell(s); nothing was written")
     name, output = next(iter(reshaped.tables.items()))
     result = TidyResult(table, name, output, recipe.to_json(), checked, found.runners_up, found.best)
-    return _with_split(result, recipe, reshaped)
+    split = _unit_split(reshaped, table, contract)
+    if split is None:
+        return result
+    # The tidy table still holds several units: also split it, and keep both answers.
+    by_recipe = Recipe.of([*recipe.steps, split])
+    by_reshaped = apply_recipe(table, by_recipe)
+    by_name, by_output = next(iter(by_reshaped.tables.items()))
+    by_unit = TidyResult(table, by_name, by_output, by_recipe.to_json(), audit(table, by_reshaped, by_recipe))
+    return replace(result, by_unit=_with_split(by_unit, by_recipe, by_reshaped))
 
 
 def _unit_split(reshaped: Reshaped, table: Table, contract: TableContract | None) -> SplitByUnit | None:
@@ -116,7 +133,8 @@ def tidy_tables(
 
 
 def _csv(frame: pd.DataFrame) -> str:
-    return frame.to_csv(index=False, lineterminator="\n")
+    # Source: RFC 4180 §2 rule 1 (records end with CRLF).
+    return frame.to_csv(index=False, lineterminator="\r\n")
 
 
 def write_outputs(results: list[TidyResult], source: Path, out: Path) -> list[str]:
@@ -170,6 +188,8 @@ def write_outputs(results: list[TidyResult], source: Path, out: Path) -> list[st
         write_text_atomic(
             out / f"{prefix}tidy-report.json", json.dumps(report, indent=2, ensure_ascii=False) + "\n"
         )
+        if result.by_unit is not None:
+            lines += write_outputs([result.by_unit], source, out / f"{stem}.by-unit")
         steps = len(result.recipe["steps"])
         lines.append(
             f"{target}: {len(result.output)} rows, {result.output.shape[1]} columns "

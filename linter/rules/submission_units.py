@@ -42,7 +42,9 @@ define_rule(
     """
     Finds files (or sheets) with the same columns whose names differ only by a value such as a
     month, a site or a laboratory, while no column says which file a row came from. The value
-    belongs in a column; the fix is the stack_files step.
+    belongs in a column; the fix is the stack_files step. Files that a contract governs are not
+    reported: the contract is the agreement, and one file per month or laboratory is then the
+    agreed way of delivering.
 
     Bad:  readings_2026-01.csv and readings_2026-02.csv, no month column
     Good: readings.csv with a month column holding 2026-01 and 2026-02
@@ -132,8 +134,9 @@ def stacked_files(subjects: Sequence[Subject]) -> Iterator[Finding]:
         values = _varying_part(names)
         if any(not v for v in values) or len(set(values)) != len(values):
             continue
-        governed = all(s.contract is not None for s in members)
-        if not governed and not all(VALUE_LIKE.match(v) for v in values):
+        if any(s.contract is not None for s in members):
+            continue  # a contract governs these files: one file per month or lab is the agreed delivery
+        if not all(VALUE_LIKE.match(v) for v in values):
             continue
         column = _column_for(values)
         keyed = {

@@ -38,11 +38,22 @@ def test_tidy_writes_csv_recipe_audit_and_report() -> None:
 def test_saved_recipe_reruns_and_drop_empty_drops_empty_cells() -> None:
     Path("counts.csv").write_text(MESSY, encoding="utf-8")
     assert run("counts.csv", "--out", "first")[0] == 0
-    Path("next.csv").write_text(MESSY.replace("VB-015,1", "VB-015,9"), encoding="utf-8")
+    next_month = MESSY.replace("VB-015,1", "VB-015,9").replace("Total,4", "Total,12")
+    Path("next.csv").write_text(next_month, encoding="utf-8")
     code, output = run("next.csv", "--out", "second", "--recipe", "first/recipe.json", "--drop-empty")
     assert code == 0, output
     lines = Path("second/next.csv").read_text(encoding="utf-8").splitlines()
     assert "VB-015,2023,9" in lines and len(lines) == 6
+
+
+def test_saved_recipe_that_would_lose_a_value_writes_nothing() -> None:
+    # The total row no longer adds up, so dropping it as a total would lose the only record of 4.
+    Path("counts.csv").write_text(MESSY, encoding="utf-8")
+    assert run("counts.csv", "--out", "first")[0] == 0
+    Path("next.csv").write_text(MESSY.replace("VB-015,1", "VB-015,9"), encoding="utf-8")
+    code, output = run("next.csv", "--out", "second", "--recipe", "first/recipe.json")
+    assert code == 2 and "would lose 1 cell(s)" in output and "A4" not in output
+    assert not Path("second/next.csv").exists()
 
 
 def test_tidy_table_is_written_unchanged() -> None:

@@ -17,19 +17,25 @@ def test_tidy_writes_one_table_per_unit_and_audits_the_join(repo: Path, tmp_path
     before = source.read_bytes()
     result = CliRunner().invoke(app, ["tidy", str(source), "--out", "tidy"])
     assert result.exit_code == 0, result.output
-    sites = (tmp_path / "tidy" / "sites.csv").read_text(encoding="utf-8").splitlines()
-    samples = (tmp_path / "tidy" / "vb_samples_with_sites.csv").read_text(encoding="utf-8").splitlines()
+    # The one-table answer stays where it always is: the file is already one tidy table.
+    assert (tmp_path / "tidy" / "vb_samples_with_sites.csv").read_bytes() == before
+    # Beside it, the same table in normal form: one table per observational unit.
+    by_unit = tmp_path / "tidy" / "vb_samples_with_sites.by-unit"
+    sites = (by_unit / "sites.csv").read_text(encoding="utf-8").splitlines()
+    samples = (by_unit / "vb_samples_with_sites.csv").read_text(encoding="utf-8").splitlines()
     assert sites[0] == "site_id,site_name,river,latitude,longitude" and len(sites) == 6
     assert samples[0] == "site_id,sampled_on,water_temp_c,nitrate_mg_l" and len(samples) == 31
-    audit = json.loads((tmp_path / "tidy" / "audit.json").read_text(encoding="utf-8"))
+    audit = json.loads((by_unit / "audit.json").read_text(encoding="utf-8"))
     assert audit["lossless"] and audit["join"]["lossless"]
     assert audit["join"]["joined_rows"] == audit["join"]["input_rows"] == 30
     assert audit["counts"]["dropped_repeat"] == 100  # 25 repeated site rows x 4 site columns
-    recipe = json.loads((tmp_path / "tidy" / "recipe.json").read_text(encoding="utf-8"))
+    recipe = json.loads((by_unit / "recipe.json").read_text(encoding="utf-8"))
     assert recipe["steps"][-1]["step"] == "split_by_unit"
     assert source.read_bytes() == before
 
-    again = CliRunner().invoke(app, ["tidy", str(source), "--out", "again", "--recipe", "tidy/recipe.json"])
+    again = CliRunner().invoke(
+        app, ["tidy", str(source), "--out", "again", "--recipe", str(by_unit / "recipe.json")]
+    )
     assert again.exit_code == 0, again.output  # the saved recipe re-runs to the same tables
     assert (tmp_path / "again" / "sites.csv").read_text(encoding="utf-8").splitlines() == sites
 
