@@ -10,7 +10,7 @@ import atheris
 # uninstrumented, or start-up would take minutes. Lazy imports are made here, inside.
 with atheris.instrument_imports(include=["linter"]):
     import linter.contract.codes
-    import linter.contract.expressions
+    import linter.contract.expressions  # noqa: F401  (instrumented for coverage)
     from linter.contract.load import load_contract
     from linter.errors import WeirError
 

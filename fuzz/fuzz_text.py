@@ -11,7 +11,7 @@ import atheris
 with atheris.instrument_imports(include=["linter"]):
     import linter.read.delimited
     import linter.read.encoding
-    import linter.read.lines
+    import linter.read.lines  # noqa: F401  (instrumented for coverage)
     from linter.read import UnreadableFile, read_path
     from linter.read.limits import ReadLimits
 
