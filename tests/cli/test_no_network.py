@@ -50,7 +50,11 @@ def guarded_run(tmp_path: Path, *args: str) -> tuple[subprocess.CompletedProcess
 
 def test_the_guard_catches_a_real_attempt(tmp_path: Path) -> None:
     # 192.0.2.1 is TEST-NET-1 (Source: RFC 5737 §3), never routed; the guard refuses before trying.
-    code = "import urllib.request\ntry:\n urllib.request.urlopen('http://192.0.2.1/', timeout=1)\nexcept OSError:\n pass"
+    code = (
+        "import urllib.request\n"
+        "try:\n urllib.request.urlopen('http://192.0.2.1/', timeout=1)\n"
+        "except OSError:\n pass"
+    )
     _, log = guarded_run(tmp_path, "-c", code)
     assert log.strip()
 
