@@ -132,6 +132,29 @@ def traversal_member() -> bytes:
     return zipped(members)
 
 
+def lying_sizes() -> bytes:
+    """A zip bomb whose headers declare 1,000 inflated bytes for an 8 MB member.
+
+    Source: PKWARE APPNOTE 6.3.10 §4.3.7 and §4.3.12: the uncompressed size sits at offset 22
+    of each local header and offset 24 of each central directory header. Declared sizes pass
+    the bomb check, so what must hold is that inflating stops at the declared size.
+    """
+    base = workbook(rows_sheet([["site_id"], ["VB-014"]]))
+    with zipfile.ZipFile(io.BytesIO(base)) as archive:
+        members = {n: archive.read(n) for n in archive.namelist()}
+    # Whitespace after the root element is still well-formed XML (XML 1.0 §2.8, Misc).
+    sheet = members["xl/worksheets/sheet1.xml"] + b" " * (8 << 20)
+    members["xl/worksheets/sheet1.xml"] = sheet
+    data = bytearray(zipped(members))
+    for signature, offset in ((b"PK\x03\x04", 22), (b"PK\x01\x02", 24)):
+        start = data.find(signature)
+        while start != -1:
+            if struct.unpack_from("<I", data, start + offset)[0] == len(sheet):
+                struct.pack_into("<I", data, start + offset, 1000)
+            start = data.find(signature, start + 1)
+    return bytes(data)
+
+
 def ole_file(stream_name: str) -> bytes:
     """A minimal compound-file header followed by a directory name ([MS-CFB] §2.2, §2.6.1)."""
     header = b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1" + bytes(16) + struct.pack("<HH", 0x3E, 3) + bytes(488)
@@ -218,6 +241,7 @@ def corpus() -> dict[str, bytes]:
         "many-rows.csv": ("site_id\n" + "".join(f"VB-{i:03d}\n" for i in range(200))).encode(),
         # --- workbooks ---
         "zip-bomb.xlsx": zipped({"xl/workbook.xml": b"<workbook/>", "xl/worksheets/sheet1.xml": zeros}),
+        "lying-sizes.xlsx": lying_sizes(),
         "truncated.xlsx": workbook(rows_sheet([["site_id"], ["VB-014"]]))[:700],
         "damaged-sheet-xml.xlsx": damaged_sheet_xml(),
         "xml-entity-bomb.xlsx": xml_entities_sheet(),
