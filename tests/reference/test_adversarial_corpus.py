@@ -66,6 +66,8 @@ def test_each_file_gets_its_verdict(case: dict[str, Any], tmp_path: Path) -> Non
     before = {p.name: digest(p) for p in FILES.iterdir()}
     if case["command"] == "check":
         args = ["check", str(target), "--report", "report.json"]
+        if "contract" in case:
+            args += ["-c", str(FILES / case["contract"])]
     elif case["command"] == "contract":
         args = ["check", str(FILES / "ok.csv"), "-c", str(target)]
     else:
