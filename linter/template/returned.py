@@ -49,9 +49,8 @@ def without_examples(table: Table, rules: TableContract) -> Table:
     for offset, example in enumerate(examples, start=1):
         if offset >= grid.shape[0] or table.row_numbers[offset] != offset + 1:
             break
-        if trimmed([tuple(grid.iloc[offset])]) != trimmed([example]):
-            break
-        drop.append(offset)
+        if trimmed([tuple(grid.iloc[offset])]) == trimmed([example]):
+            drop.append(offset)
     if not drop:
         return table
     keep = [i for i in range(grid.shape[0]) if i not in drop]
