@@ -6,20 +6,10 @@ import sys
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
-
-from linter.cli import app
 
 sys.path.insert(0, str(Path(__file__).parent))  # the helper modules beside these tests
 
-REPO = Path(__file__).resolve().parents[2]
-DEMO = ("sites", "stream-chemistry", "field-sheets")
-
-
-def make_template(contract: Path, out: Path, *options: str) -> Path:
-    result = CliRunner().invoke(app, ["template", str(contract), "--out", str(out), *options])
-    assert result.exit_code == 0, result.output
-    return out
+from template_files import DEMO, REPO, make_template
 
 
 @pytest.fixture(scope="module")
