@@ -10,6 +10,9 @@ import typer
 from linter.cli.app import app, guarded
 from linter.errors import WeirError
 
+HTML_SUFFIXES = (".html", ".htm")
+MARKDOWN_SUFFIXES = (".md", ".markdown", ".txt")
+
 
 def refuse_overwriting(target: Path, contract: Path) -> None:
     """Weir's outputs never replace the contract (or a code list beside it)."""
@@ -33,18 +36,16 @@ def dictionary(
 
     if not contract.is_file():
         raise WeirError(f"no such contract file: {contract}")
-    # The version comparison (`weir diff`) will pass its sentences as `changes` here.
+    if out is not None:
+        refuse_overwriting(out, contract)
+        if out.suffix.lower() not in (*HTML_SUFFIXES, *MARKDOWN_SUFFIXES):
+            raise WeirError(f"--out {out}: name an .html or .md file")
+    # The version comparison (`weir diff`, not on main yet) will pass its sentences as `changes` here.
     facts = contract_facts(load_contract(str(contract)))
     if out is None:
         sys.stdout.write(markdown.render(facts))
         return 0
-    refuse_overwriting(out, contract)
-    suffix = out.suffix.lower()
-    if suffix in (".html", ".htm"):
-        write_text_atomic(out, html.render(facts))
-    elif suffix in (".md", ".markdown", ".txt"):
-        write_text_atomic(out, markdown.render(facts))
-    else:
-        raise WeirError(f"--out {out}: name an .html or .md file")
+    is_html = out.suffix.lower() in HTML_SUFFIXES
+    write_text_atomic(out, html.render(facts) if is_html else markdown.render(facts))
     print(f"weir: wrote the data dictionary of {facts.id} version {facts.version} to {out}")
     return 0

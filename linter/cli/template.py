@@ -42,6 +42,9 @@ def template(
         raise WeirError(f"--out {out}: a CSV template needs a .csv name")
     loaded = load_contract(str(contract))
     files = {out: workbook_bytes(loaded)} if chosen is TemplateFormat.XLSX else csv_files(loaded, out)
+    for target in files:
+        if target.resolve() == contract.resolve():
+            raise WeirError(f"{target} would overwrite the contract; choose another --out name")
     for target, data in files.items():
         write_bytes_atomic(target, data)
         print(f"weir: wrote {target}")

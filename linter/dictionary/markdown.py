@@ -45,7 +45,7 @@ def table_markdown(table: TableFacts, several: bool) -> list[str]:
 
 def render(facts: ContractFacts) -> str:
     lines = [
-        f"# {facts.title or facts.id}",
+        f"# {plain(facts.title or facts.id)}",
         "",
         f"Contract {inline(facts.id)}, version **{plain(facts.version)}**.",
         "",
