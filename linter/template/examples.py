@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from datetime import date, timedelta
 
 from linter.contract.model import TableContract, Variable, VarType
@@ -11,13 +12,14 @@ from linter.template.pattern_example import pattern_example
 
 EXAMPLE_COUNT = 2
 NUMERIC = (VarType.NUMBER, VarType.INTEGER)
+DESCRIBED = re.compile(r"\be\.g\.,?\s+(\S+)")
 
 
 def number_example(variable: Variable, variant: int) -> float:
     low = variable.minimum if isinstance(variable.minimum, int | float) else None
     high = variable.maximum if isinstance(variable.maximum, int | float) else None
     if low is not None and high is not None:
-        value = low + (high - low) * (0.2 + 0.15 * variant)
+        value = low + (high - low) * (0.5 + 0.05 * variant)  # mid-range: typical, far from both ends
     elif low is not None:
         value = low + 1.5 + variant
     elif high is not None:
@@ -37,6 +39,15 @@ def date_value(variable: Variable, variant: int) -> str:
     return day.isoformat()
 
 
+def described_example(variable: Variable) -> str | None:
+    """The example the description itself gives ("e.g. VB-014"), when it fits the pattern."""
+    found = DESCRIBED.search(variable.description)
+    if found is None or variable.pattern is None:
+        return None
+    text = found.group(1).rstrip(".,;:)")
+    return text if re.fullmatch(variable.pattern, text) else None
+
+
 def value_example(variable: Variable, variant: int) -> str | None:
     """One valid cell for `variable` as text, or None when Weir cannot write one with confidence."""
     kind = variable.type
@@ -49,6 +60,9 @@ def value_example(variable: Variable, variant: int) -> str | None:
     if kind in (VarType.DATE, VarType.DATETIME):
         return date_value(variable, variant)
     if variable.pattern:
+        given = described_example(variable)
+        if variant == 0 and given is not None:
+            return given
         return pattern_example(variable.pattern, variant)
     return f"example {variant + 1}"
 

@@ -110,7 +110,8 @@ def data_sheet(ws: Worksheet, table: TableContract, places: dict[tuple[str, str]
     ws.title = sheet_title(table)
     for index, variable in enumerate(table.variables, start=1):
         letter = column_letter(index - 1)
-        header = ws.cell(row=1, column=index, value=variable.name)
+        put(ws, 1, index, variable.name)
+        header = ws.cell(row=1, column=index)
         header.font = Font(bold=True)
         header.number_format = TEXT_FORMAT
         ws.column_dimensions[letter].number_format = number_format(variable)
