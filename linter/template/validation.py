@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from datetime import date
 
 from linter.contract.model import Variable, VarType
@@ -82,6 +82,14 @@ def is_iso_date(variable: Variable) -> bool:
 
 
 def cell_rule(variable: Variable, is_key: bool, list_source: str | None) -> CellRule:
+    """The rule for one column, its refusal saying how to write a missing value in this template."""
+    rule = strongest_rule(variable, is_key, list_source)
+    if rule.kind == "none" or not rule.allow_blank:
+        return rule
+    return replace(rule, error=short(f"{rule.error} Leave the cell empty when the value is missing."))
+
+
+def strongest_rule(variable: Variable, is_key: bool, list_source: str | None) -> CellRule:
     """The strongest rule the spreadsheet can apply without refusing a value Weir accepts as data.
 
     `list_source` is the inline list or the sheet range holding the codes. Missing-value codes

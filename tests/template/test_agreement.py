@@ -7,8 +7,10 @@ back from the saved workbook with openpyxl and applies ECMA-376 semantics (Part 
 from __future__ import annotations
 
 from datetime import date
+from pathlib import Path
 
 import pytest
+from filling import FILLS, fill, plant
 from openpyxl import load_workbook
 from spreadsheet_rules import accepts, rule_at
 from template_files import make_template
@@ -131,3 +133,23 @@ def test_ranges_and_dates_agree_exactly(verdicts: list[tuple[str, object, bool, 
     for column, value, sheet_ok, weir_ok in verdicts:
         if KIND_OF_COLUMN[column] in ("date", "decimal", "whole"):
             assert sheet_ok == weir_ok, (column, value)
+
+
+def test_a_missing_value_code_is_the_one_deliberate_difference(
+    templates: dict[str, Path], demo_contracts: list[Path], tmp_path: Path
+) -> None:
+    """`NA`, a missing-value code of the field sheets: Weir accepts it, the template wants an empty cell."""
+    workbook = load_workbook(templates["field-sheets"])
+    rule = rule_at(workbook, "field-sheets", "F4")  # ph, nullable, 0-14
+    assert rule is not None and rule.type == "decimal"
+    assert not accepts(rule, "NA", workbook) and accepts(rule, None, workbook)
+    assert "Leave the cell empty when the value is missing" in rule.error
+    instructions = " ".join(
+        str(c.value) for row in workbook["Instructions"].iter_rows() for c in row if c.value
+    )
+    assert "Leave a cell empty when a value is missing" in instructions
+    sites = fill(templates["sites"], tmp_path / "sites.xlsx", "sites", FILLS["sites"])
+    visits = fill(templates["field-sheets"], tmp_path / "visits.xlsx", "field-sheets", FILLS["field-sheets"])
+    planted = plant(visits, tmp_path / "visits-na.xlsx", "field-sheets", "F4", "NA")
+    report = check_paths([str(sites), str(planted)], [load_contract(str(c)) for c in demo_contracts])
+    assert [f for r in report.results for f in r.findings] == []  # Weir reads NA as missing
