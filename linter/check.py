@@ -96,6 +96,17 @@ def unreadable_result(path: str, sha: str, error: UnreadableFile) -> TableResult
     )
 
 
+def inspector_failed(name: str, error: Exception, place: Place) -> Finding:
+    """The finding that stands in for a check that crashed, so the provider still hears of it."""
+    return Finding(
+        rule=INTERNAL_RULE,
+        severity=Severity.ERROR,
+        message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
+        f"{type(error).__name__}: {error}. Please report this to the data manager.",
+        place=place,
+    )
+
+
 def run_inspectors(subject: Subject) -> list[Finding]:
     """Run every registered inspector on its own: one that fails never hides the others."""
     findings: list[Finding] = []
@@ -105,15 +116,7 @@ def run_inspectors(subject: Subject) -> list[Finding]:
         try:
             findings.extend(inspect(subject))
         except Exception as error:  # a bug in one check must not cost the provider the others
-            findings.append(
-                Finding(
-                    rule=INTERNAL_RULE,
-                    severity=Severity.ERROR,
-                    message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
-                    f"{type(error).__name__}: {error}. Please report this to the data manager.",
-                    place=Place(file=subject.table.source, sheet=subject.table.sheet),
-                )
-            )
+            findings.append(inspector_failed(name, error, Place(subject.table.source, subject.table.sheet)))
     return sorted(findings, key=sort_key)
 
 
@@ -125,13 +128,7 @@ def run_submission_inspectors(subjects: Sequence[Subject]) -> list[Finding]:
             findings.extend(inspect(subjects))
         except Exception as error:  # same isolation as per-table inspectors
             findings.append(
-                Finding(
-                    rule=INTERNAL_RULE,
-                    severity=Severity.ERROR,
-                    message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
-                    f"{type(error).__name__}: {error}. Please report this to the data manager.",
-                    place=Place(file=subjects[0].table.source if subjects else ""),
-                )
+                inspector_failed(name, error, Place(subjects[0].table.source if subjects else ""))
             )
     return sorted(findings, key=sort_key)
 

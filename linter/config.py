@@ -97,6 +97,14 @@ def tables(value: object, what: str) -> list[dict[str, object]]:
     return value
 
 
+def inside(value: object, what: str) -> str:
+    """A folder or file inside the inbox: relative, and never climbing out of it."""
+    path = PurePath(text(value, what))
+    if path.is_absolute() or ".." in path.parts:
+        raise WeirError(f"{what} must be a path inside the inbox (relative, without '..'): {value}")
+    return path.as_posix()
+
+
 def parse_inbox(value: object, source: str) -> InboxLayout:
     if not isinstance(value, dict):
         raise WeirError(f"{source}: [inbox] must be a table")
@@ -109,9 +117,9 @@ def parse_inbox(value: object, source: str) -> InboxLayout:
     if isinstance(settle, bool) or not isinstance(settle, int | float) or settle < 0:
         raise WeirError(f"{source}: inbox 'settle_seconds' must be a number of seconds >= 0")
     return InboxLayout(
-        accepted=text(value.get("accepted", defaults.accepted), f"{source}: inbox 'accepted'"),
-        returned=text(value.get("returned", defaults.returned), f"{source}: inbox 'returned'"),
-        ledger=text(value.get("ledger", defaults.ledger), f"{source}: inbox 'ledger'"),
+        accepted=inside(value.get("accepted", defaults.accepted), f"{source}: inbox 'accepted'"),
+        returned=inside(value.get("returned", defaults.returned), f"{source}: inbox 'returned'"),
+        ledger=inside(value.get("ledger", defaults.ledger), f"{source}: inbox 'ledger'"),
         providers=dict(providers),
         settle_seconds=float(settle),
     )

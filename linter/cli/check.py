@@ -74,8 +74,8 @@ def check(
 ) -> int:
     from rich.console import Console
 
-    from linter.check import check_paths
-    from linter.config import contract_paths, find_settings
+    from linter.config import find_settings
+    from linter.gate.governance import check_governed, load_governance
     from linter.report import console as console_report
     from linter.report.export import export_bytes
     from linter.report.redact import redact as redacted
@@ -98,14 +98,9 @@ def check(
     if export is not None and export.suffix.lower() not in (".csv", ".xlsx"):
         raise WeirError(f"--export {export}: name a .csv or .xlsx file")
     settings = find_settings(Path.cwd())
-    contract_files = list(contract) or (contract_paths(settings) if settings else [])
-    contracts = []
-    if contract_files:
-        from linter.contract.load import load_contract
-
-        contracts = [load_contract(str(p)) for p in contract_files]
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
-    result = check_paths([str(p) for p in paths], contracts, threshold)
+    governance = load_governance(settings, contract)
+    result = check_governed([str(p) for p in paths], governance, threshold)
     if redact or examples is not None:
         result = redacted(result, hide_values=redact, examples=examples)
     console_report.render(result, Console(), verbose=verbose)

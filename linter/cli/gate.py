@@ -27,6 +27,7 @@ def gate(
     from linter.check import check_paths
     from linter.config import InboxLayout, find_settings
     from linter.gate.answer import guarded as answering
+    from linter.gate.companions import check_in_bundle
     from linter.gate.governance import load_governance
     from linter.gate.inbox import Gate, new_owner, run_pass
     from linter.gate.ledger import SqliteLedger
@@ -42,6 +43,8 @@ def gate(
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
 
     def check(path: Path) -> Report:
+        if settings is not None and settings.bundles:
+            return check_in_bundle(path, inbox, layout, settings, governance, threshold)
         return check_paths([str(path)], list(governance.for_file(str(path), inbox)), threshold)
 
     ledger = SqliteLedger(inbox / layout.ledger)

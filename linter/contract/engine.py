@@ -143,15 +143,20 @@ def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[t
 
 def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> pd.DataFrame:
     cases = error.failure_cases
-    cases = cases[cases["index"].notna()]
-
-    def kind_of(row: pd.Series) -> str:
-        return _kind_of(row, kinds)
-
+    cases = cases[cases["index"].notna()].reset_index(drop=True)
+    # Vectorised: a file can fail a check on every row, so no per-case Python here.
+    numbers = pd.to_numeric(cases["check_number"], errors="coerce").astype("Int64")
+    known = pd.DataFrame(
+        [(column, number, kind) for (column, number), kind in kinds.items()],
+        columns=["column", "number", "kind"],
+    ).astype({"column": object, "number": "Int64"})
+    lookup = pd.DataFrame({"column": cases["column"].astype(object), "number": numbers})
+    by_number = lookup.merge(known, how="left", on=["column", "number"])["kind"]
+    by_name = cases["check"].astype(object).map(KINDS_BY_PANDERA_NAME)
     table = pd.DataFrame(
         {
             "column": cases["column"].astype(object),
-            "kind": cases.apply(kind_of, axis=1) if len(cases) else pd.Series(dtype=object),
+            "kind": by_name.fillna(by_number).fillna("other").astype(object),
             "row": cases["index"].astype(int),
             "value": cases["failure_case"],
         }

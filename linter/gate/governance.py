@@ -44,11 +44,30 @@ class Governance:
 
 
 def load_governance(settings: Settings | None, named: Sequence[Path] = ()) -> Governance:
-    """Load the contracts named on the command line, else those the settings name."""
+    """Load the contracts named on the command line (maps then do not apply), else the settings' ones."""
+    files = list(named) or (contract_paths(settings) if settings else [])
+    if not files:
+        return Governance(None if named else settings, {})
     from linter.contract.load import load_contract
 
-    files = list(named) or (contract_paths(settings) if settings else [])
-    return Governance(settings, {p.resolve(): load_contract(str(p)) for p in files})
+    return Governance(None if named else settings, {p.resolve(): load_contract(str(p)) for p in files})
+
+
+def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severity) -> Report:
+    """`weir check`: all files in one run, except that files a `[[map]]` assigns get their own run."""
+    from linter.check import check_paths, submitted_files
+
+    if governance.settings is None or not governance.settings.maps:
+        return check_paths(paths, list(governance.contracts.values()), fail_on)
+    runs: dict[tuple[int, ...], list[str]] = {}
+    chosen: dict[tuple[int, ...], tuple[Contract, ...]] = {}
+    for name in submitted_files(paths):
+        contracts = governance.for_file(name)
+        key = tuple(id(c) for c in contracts)
+        runs.setdefault(key, []).append(name)
+        chosen[key] = contracts
+    reports = [check_paths(files, list(chosen[key]), fail_on) for key, files in runs.items()]
+    return merged(reports, fail_on)
 
 
 def split_safe_groups(files: Sequence[str], governance: Governance) -> list[CheckGroup]:

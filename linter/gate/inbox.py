@@ -91,13 +91,15 @@ def provider_of(relative: str, layout: InboxLayout) -> str:
 def candidates(inbox: Path, layout: InboxLayout) -> Iterator[str]:
     """Files waiting in the inbox (relative posix paths), skipping Weir's own folders and temp files."""
     own = {PurePosixPath(layout.accepted).parts[0], PurePosixPath(layout.returned).parts[0]}
+    ledger = PurePosixPath(layout.ledger).as_posix()
+    ledger_files = {ledger, f"{ledger}-wal", f"{ledger}-shm", f"{ledger}-journal"}
     waiting: list[tuple[int, str]] = []
     for path in inbox.rglob("*"):
         relative = path.relative_to(inbox)
         parts = relative.parts
         if parts[0] in own or any(p.startswith(".") for p in parts):
             continue
-        if path.is_symlink() or not path.is_file():
+        if path.is_symlink() or not path.is_file() or relative.as_posix() in ledger_files:
             continue
         name = parts[-1]
         if name.startswith("~$") or name.lower().endswith(PARTIAL_SUFFIXES):
@@ -213,7 +215,12 @@ def handle(gate: Gate, relative: str) -> GateEvent:
         return GateEvent(relative, "skipped", "changed while being read")
     provider = provider_of(relative, gate.layout)
     known = gate.ledger.with_hash(sha256)
-    mine = [e for e in known if e.state != "done" and e.file_name == relative and e.provider == provider]
+    same_drop = [
+        e for e in known if e.file_name == relative and e.provider == provider and e.mtime_ns == before[1]
+    ]
+    if any(e.state == "done" for e in same_drop):
+        return GateEvent(relative, "skipped", "another gate has just filed it")
+    mine = [e for e in same_drop if e.state != "done"]
     if mine:
         entry = mine[0]
         if entry.owner != gate.owner:
@@ -223,7 +230,7 @@ def handle(gate: Gate, relative: str) -> GateEvent:
                 return GateEvent(relative, "skipped", "another gate resumed it first", entry.id)
     else:
         key = sha256 if not known else f"{sha256}#{len(known)}"
-        claimed = gate.ledger.claim(key, provider, relative, sha256, before[0], gate.owner)
+        claimed = gate.ledger.claim(key, provider, relative, sha256, before[0], gate.owner, before[1])
         if claimed is None:
             return GateEvent(relative, "skipped", "another gate claimed it", None)
         entry = gate.ledger.get(claimed)

@@ -46,6 +46,8 @@ class Entry:
     filed_at: str | None = None
     done_at: str | None = None
     duplicate_of: int | None = None
+    mtime_ns: int | None = None
+    """Modification time of the file as claimed: tells the same drop from a later identical one."""
 
 
 @dataclass(frozen=True)
@@ -81,7 +83,7 @@ class Ledger(Protocol):
     """What the gate and `weir ledger` need from a ledger; a PostgreSQL one would implement the same."""
 
     def claim(
-        self, key: str, provider: str, file_name: str, sha256: str, size: int, owner: str
+        self, key: str, provider: str, file_name: str, sha256: str, size: int, owner: str, mtime_ns: int = 0
     ) -> int | None:
         """Atomically claim `key`; the new row id, or None if someone already holds it."""
         ...
@@ -134,6 +136,11 @@ MIGRATIONS: Sequence[str] = (
     ALTER TABLE submissions ADD COLUMN duplicate_of INTEGER REFERENCES submissions (id);
     CREATE INDEX submissions_provider ON submissions (provider);
     """,
+    # v3: remember which drop of a file was claimed, so a gate that hashed a file just before
+    # another gate filed it does not take that same file for a second, duplicate submission.
+    """
+    ALTER TABLE submissions ADD COLUMN mtime_ns INTEGER;
+    """,
 )
 SCHEMA_VERSION = len(MIGRATIONS)
 
@@ -149,24 +156,30 @@ def schema_version(connection: sqlite3.Connection) -> int:
 
 
 def migrate(connection: sqlite3.Connection, upto: int = SCHEMA_VERSION) -> int:
-    """Apply the migrations the database lacks, each in its own transaction; the version reached."""
-    current = schema_version(connection)
-    if current > SCHEMA_VERSION:
-        from linter.errors import WeirError
+    """Apply the migrations the database lacks, each in its own transaction; the version reached.
 
-        raise WeirError(f"the ledger was written by a newer Weir (schema v{current}); upgrade Weir")
-    for version in range(current + 1, upto + 1):
+    The version is read again inside each write transaction, so two gates opening a new
+    ledger at the same moment apply every migration exactly once.
+    """
+    while True:
         connection.execute("BEGIN IMMEDIATE")
         try:
-            for statement in MIGRATIONS[version - 1].split(";"):
+            current = schema_version(connection)
+            if current > SCHEMA_VERSION:
+                from linter.errors import WeirError
+
+                raise WeirError(f"the ledger was written by a newer Weir (schema v{current}); upgrade Weir")
+            if current >= upto:
+                connection.execute("COMMIT")
+                return current
+            for statement in MIGRATIONS[current].split(";"):
                 if statement.strip():
                     connection.execute(statement)
-            connection.execute("INSERT INTO schema_version (version) VALUES (?)", (version,))
+            connection.execute("INSERT INTO schema_version (version) VALUES (?)", (current + 1,))
             connection.execute("COMMIT")
         except BaseException:
             connection.execute("ROLLBACK")
             raise
-    return max(current, upto)
 
 
 ENTRY_COLUMNS = tuple(f.name for f in fields(Entry))
@@ -188,13 +201,13 @@ class SqliteLedger:
             raise WeirError(f"{path.name}: not a usable ledger ({error})") from None
 
     def claim(
-        self, key: str, provider: str, file_name: str, sha256: str, size: int, owner: str
+        self, key: str, provider: str, file_name: str, sha256: str, size: int, owner: str, mtime_ns: int = 0
     ) -> int | None:
         try:
             cursor = self.connection.execute(
                 "INSERT INTO submissions (claim_key, provider, file_name, sha256, size, state, owner,"
-                " received_at) VALUES (?, ?, ?, ?, ?, 'claimed', ?, ?)",
-                (key, provider, file_name, sha256, size, owner, now()),
+                " received_at, mtime_ns) VALUES (?, ?, ?, ?, ?, 'claimed', ?, ?, ?)",
+                (key, provider, file_name, sha256, size, owner, now(), mtime_ns),
             )
         except sqlite3.IntegrityError:  # the UNIQUE claim_key is the lock between two gates
             return None

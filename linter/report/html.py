@@ -133,6 +133,24 @@ def finding_html(item: letter.Item) -> str:
     )
 
 
+def overflow_html(rest: list[letter.Item]) -> str:
+    """The findings beyond the first SECTIONS, one table row each."""
+    if not rest:
+        return ""
+    rows = "".join(
+        "<tr>" + "".join(f"<td>{escape(v)}</td>" for v in letter.summary_line(i)) + "</tr>" for i in rest
+    )
+    return (
+        f'<section class="overflow"><h2>{len(rest)} more findings, in brief</h2>'
+        '<table class="excerpt"><thead><tr>'
+        + "".join(
+            f'<th scope="col">{h}</th>' for h in ("No.", "Priority", "Where", "Problem", "What is wrong")
+        )
+        + "</tr></thead>"
+        f"<tbody>{rows}</tbody></table></section>"
+    )
+
+
 def table_line(result: TableResult, fail_on_rank: int) -> str:
     name = f"{result.file} [{result.sheet}]" if result.sheet else result.file
     returned = any(f.severity.rank >= fail_on_rank for f in result.findings)
@@ -154,7 +172,10 @@ def render(report: Report) -> str:
         for s in Severity
     )
     files = "".join(table_line(r, report.fail_on.rank) for r in report.results)
-    sections = "".join(finding_html(i) for i in listed) or "<p>Weir found nothing to correct.</p>"
+    sections = (
+        "".join(finding_html(i) for i in listed[: letter.SECTIONS]) or "<p>Weir found nothing to correct.</p>"
+    )
+    sections += overflow_html(listed[letter.SECTIONS :])
     legend = (
         f'<p class="legend">Row numbers and column letters are those your spreadsheet shows. '
         f"Cells to correct are shaded and marked <strong>{letter.MARKER}</strong>. Problems that block "

@@ -16,6 +16,8 @@ LABEL = {
 MARKER = "✗"
 """Printed before every marked cell, so the mark survives black-and-white printing and colour blindness."""
 EMPTY = "(empty)"
+SECTIONS = 100
+"""Findings a letter spells out in full; the rest are listed one line each, so a letter stays readable."""
 ROWS_SPELLED = 12
 """Row numbers a letter spells out before it says "and N more"."""
 
@@ -51,6 +53,17 @@ def items(report: Report) -> list[Item]:
         Item(n, f, f.severity.rank >= report.fail_on.rank, rule_title(f.rule))
         for n, f in enumerate(findings, start=1)
     ]
+
+
+def summary_line(item: Item) -> tuple[str, str, str, str, str]:
+    """(number, label, where, rule title, message) for the one-line list of findings beyond SECTIONS."""
+    place = item.finding.place
+    where = place.file + (f" [{place.sheet}]" if place.sheet else "")
+    if place.rows:
+        where += f", row {rows_text(item.finding)}"
+    if place.columns:
+        where += f", {columns_text(item.finding)}"
+    return (str(item.number), LABEL[item.finding.severity], where, item.title, item.finding.message)
 
 
 def verdict_heading(report: Report) -> str:

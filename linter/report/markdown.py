@@ -116,7 +116,12 @@ def render(report: Report) -> str:
         f"**marked {letter.MARKER}**. Problems that block acceptance come first.",
     ]
     listed = letter.items(report)
-    lines += [finding_md(i) for i in listed] or ["Weir found nothing to correct."]
+    lines += [finding_md(i) for i in listed[: letter.SECTIONS]] or ["Weir found nothing to correct."]
+    rest = listed[letter.SECTIONS :]
+    if rest:
+        table = ["| No. | Priority | Where | Problem | What is wrong |", "|---|---|---|---|---|"]
+        table += ["| " + " | ".join(md(v) for v in letter.summary_line(i)) + " |" for i in rest]
+        lines += [f"## {len(rest)} more findings, in brief", "\n".join(table)]
     lines.append(
         f"*Checked {md(report.created)} by weir {md(report.tool_version)}; submissions are returned "
         f"on {report.fail_on.value}s and above.*"

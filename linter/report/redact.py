@@ -15,6 +15,10 @@ CODE_LIKE = re.compile(r"^[A-Za-z0-9]+([-_/.:][A-Za-z0-9]+)*$")
 """Identifiers such as VB-014 or LAB_7: their shape (AA-999) tells a reader the format without the value."""
 MASKED_MIN = 2
 """Shorter values are not searched for in messages: a lone digit would mangle the counts in them."""
+NUMBER_INSIDE = re.compile(r"\d+(?:[.,]\d+)*")
+ISO_DATE = re.compile(r"\b\d{4}-\d{2}-\d{2}\b")
+LOCAL_DATE = re.compile(r"\b\d{1,2}[./-]\d{1,2}[./-]\d{2,4}\b")
+"""Dates a rule may suggest from a value it re-read (03/04/2026 -> 2026-04-03); hidden with the value."""
 NUMBER = re.compile(r"^[<>]?\s*[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?$")
 
 
@@ -43,10 +47,31 @@ def shape(value: str) -> str:
 
 
 def _masked(text: str, values: Mapping[str, str]) -> str:
-    """`text` with every known value replaced by its shape, longest first so parts don't clash."""
-    for value in sorted(values, key=len, reverse=True):
-        text = text.replace(value, values[value])
-    return text
+    """`text` with every known value replaced by its shape, in one pass, longest value first.
+
+    One pass, so a shape already written (`99/99/9999`) is never masked again.
+    """
+    if not values:
+        return text
+    if any(v == "<date>" or LOCAL_DATE.search(k) for k, v in values.items()):
+        text = ISO_DATE.sub("<date>", text)  # first, or the numbers inside would be masked one by one
+    pattern = re.compile("|".join(re.escape(v) for v in sorted(values, key=len, reverse=True)))
+    return pattern.sub(lambda m: values[m[0]], text)
+
+
+def hidden_values(seen: list[str]) -> dict[str, str]:
+    """Every value to hide, with its shape, plus what rules derive from it when they suggest a fix.
+
+    A fix often repeats a value rewritten ("write 1250 without the separator", "write 2.4"), so the
+    numbers inside a value, with and without thousands separators, are hidden too.
+    """
+    values = {v: shape(v) for v in seen if len(v.strip()) >= MASKED_MIN}
+    for value in seen:
+        for number in NUMBER_INSIDE.findall(value):
+            for form in (number, number.replace(",", "")):
+                if len(form) >= MASKED_MIN and form not in values:
+                    values[form] = "<number>"
+    return values
 
 
 def _evidence(item: Any, values: Mapping[str, str]) -> Any:
@@ -75,7 +100,7 @@ def redact_finding(finding: Finding, hide_values: bool, examples: int | None) ->
     seen = list(finding.examples)
     if finding.excerpt is not None:
         seen += [c for r in finding.excerpt.rows for c in r.cells if c]
-    values = {v: shape(v) for v in seen if len(v.strip()) >= MASKED_MIN}
+    values = hidden_values(seen)
     if excerpt is not None:
         excerpt = replace(
             excerpt,

@@ -16,5 +16,6 @@ from linter.rules import (  # noqa: F401
     units,
     unreadable,
     value_codes,
+    value_patterns,
     values,
 )

@@ -109,3 +109,24 @@ def test_bad_arguments_are_one_line_and_exit_2(project: Path, capsys: pytest.Cap
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 3 and all(line.startswith("weir-hook: ") for line in err)
     assert "did you mean 'contracts'?" in err[2]
+
+
+def test_the_hook_manifest_is_valid_for_pre_commit(repo: Path) -> None:
+    import subprocess
+    import sys
+
+    # Source: pre-commit's own manifest schema (`pre-commit validate-manifest`, from the package index)
+    pre_commit = Path(sys.executable).with_name("pre-commit")
+    done = subprocess.run(
+        [str(pre_commit), "validate-manifest", str(repo / ".pre-commit-hooks.yaml")],
+        capture_output=True,
+        text=True,
+        timeout=120,
+    )
+    assert done.returncode == 0, done.stdout + done.stderr
+    broken = Path("broken-hooks.yaml")
+    broken.write_text("- id: weir-check\n  entry: weir-hook\n")  # no name, no language
+    assert (
+        subprocess.run([str(pre_commit), "validate-manifest", str(broken)], capture_output=True).returncode
+        != 0
+    )

@@ -10,6 +10,7 @@ import subprocess
 import sys
 import time
 from collections import Counter
+from collections.abc import Callable
 from pathlib import Path
 
 import pytest
@@ -19,7 +20,7 @@ import linter.gate.inbox as inbox_module
 from linter.config import InboxLayout
 from linter.gate.answer import guarded
 from linter.gate.inbox import Gate, new_owner, provider_of, run_pass
-from linter.gate.ledger import SqliteLedger
+from linter.gate.ledger import Entry, SqliteLedger
 
 GOOD = "site_id,sampled_on,result\nVB-014,2026-01-12,0.42\nVB-015,2026-01-12,0.38\n"
 BAD = "site_id,sampled_on,result\nVB-014,2026-01-12,\nVB-015,2026-01-12,0.38\n"
@@ -166,7 +167,7 @@ import csv_checker
 from linter.config import InboxLayout
 from linter.gate.answer import guarded
 from linter.gate.inbox import Gate, new_owner, run_pass
-from linter.gate.ledger import SqliteLedger
+from linter.gate.ledger import Entry, SqliteLedger
 
 inbox, marker, delay = Path(sys.argv[1]), Path(sys.argv[2]), float(sys.argv[3])
 csv_checker.DELAY = delay
@@ -223,3 +224,67 @@ def test_two_gates_on_one_inbox_never_handle_a_file_twice(tmp_path: Path) -> Non
     ledger = SqliteLedger(inbox / LAYOUT.ledger)
     assert len(ledger.recent(20)) == 8 and ledger.unfinished() == []
     assert submissions(inbox) == before
+
+
+class LateLedger(SqliteLedger):
+    """A ledger that lets another gate run just before this gate's first look-up of a hash."""
+
+    def __init__(self, path: Path, meanwhile: Callable[[], object]) -> None:
+        super().__init__(path)
+        self.meanwhile: Callable[[], object] | None = meanwhile
+
+    def with_hash(self, sha256: str) -> list[Entry]:
+        if self.meanwhile is not None:
+            run, self.meanwhile = self.meanwhile, None
+            run()
+        return super().with_hash(sha256)
+
+
+def test_a_file_filed_by_another_gate_while_this_one_hashed_it_is_not_taken_for_a_duplicate(
+    tmp_path: Path,
+) -> None:
+    inbox = tmp_path / "inbox"
+    drop(inbox, "north-lab/chem-2026-01.csv", GOOD)
+    other = gate(inbox)
+    ledger = LateLedger(inbox / LAYOUT.ledger, lambda: run_pass(other))
+    this = Gate(inbox, LAYOUT, ledger, guarded(check_csv), new_owner())
+    assert [(e.action, e.reason) for e in run_pass(this)] == [("skipped", "another gate has just filed it")]
+    assert len(ledger.recent(10)) == 1 and ledger.unfinished() == []
+    assert not (inbox / "returned").exists()
+
+
+def test_the_same_file_dropped_again_later_is_a_duplicate(tmp_path: Path) -> None:
+    inbox = tmp_path / "inbox"
+    drop(inbox, "north-lab/chem-2026-01.csv", GOOD)
+    run_pass(gate(inbox))
+    drop(inbox, "north-lab/chem-2026-01.csv", GOOD)
+    assert [e.action for e in run_pass(gate(inbox))] == ["duplicate"]
+
+
+def test_the_ledger_records_the_published_sha256_of_a_submission(tmp_path: Path) -> None:
+    inbox = tmp_path / "inbox"
+    drop(inbox, "north-lab/abc.csv", "abc")  # three bytes; the stand-in checker returns it as unreadable
+    (event,) = run_pass(gate(inbox))
+    entry = SqliteLedger(inbox / LAYOUT.ledger).get(event.entry or 0)
+    # Source: NIST FIPS 180-4 examples (CSRC "SHA256.pdf"), one-block message "abc"
+    assert entry.sha256 == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+    assert entry.size == 3
+    # Source: ISO 8601 extended format with a UTC offset, as read by Python's datetime.fromisoformat
+    from datetime import datetime, timedelta
+
+    for stamp in (entry.received_at, entry.checked_at, entry.filed_at, entry.done_at):
+        assert stamp is not None and datetime.fromisoformat(stamp).utcoffset() == timedelta(0)
+    # Source: SQLite documentation, PRAGMA integrity_check answers the single row "ok" for a sound file
+    assert SqliteLedger(inbox / LAYOUT.ledger).connection.execute("PRAGMA integrity_check").fetchall() == [
+        ("ok",)
+    ]
+
+
+def test_a_ledger_kept_in_plain_sight_inside_the_inbox_is_not_taken_for_a_submission(tmp_path: Path) -> None:
+    inbox = tmp_path / "inbox"
+    layout = InboxLayout(settle_seconds=0, ledger="gate-ledger.sqlite")
+    drop(inbox, "north-lab/chem-2026-01.csv", GOOD)
+    keeper = Gate(inbox, layout, SqliteLedger(inbox / layout.ledger), guarded(check_csv), new_owner())
+    assert [e.file for e in run_pass(keeper)] == ["north-lab/chem-2026-01.csv"]
+    assert [e.file for e in run_pass(keeper)] == []
+    assert (inbox / "gate-ledger.sqlite").is_file()

@@ -76,7 +76,7 @@ def test_migration_from_v1_keeps_rows_and_adds_the_new_column(tmp_path: Path) ->
     ledger = SqliteLedger(path)
     assert schema_version(ledger.connection) == SCHEMA_VERSION == len(MIGRATIONS) >= 2
     columns = {row[1] for row in ledger.connection.execute("PRAGMA table_info(submissions)")}
-    assert "duplicate_of" in columns
+    assert {"duplicate_of", "mtime_ns"} <= columns
     (entry,) = ledger.with_hash("h")
     assert (entry.file_name, entry.duplicate_of) == ("north-lab/a.csv", None)
 
@@ -97,3 +97,34 @@ def test_a_file_that_is_not_a_database_is_a_one_line_error(tmp_path: Path) -> No
     with pytest.raises(WeirError, match="not a usable ledger"):
         SqliteLedger(path)
     assert path.read_text() == "site_id,result\nVB-001,0.4\n"
+
+
+OPEN_LEDGER = """
+import sys, time
+from pathlib import Path
+from linter.gate.ledger import SqliteLedger
+start = float(sys.argv[2])
+time.sleep(max(0.0, start - time.time()))
+SqliteLedger(Path(sys.argv[1])).close()
+"""
+
+
+def test_gates_opening_a_new_ledger_at_once_migrate_it_once(tmp_path: Path) -> None:
+    import subprocess
+    import sys
+    import time
+
+    script = tmp_path / "open_ledger.py"
+    script.write_text(OPEN_LEDGER)
+    start = str(time.time() + 1.5)  # every process is imported and waiting before the first opens
+    processes = [
+        subprocess.Popen(
+            [sys.executable, str(script), str(tmp_path / "ledger.sqlite"), start], stderr=subprocess.PIPE
+        )
+        for _ in range(4)
+    ]
+    errors = [p.communicate(timeout=60)[1].decode() for p in processes]
+    assert [p.returncode for p in processes] == [0, 0, 0, 0], errors
+    check = sqlite3.connect(tmp_path / "ledger.sqlite")
+    versions = [v for (v,) in check.execute("SELECT version FROM schema_version ORDER BY version")]
+    assert versions == list(range(1, SCHEMA_VERSION + 1))

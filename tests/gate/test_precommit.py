@@ -35,6 +35,7 @@ def test_pre_commit_rejects_a_bad_submission_and_lets_a_good_one_through(
     pre_commit = Path(sys.executable).with_name("pre-commit")
     if shutil.which("git") is None or not pre_commit.exists():
         pytest.fail("this test needs git and pre-commit (in the test extras)")
+    # Source: the real pre-commit from the package index runs the hooks; nothing of Weir's stands in for it.
     # The hooks come from a clone of this project at its current commit, as a user would pin it.
     source = tmp_path / "weir-source"
     subprocess.run(["git", "clone", "-q", str(repo), str(source)], check=True, timeout=300)

@@ -82,6 +82,8 @@ def test_settings_in_pyproject_are_read_from_tool_weir(tmp_path: Path) -> None:
         ("[limits]\nmax_rows = [1, 2]\n", "[limits] must be a table of plain values"),
         ("fail_on = \n", "not valid TOML"),
         ('colour = "red"\n', "unknown setting 'colour' (known: contracts"),
+        ('[inbox]\naccepted = "../filed"\n', "inbox 'accepted' must be a path inside the inbox"),
+        ('[inbox]\nledger = "/var/ledger.sqlite"\n', "inbox 'ledger' must be a path inside the inbox"),
     ],
 )
 def test_bad_settings_say_which_key_failed(tmp_path: Path, text: str, message: str) -> None:

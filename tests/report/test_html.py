@@ -117,3 +117,24 @@ def test_layout_finding_shows_the_engines_pandas_code(report: Report) -> None:
     assert "df.melt(id_vars=ids, value_vars=[&#x27;2019&#x27;, &#x27;2020&#x27;]" in text
     odd = Finding("layout.x", Severity.NOTE, "m", Place("f.csv"), step={"step": "not_a_step"})
     assert "in pandas" not in html.render(replace(report, results=(), findings=(odd,)))
+
+
+def test_a_long_letter_spells_out_the_first_findings_and_lists_the_rest(report: Report) -> None:
+    many = tuple(
+        Finding(
+            "values.x", Severity.WARNING, f"Problem <{i}>", Place("f.csv", None, (i + 2,), ("c",), ("A",))
+        )
+        for i in range(130)
+    )
+    tree = parse_strict(html.render(replace(report, results=(), findings=many)))
+    sections = tree.findall(".//section")  # type: ignore[attr-defined]
+    assert len(sections) == 101 and sections[-1].get("class") == "overflow"
+    rows = sections[-1].findall(".//tbody/tr")
+    assert len(rows) == 30
+    assert ["".join(td.itertext()) for td in rows[0]] == [
+        "101",
+        "Should fix",
+        "f.csv, row 102, c (column A)",
+        "values.x",
+        "Problem <100>",
+    ]

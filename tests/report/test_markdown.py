@@ -84,3 +84,13 @@ def test_pandas_code_of_the_step_is_included(report: Report) -> None:
     tree = rendered(markdown.render(report))
     codes = ["".join(c.itertext()) for c in tree.iter("code")]  # type: ignore[attr-defined]
     assert any("df.melt(" in c for c in codes)
+
+
+def test_a_long_markdown_letter_lists_the_rest_in_a_table(report: Report) -> None:
+    many = tuple(
+        Finding("values.x", Severity.NOTE, f"P|{i}", Place("f.csv", None, (i + 2,))) for i in range(103)
+    )
+    tree = rendered(markdown.render(replace(report, results=(), findings=many)))
+    assert len(tree.findall(".//h2")) == 101  # type: ignore[attr-defined]
+    last = tree.findall(".//table")[-1]  # type: ignore[attr-defined]
+    assert ["".join(td.itertext()) for td in last.findall(".//tbody/tr")[-1]][-1] == "P|102"

@@ -69,3 +69,23 @@ def test_examples_cap_without_redaction(report: Report) -> None:
     none = redact(report, hide_values=False, examples=0).results[0].findings[0]
     assert none.examples == () and none.excerpt is None
     assert replace(report).results == redact(report, hide_values=False).results  # no-op without options
+
+
+def test_values_a_fix_derives_from_the_cell_are_hidden_too() -> None:
+    # Invented messages of the kind the value rules write when they propose a corrected value
+    finding = Finding(
+        "values.wrong-type",
+        Severity.ERROR,
+        "2 cells in result cannot be read as a number; at least 0.5 is allowed.",
+        Place("f.csv", None, (2, 4), ("result",), ("D",)),
+        examples=("1,250", "2.4 mg/L", "03/04/2026"),
+        fix="write 1250 without the separator (found '1,250'); write 2.4 alone; "
+        "write 2026-04-03 or 2026-03-04",
+    )
+    hidden = redact(Report("0", "2026-03-10T09:00:00+00:00", Severity.ERROR, (), (finding,))).findings[0]
+    for leaked in ("1250", "1,250", "2.4", "2026-04-03", "2026-03-04", "03/04"):
+        assert leaked not in hidden.fix, (leaked, hidden.fix)
+    assert hidden.fix.startswith("write <number> without the separator (found '<number>')")
+    assert (
+        "at least 0.5 is allowed" in hidden.message
+    )  # the contract's own limits are not the provider's data
