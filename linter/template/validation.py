@@ -6,6 +6,7 @@ from dataclasses import dataclass, replace
 from datetime import date
 
 from linter.contract.model import Variable, VarType
+from linter.dictionary.facts import date_sentence
 from linter.read.cells import number_text
 from linter.template.pattern_example import text_width
 
@@ -179,6 +180,9 @@ def strongest_rule(variable: Variable, is_key: bool, list_source: str | None) ->
             prompt=short(f"A number{unit}, or {variable.censored_prefix}LIMIT below the detection limit."),
             allow_blank=blank,
         )
+    if variable.type in (VarType.DATE, VarType.DATETIME):
+        # A date in an agreed non-ISO form (or a date-time) stays text, so the program cannot rewrite it.
+        return CellRule("none", prompt=short(f"Dates are {date_sentence(variable)}."), allow_blank=blank)
     return CellRule(
         "none", prompt=short(variable.description or f"{variable.type.value}{unit}"), allow_blank=blank
     )

@@ -1,0 +1,63 @@
+"""Columns whose values a spreadsheet would reinterpret are text cells, and they survive the round trip."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from filling import fill
+from openpyxl import load_workbook
+from spreadsheet_rules import accepts, rule_at
+from template_files import make_template
+
+from linter.check import check_paths
+from linter.contract.load import load_contract
+
+CONTRACT = r"""
+contract: gauge-log
+version: 3
+title: Vell Basin gauge log (invented test contract)
+observational_unit: one gauge reading
+keys: [gauge, read_at]
+variables:
+  gauge: {type: category, values: {"007": Lower mill, "010": Upper weir}}
+  read_at: {type: datetime}
+  logged_on: {type: date, date_format: "%d/%m/%Y"}
+  stage_cm: {type: integer, min: 0}
+"""
+
+
+def test_codes_with_leading_zeros_custom_dates_and_datetimes_round_trip(tmp_path: Path) -> None:
+    (tmp_path / "gauge.yaml").write_text(CONTRACT, encoding="utf-8")
+    template = make_template(tmp_path / "gauge.yaml", tmp_path / "gauge.xlsx")
+    workbook = load_workbook(template)
+    ws = workbook["gauge-log"]
+    # Source: ECMA-376 Part 1 §18.8.30 numFmt, built-in id 49 "@" = text (from memory): a text cell keeps
+    # "007" as typed, a dd/mm/yyyy date as typed, and a date-time in ISO 8601 as typed.
+    assert [ws.column_dimensions[c].number_format for c in "ABCD"] == ["@", "@", "@", "0"]
+    gauge, logged = rule_at(workbook, "gauge-log", "A4"), rule_at(workbook, "gauge-log", "C4")
+    assert gauge is not None and gauge.formula1 == '"007,010"' and accepts(gauge, "007", workbook)
+    assert not accepts(gauge, "7", workbook)  # the number 7 is not the code 007
+    assert logged is not None and logged.type is None and "%d/%m/%Y" in logged.prompt  # guidance only
+    stage = rule_at(workbook, "gauge-log", "D4")
+    assert stage is not None and (stage.type, stage.operator, stage.formula1) == (
+        "whole",
+        "greaterThanOrEqual",
+        "0",
+    )
+    filled = fill(
+        template,
+        tmp_path / "filled.xlsx",
+        "gauge-log",
+        [["007", "2026-03-14T09:30:00", "14/03/2026", 42], ["010", "2026-03-14T10:00:00", "15/03/2026", 0]],
+    )
+    report = check_paths([str(filled)], [load_contract(str(tmp_path / "gauge.yaml"))])
+    assert [f for r in report.results for f in r.findings] == [] and report.results[0].rows == 2
+
+
+def test_examples_for_custom_formats_come_back_as_examples(tmp_path: Path) -> None:
+    (tmp_path / "gauge.yaml").write_text(CONTRACT, encoding="utf-8")
+    template = make_template(tmp_path / "gauge.yaml", tmp_path / "gauge.xlsx")
+    ws = load_workbook(template)["gauge-log"]
+    assert ws["C2"].value == "14/03/2026" and ws["A2"].value == "007"  # written in the agreed form, as text
+    report = check_paths([str(template)], [load_contract(str(tmp_path / "gauge.yaml"))])
+    assert [(r.sheet, r.rows) for r in report.results] == [("gauge-log", 0)]  # both examples recognised
