@@ -146,7 +146,7 @@ def variable_facts(variable: Variable, table: TableContract, index: int) -> Vari
     facts: list[tuple[str, str]] = []
     if variable.description:
         facts.append(("Meaning", variable.description))
-    facts.append(("Column", "required" if variable.required else "optional: the column may be left out"))
+    facts.append(("Column", "must be in the file" if variable.required else "optional: may be left out"))
     if is_key:
         facts.append(("Key", "part of the key that identifies a row"))
     if variable.unit:
@@ -199,18 +199,19 @@ def variable_facts(variable: Variable, table: TableContract, index: int) -> Vari
 
 
 def key_sentence(table: TableContract) -> str:
+    """Why the keys identify a row: they name which observational unit the row is about."""
     keys = list(table.keys)
+    unit = table.observational_unit
     if not keys:
         return "This table has no key columns, so rows are not checked for duplicates."
     if len(keys) == 1:
         return (
-            f"The key column {keys[0]} identifies a row: each row is {table.observational_unit}, and "
-            f"no two rows may have the same {keys[0]}, so each value appears once and is never empty."
+            f"The key column is {keys[0]}. Each row is {unit}, so {keys[0]} says which one it is: "
+            "each value may appear in one row only, and it may never be empty."
         )
     return (
-        f"The key columns {listing(keys)} together identify a row: each row is "
-        f"{table.observational_unit}, and that is told apart from every other one by this combination, "
-        "so no two rows may share it and none of these cells may be empty."
+        f"The key columns are {listing(keys)}. Each row is {unit}, so these columns together say which "
+        "one it is: no two rows may have the same combination of them, and none of them may be empty."
     )
 
 

@@ -65,7 +65,9 @@ def test_every_variable_and_every_code_is_in_the_page(name: str) -> None:
 def test_plain_words_for_keys_rules_dates_and_censoring(hostile: Path) -> None:
     facts = contract_facts(load_contract(str(hostile)))
     table = facts.tables[0]
-    assert "The key column site_id identifies a row" in table.key_sentence
+    assert table.key_sentence.startswith(
+        "The key column is site_id. Each row is one <b>visit</b>, so site_id"
+    )
     assert table.rules == ("In every row, level must be less than 4 (written: level < 4).",)
     said = {v.name: dict(v.facts) for v in table.variables}
     # The sample day 2026-03-14 written with the agreed strftime form %d/%m/%Y.
