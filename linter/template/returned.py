@@ -43,13 +43,16 @@ def without_examples(table: Table, rules: TableContract) -> Table:
     """
     examples = example_rows(rules)
     grid = table.grid
-    if not examples or grid.shape[0] < 2 or trimmed([tuple(grid.iloc[0])]) != [rules.names]:
+    width = len(rules.names)
+    # The provider may have added columns after the declared ones; the examples leave them empty.
+    if not examples or grid.shape[0] < 2 or tuple(grid.iloc[0])[:width] != rules.names:
         return table
     drop: list[int] = []
     for offset, example in enumerate(examples, start=1):
         if offset >= grid.shape[0] or table.row_numbers[offset] != offset + 1:
             break
-        if trimmed([tuple(grid.iloc[offset])]) == trimmed([example]):
+        cells = tuple(grid.iloc[offset])
+        if cells[:width] == example and all(c is None for c in cells[width:]):
             drop.append(offset)
     if not drop:
         return table

@@ -61,6 +61,21 @@ def test_a_changed_example_row_is_data_not_dropped(
     assert report.results[0].rows == len(FILLS["sites"]) + 1  # kept: nothing the provider wrote is lost
 
 
+def test_examples_are_still_recognised_after_a_column_is_added(
+    templates: dict[str, Path], demo_contracts: list[Path], tmp_path: Path
+) -> None:
+    filled = fill(templates["sites"], tmp_path / "sites.xlsx", "sites", FILLS["sites"])
+    workbook = load_workbook(filled)
+    workbook["sites"]["I1"] = "remarks"
+    workbook["sites"]["I4"] = "new footbridge"
+    workbook.save(filled)
+    report = check([filled], demo_contracts)
+    assert report.results[0].rows == len(FILLS["sites"])  # examples dropped, the remark kept
+    assert {f.rule for f in every_finding(report)} == {
+        "columns.unexpected"
+    }  # sites says extra_columns: error
+
+
 def test_an_instructions_sheet_the_provider_edited_is_checked(
     templates: dict[str, Path], demo_contracts: list[Path], tmp_path: Path
 ) -> None:
