@@ -72,8 +72,14 @@ def instructions_rows(contract: Contract) -> Rows:
             "2. The first rows in grey italics are examples. Weir ignores them while they are unchanged; "
             "delete them or type over them (a changed example row is checked as data).",
         ),
-        ("3. Leave a cell empty when a value is missing: the drop-downs and number rules refuse codes.",),
-        ("4. Dates: type them as YYYY-MM-DD. Ids and codes are text cells, so leading zeros are kept.",),
+        (
+            "3. Leave a cell empty when a value is missing: the rules of this workbook refuse "
+            "missing-value codes such as NA in number, date and list columns.",
+        ),
+        (
+            "4. Type dates as YYYY-MM-DD unless the column's note gives another agreed form. "
+            "Ids and codes are text cells, so leading zeros are kept.",
+        ),
         ("5. Send the workbook back as .xlsx, or each data sheet as CSV UTF-8.",),
     ]
     for table, described in zip(contract.tables, facts.tables, strict=True):
