@@ -61,3 +61,12 @@ def test_examples_for_custom_formats_come_back_as_examples(tmp_path: Path) -> No
     assert ws["C2"].value == "14/03/2026" and ws["A2"].value == "007"  # written in the agreed form, as text
     report = check_paths([str(template)], [load_contract(str(tmp_path / "gauge.yaml"))])
     assert [(r.sheet, r.rows) for r in report.results] == [("gauge-log", 0)]  # both examples recognised
+
+
+def test_long_prompts_are_cut_to_what_a_spreadsheet_accepts() -> None:
+    from linter.contract.model import Variable
+    from linter.template.validation import cell_rule
+
+    rule = cell_rule(Variable("remarks", description="The site was visited in fog. " * 20), False, None)
+    # From memory of Excel's limits: an input message holds at most 255 characters.
+    assert rule.kind == "none" and len(rule.prompt) == 255 and rule.prompt.endswith("…")

@@ -60,6 +60,11 @@ def test_every_column_has_the_rule_its_variable_declares(templates: dict[str, Pa
             assert dv.type is None and dv.prompt  # guidance only: nothing to enforce
         # Source: ECMA-376 Part 1 §18.3.1.32: errorStyle "stop" refuses the entry (from memory).
         assert dv.errorStyle == "stop"
+        # From memory of ECMA-376 and Excel: showDropDown="1" *hides* the in-cell arrow of a list.
+        assert not dv.showDropDown
+        # From memory of Excel's limits: titles up to 32 characters, prompt and error texts up to 255.
+        assert len(dv.promptTitle or "") <= 32 and len(dv.errorTitle or "") <= 32
+        assert len(dv.prompt or "") <= 255 and len(dv.error or "") <= 255
         if dv.type is not None:
             assert dv.showErrorMessage and dv.error
 
