@@ -27,10 +27,14 @@ def dictionary(
     out: Path | None = typer.Option(
         None, "--out", "-o", help="Write here: .html (printable page) or .md; default Markdown on screen."
     ),
+    since: Path | None = typer.Option(
+        None, "--since", help="The previous version of the contract: list what changed since then."
+    ),
 ) -> int:
     """Write the data dictionary of a contract: what one row is, every column and its rules."""
     from linter.contract.load import load_contract
     from linter.dictionary import html, markdown
+    from linter.dictionary.changes import changes_since
     from linter.dictionary.facts import contract_facts
     from linter.output import write_text_atomic
 
@@ -40,8 +44,11 @@ def dictionary(
         refuse_overwriting(out, contract)
         if out.suffix.lower() not in (*HTML_SUFFIXES, *MARKDOWN_SUFFIXES):
             raise WeirError(f"--out {out}: name an .html or .md file")
-    # The version comparison (`weir diff`, not on main yet) will pass its sentences as `changes` here.
-    facts = contract_facts(load_contract(str(contract)))
+    if since is not None and not since.is_file():
+        raise WeirError(f"no such contract file: {since}")
+    current = load_contract(str(contract))
+    changes = changes_since(load_contract(str(since)), current) if since is not None else None
+    facts = contract_facts(current, changes)
     if out is None:
         sys.stdout.write(markdown.render(facts))
         return 0
