@@ -130,8 +130,12 @@ def data_sheet(ws: Worksheet, table: TableContract, places: dict[tuple[str, str]
 
 def refuse_bad_titles(contract: Contract) -> None:
     titles = [sheet_title(t) for t in contract.tables]
+    reserved = {r.casefold() for r in RESERVED}
     for title in titles:
-        if title in RESERVED or len(title) > 31 or BAD_SHEET_CHARS & set(title):
+        # Sheet names are unique regardless of letter case (from memory of Excel's behaviour).
+        if [t.casefold() for t in titles].count(title.casefold()) > 1:
+            raise WeirError(f"tables named {title!r} differ only in letter case; a workbook cannot hold both")
+        if title.casefold() in reserved or len(title) > 31 or BAD_SHEET_CHARS & set(title):
             # Source: ECMA-376 Part 1 §18.2.19 sheet (name rules from memory: <= 31 characters, no []:*?/\)
             raise WeirError(
                 f"table name {title!r} cannot be a worksheet name (at most 31 characters, none of "
@@ -144,12 +148,8 @@ def build_workbook(contract: Contract) -> Workbook:
     workbook = Workbook()
     places = list_places(contract)
     by_variable = {(p.table, p.variable): p for p in places}
-    first = True
-    for table in contract.tables:
-        ws = workbook.active if first else workbook.create_sheet()
-        assert isinstance(ws, Worksheet)
-        data_sheet(ws, table, by_variable)
-        first = False
+    for index, table in enumerate(contract.tables):
+        data_sheet(workbook.worksheets[0] if index == 0 else workbook.create_sheet(), table, by_variable)
     help_sheet = workbook.create_sheet(INSTRUCTIONS)
     write_rows(help_sheet, instructions_rows(contract))
     help_sheet.column_dimensions["A"].width = 24

@@ -87,6 +87,7 @@ def test_a_bundle_reference_is_checked_across_the_sheets(tmp_path: Path) -> None
         (["c.yaml", "--out", "t.xlsx", "--format", "csv"], "needs a .csv name"),
         (["c.yaml", "--out", "c.yaml"], "would overwrite a contract file"),
         (["bad-name.yaml", "--out", "t.xlsx"], "cannot be a worksheet name"),
+        (["same-name.yaml", "--out", "t.xlsx"], "differ only in letter case"),
     ],
 )
 def test_bad_template_requests_are_one_line_and_exit_2(
@@ -96,6 +97,11 @@ def test_bad_template_requests_are_one_line_and_exit_2(
     (tmp_path / "bad-name.yaml").write_text(
         "contract: x\nversion: 1\ntables:\n"
         "  'Instructions': {observational_unit: one thing, variables: {a: string}}\n",
+        encoding="utf-8",
+    )
+    (tmp_path / "same-name.yaml").write_text(
+        "contract: x\nversion: 1\ntables:\n  Sites: {observational_unit: one site, variables: {a: string}}\n"
+        "  sites: {observational_unit: one site, variables: {a: string}}\n",
         encoding="utf-8",
     )
     result = CliRunner().invoke(app, ["template", *arguments])
