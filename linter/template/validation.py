@@ -183,6 +183,5 @@ def strongest_rule(variable: Variable, is_key: bool, list_source: str | None) ->
     if variable.type in (VarType.DATE, VarType.DATETIME):
         # A date in an agreed non-ISO form (or a date-time) stays text, so the program cannot rewrite it.
         return CellRule("none", prompt=short(f"Dates are {date_sentence(variable)}."), allow_blank=blank)
-    return CellRule(
-        "none", prompt=short(variable.description or f"{variable.type.value}{unit}"), allow_blank=blank
-    )
+    words = {VarType.STRING: "Any text", VarType.CATEGORY: "A code"}.get(variable.type, variable.type.value)
+    return CellRule("none", prompt=short(variable.description or f"{words}{unit}."), allow_blank=blank)
