@@ -12,6 +12,8 @@ from linter.template.validation import inline_list
 INSTRUCTIONS = "Instructions"
 LISTS = "Lists"
 RESERVED = (INSTRUCTIONS, LISTS)
+CELL_LIMIT = 32_767
+"""Most characters one cell holds (from memory of Excel's specifications and limits)."""
 
 Rows = tuple[tuple[str | None, ...], ...]
 
@@ -57,6 +59,10 @@ def variable_line(variable: Variable, facts: ContractFacts, table: TableContract
     )
     said = "; ".join(f"{label}: {text}" for label, text in described.facts)
     codes = "; ".join(f"{c} = {label}" if label else c for c, label in described.codes)
+    if len(codes) > CELL_LIMIT:
+        codes = (
+            f"{len(described.codes)} codes, too many for one cell: see the drop-down or the data dictionary"
+        )
     return (variable.name, described.kind, said, codes or None)
 
 

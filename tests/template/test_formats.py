@@ -70,3 +70,27 @@ def test_long_prompts_are_cut_to_what_a_spreadsheet_accepts() -> None:
     rule = cell_rule(Variable("remarks", description="The site was visited in fog. " * 20), False, None)
     # From memory of Excel's limits: an input message holds at most 255 characters.
     assert rule.kind == "none" and len(rule.prompt) == 255 and rule.prompt.endswith("…")
+
+
+def test_a_huge_code_list_fits_the_instructions_and_comes_back_recognised(tmp_path: Path) -> None:
+    codes = [f"TAXON-{i:05d}" for i in range(3000)]  # about 36 000 characters with separators
+    (tmp_path / "taxa.csv").write_text(
+        "code,label\n" + "".join(f"{c},Taxon {c}\n" for c in codes), encoding="utf-8"
+    )
+    (tmp_path / "c.yaml").write_text(
+        "contract: taxa\nversion: 1\nobservational_unit: one taxon\nkeys: [taxon]\n"
+        "variables:\n  taxon: {type: category, codes: taxa.csv}\n",
+        encoding="utf-8",
+    )
+    template = make_template(tmp_path / "c.yaml", tmp_path / "t.xlsx")
+    workbook = load_workbook(template)
+    longest = max(len(str(c.value)) for row in workbook["Instructions"].iter_rows() for c in row if c.value)
+    assert longest <= 32_767  # from memory of Excel's per-cell limit
+    rule = rule_at(workbook, "taxa", "A4")
+    assert (
+        rule is not None
+        and accepts(rule, "TAXON-02999", workbook)
+        and not accepts(rule, "TAXON-03000", workbook)
+    )
+    report = check_paths([str(template)], [load_contract(str(tmp_path / "c.yaml"))])
+    assert [(r.sheet, r.rows) for r in report.results] == [("taxa", 0)]  # help sheets and examples recognised
