@@ -5,12 +5,15 @@ from __future__ import annotations
 import re
 import sys
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import typer
 
 from linter.cli.app import app, guarded
-from linter.draft.infer import TableDraft
 from linter.errors import WeirError
+
+if TYPE_CHECKING:  # drafting needs pandas; `weir --help` must not load it
+    from linter.draft.infer import TableDraft
 
 DRAFT_HELP = (
     "Propose a contract from files a partner already sent (several files of one kind, or a folder).\n\n"
