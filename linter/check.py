@@ -21,6 +21,7 @@ from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
 from linter.table import Frame, Table, first_row_header
+from linter.template.returned import sheet_owner, template_parts_removed
 
 INTERNAL_RULE = "weir.inspector-failed"
 
@@ -165,7 +166,11 @@ def check_paths(
         except TimedOut:
             results.append(unreadable_result(path, sha, timed_out(bounds.seconds_per_file)))
             continue
-        governed.extend(Governed(t, contract, rules, sha) for t in tables)
+        # A returned Weir template: its help sheets and untouched example rows are not data, and
+        # each sheet named after a table of the contract is governed by that table.
+        owner = contract or sheet_owner(tables, contracts)
+        for table, table_rules in template_parts_removed(tables, owner, rules):
+            governed.append(Governed(table, owner if table_rules else contract, table_rules, sha))
 
     frames = {id(g): first_row_header(g.table) for g in governed}
     by_name: dict[str, Frame] = {}
