@@ -42,6 +42,7 @@ def draft(
         help="Draft the tidy layout of an untidy file (default) or the file as sent.",
     ),
 ) -> int:
+    from linter.config import find_settings
     from linter.draft.infer import draft_table
     from linter.draft.samples import read_samples
 
@@ -55,7 +56,9 @@ def draft(
     if update is not None and out is not None:
         raise WeirError("give either --out (a new contract) or --update (an existing one), not both")
     inputs = {p.resolve() for p in paths}
-    drafted = draft_table(read_samples([str(p) for p in paths], tidy=tidy), name)
+    settings = find_settings(Path.cwd())
+    bounds = settings.bounds if settings else None
+    drafted = draft_table(read_samples([str(p) for p in paths], tidy=tidy, limits=bounds), name)
     if update is not None:
         return run_update(update, drafted, write)
     from linter.draft.write import render_draft
