@@ -1,0 +1,39 @@
+"""What changed since the previous contract version, in sentences, from the contract comparison."""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+from typing import Protocol
+
+from linter.contract.model import Contract
+from linter.errors import WeirError
+
+
+class ContractChange(Protocol):
+    """The part of a change record (from `weir diff`) the dictionary shows."""
+
+    table: str
+    subject: str
+    breaking: bool
+    message: str
+
+
+def change_sentences(changes: Iterable[ContractChange]) -> tuple[str, ...]:
+    """One sentence per change, breaking ones first (a provider must act on those)."""
+    ordered = sorted(changes, key=lambda c: not c.breaking)
+    return tuple(
+        f"{c.table}.{c.subject}: {c.message}"
+        + (" This may make a file that passed fail." if c.breaking else "")
+        for c in ordered
+    )
+
+
+def changes_since(previous: Contract, current: Contract) -> tuple[str, ...]:
+    """Compare with the comparison behind `weir diff`; a one-line error where this build lacks it."""
+    try:
+        from linter.draft.diff import contract_changes  # type: ignore[import-not-found,unused-ignore]
+    except ImportError:
+        raise WeirError(
+            "--since needs the contract comparison of `weir diff`, which this build of Weir does not have"
+        ) from None
+    return change_sentences(contract_changes(previous, current))
