@@ -10,12 +10,16 @@ from linter.errors import WeirError
 
 
 class ContractChange(Protocol):
-    """The part of a change record (from `weir diff`) the dictionary shows."""
+    """The part of a change record (from `weir diff`) the dictionary shows (read-only: records are frozen)."""
 
-    table: str
-    subject: str
-    breaking: bool
-    message: str
+    @property
+    def table(self) -> str: ...
+    @property
+    def subject(self) -> str: ...
+    @property
+    def breaking(self) -> bool: ...
+    @property
+    def message(self) -> str: ...
 
 
 def change_sentences(changes: Iterable[ContractChange]) -> tuple[str, ...]:
