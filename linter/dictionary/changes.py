@@ -10,12 +10,16 @@ from linter.errors import WeirError
 
 
 class ContractChange(Protocol):
-    """The part of a change record (from `weir diff`) the dictionary shows."""
+    """The part of a change record (from `weir diff`) the dictionary shows, read-only like a frozen record."""
 
-    table: str
-    subject: str
-    breaking: bool
-    message: str
+    @property
+    def table(self) -> str: ...
+    @property
+    def subject(self) -> str: ...
+    @property
+    def breaking(self) -> bool: ...
+    @property
+    def message(self) -> str: ...
 
 
 def change_sentences(changes: Iterable[ContractChange]) -> tuple[str, ...]:
@@ -29,9 +33,9 @@ def change_sentences(changes: Iterable[ContractChange]) -> tuple[str, ...]:
 
 
 def changes_since(previous: Contract, current: Contract) -> tuple[str, ...]:
-    """Compare with the comparison behind `weir diff`; a one-line error where this build lacks it."""
+    """Compare with the comparison behind `weir diff` (kept optional: a one-line error if it is absent)."""
     try:
-        from linter.draft.diff import contract_changes  # type: ignore[import-not-found,unused-ignore]
+        from linter.draft.diff import contract_changes
     except ImportError:
         raise WeirError(
             "--since needs the contract comparison of `weir diff`, which this build of Weir does not have"
