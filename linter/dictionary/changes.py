@@ -6,7 +6,6 @@ from collections.abc import Iterable
 from typing import Protocol
 
 from linter.contract.model import Contract
-from linter.errors import WeirError
 
 
 class ContractChange(Protocol):
@@ -33,11 +32,7 @@ def change_sentences(changes: Iterable[ContractChange]) -> tuple[str, ...]:
 
 
 def changes_since(previous: Contract, current: Contract) -> tuple[str, ...]:
-    """Compare with the comparison behind `weir diff` (kept optional: a one-line error if it is absent)."""
-    try:
-        from linter.draft.diff import contract_changes
-    except ImportError:
-        raise WeirError(
-            "--since needs the contract comparison of `weir diff`, which this build of Weir does not have"
-        ) from None
+    """What changed from `previous` to `current`, as the comparison behind `weir diff` judges it."""
+    from linter.draft.diff import contract_changes
+
     return change_sentences(contract_changes(previous, current))
