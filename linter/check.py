@@ -15,7 +15,7 @@ from linter.deadline import TimedOut, time_limit
 from linter.findings import Finding, Place, Severity, sort_key
 from linter.limits import MAX_FOLDER_DEPTH, Limits
 from linter.read import SUPPORTED_SUFFIXES, UnreadableFile, read_path
-from linter.read.folders import expand_paths
+from linter.read.folders import Skipped, expand_paths
 from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
@@ -123,6 +123,15 @@ def run_submission_inspectors(subjects: Sequence[Subject]) -> list[Finding]:
     return sorted(findings, key=sort_key)
 
 
+def not_followed_findings(skipped: Iterable[Skipped]) -> list[Finding]:
+    """Links out of a folder and folders too deep are not files Weir read: they have no table
+    result (and no hash), so they are reported with the whole submission."""
+    return [
+        Finding(s.reason.rule, Severity.ERROR, s.reason.message, Place(file=s.path), fix=s.reason.fix)
+        for s in skipped
+    ]
+
+
 def timed_out(seconds: float) -> UnreadableFile:
     return UnreadableFile(
         "file.timed-out",
@@ -144,12 +153,7 @@ def check_paths(
     governed: list[Governed] = []
     results: list[TableResult] = []
     expansion = expand_paths(paths, SUPPORTED_SUFFIXES, bounds.folder_depth)
-    # Links out of a folder and folders too deep are not files Weir read: they have no table
-    # result (and no hash), so they are reported with the whole submission.
-    not_followed = [
-        Finding(s.reason.rule, Severity.ERROR, s.reason.message, Place(file=s.path), fix=s.reason.fix)
-        for s in expansion.skipped
-    ]
+    not_followed = not_followed_findings(expansion.skipped)
     for path in expansion.files:
         sha = file_sha256(path)
         contract, rules = governing(path, contracts)

@@ -10,7 +10,7 @@ from hypothesis import settings
 
 # `pytest --hypothesis-profile=long` for long property runs by hand; tests that pick their own
 # small example count for the suite read `settings.default.max_examples` to honour it.
-settings.register_profile("long", max_examples=2000, deadline=None)
+settings.register_profile("long", max_examples=400, deadline=None)
 
 REPO = Path(__file__).resolve().parent.parent
 

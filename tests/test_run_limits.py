@@ -163,3 +163,20 @@ def test_settings_are_found_with_their_limits(tmp_path: Path) -> None:
     (tmp_path / "weir.toml").write_text("[limits]\nmax_cell_chars = 10\n", encoding="utf-8")
     settings = find_settings(Path(os.getcwd()))
     assert settings is not None and settings.bounds.read.max_cell_chars == 10
+
+
+def test_links_out_are_reported_when_maps_split_the_run(tmp_path: Path) -> None:
+    contract = "contract: c\nversion: 1\nobservational_unit: one site\nkeys: [site_id]\n"
+    contract += "variables:\n  site_id: {type: string}\n"
+    (tmp_path / "c.yaml").write_text(contract, encoding="utf-8")
+    (tmp_path / "weir.toml").write_text(
+        'contracts = ["c.yaml"]\n[[map]]\nfiles = "inbox/*.csv"\ncontract = "c.yaml"\n', encoding="utf-8"
+    )
+    (tmp_path / "inbox").mkdir()
+    (tmp_path / "inbox" / "a.csv").write_text("site_id\nVB-014\n", encoding="utf-8")
+    (tmp_path / "secret.csv").write_text("site_id\nVB-999\n", encoding="utf-8")
+    os.symlink(tmp_path / "secret.csv", tmp_path / "inbox" / "b.csv")
+    code, _ = run("check", "inbox", "--report", "r.json")
+    data = json.loads((tmp_path / "r.json").read_text(encoding="utf-8"))
+    assert [Path(t["file"]).name for t in data["tables"]] == ["a.csv"]
+    assert [f["rule"] for f in data["submission_findings"]] == ["file.outside-folder"] and code == 1

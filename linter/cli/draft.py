@@ -5,12 +5,15 @@ from __future__ import annotations
 import re
 import sys
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import typer
 
 from linter.cli.app import app, guarded
-from linter.draft.infer import TableDraft
 from linter.errors import WeirError
+
+if TYPE_CHECKING:  # drafting needs pandas; `weir --help` must not load it
+    from linter.draft.infer import TableDraft
 
 DRAFT_HELP = (
     "Propose a contract from files a partner already sent (several files of one kind, or a folder).\n\n"
@@ -39,6 +42,7 @@ def draft(
         help="Draft the tidy layout of an untidy file (default) or the file as sent.",
     ),
 ) -> int:
+    from linter.config import find_settings
     from linter.draft.infer import draft_table
     from linter.draft.samples import read_samples
 
@@ -52,7 +56,9 @@ def draft(
     if update is not None and out is not None:
         raise WeirError("give either --out (a new contract) or --update (an existing one), not both")
     inputs = {p.resolve() for p in paths}
-    drafted = draft_table(read_samples([str(p) for p in paths], tidy=tidy), name)
+    settings = find_settings(Path.cwd())
+    bounds = settings.bounds if settings else None
+    drafted = draft_table(read_samples([str(p) for p in paths], tidy=tidy, limits=bounds), name)
     if update is not None:
         return run_update(update, drafted, write)
     from linter.draft.write import render_draft

@@ -5,23 +5,29 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from linter.check import submitted_files
+from linter.deadline import TimedOut, time_limit
 from linter.draft.infer import Sample
 from linter.errors import WeirError
+from linter.limits import Limits
 from linter.read import UnreadableFile, read_path
 from linter.table import Table, first_row_header
 
 
-def read_samples(paths: Sequence[str], tidy: bool = True) -> list[Sample]:
+def read_samples(paths: Sequence[str], tidy: bool = True, limits: Limits | None = None) -> list[Sample]:
     """One Sample per table of every file named (folders expanded); an unreadable file is a WeirError."""
-    files = submitted_files(paths)
+    bounds = limits or Limits()
+    files = submitted_files(paths, bounds.folder_depth)
     if not files:
         raise WeirError("no CSV, Excel or Parquet file to draft from in " + ", ".join(paths))
     samples: list[Sample] = []
     for path in files:
         try:
-            tables = read_path(path)
+            with time_limit(bounds.seconds_per_file):
+                tables = read_path(path, bounds.read)
         except UnreadableFile as error:
             raise WeirError(f"{path}: {error.message}") from None
+        except TimedOut:
+            raise WeirError(f"{path}: not read within {bounds.seconds_per_file:g} seconds") from None
         samples.extend(sample_of_table(t, tidy) for t in tables if t.grid.shape[0] > 1)
     if not samples:
         raise WeirError("the files hold no rows below a header, so there is nothing to draft from")

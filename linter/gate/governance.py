@@ -60,13 +60,17 @@ def load_governance(settings: Settings | None, named: Sequence[Path] = ()) -> Go
 
 def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severity) -> Report:
     """`weir check`: all files in one run, except that files a `[[map]]` assigns get their own run."""
-    from linter.check import check_paths, submitted_files
+    from linter import __version__
+    from linter.check import check_paths, not_followed_findings
+    from linter.read import SUPPORTED_SUFFIXES
+    from linter.read.folders import expand_paths
 
     if governance.settings is None or not governance.settings.maps:
         return check_paths(paths, list(governance.contracts.values()), fail_on, governance.limits)
     runs: dict[tuple[int, ...], list[str]] = {}
     chosen: dict[tuple[int, ...], tuple[Contract, ...]] = {}
-    for name in submitted_files(paths, governance.limits.folder_depth):
+    expansion = expand_paths(paths, SUPPORTED_SUFFIXES, governance.limits.folder_depth)
+    for name in expansion.files:
         contracts = governance.for_file(name)
         key = tuple(id(c) for c in contracts)
         runs.setdefault(key, []).append(name)
@@ -74,6 +78,9 @@ def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severi
     reports = [
         check_paths(files, list(chosen[key]), fail_on, governance.limits) for key, files in runs.items()
     ]
+    if expansion.skipped:  # the per-map runs see only files, so report what the walk left out here
+        skipped = tuple(not_followed_findings(expansion.skipped))
+        reports.append(Report(__version__, "", fail_on, (), skipped))
     return merged(reports, fail_on)
 
 

@@ -157,3 +157,16 @@ def test_hook_leaves_staged_files_alone(submitted: Path, monkeypatch: pytest.Mon
     code = hook_run([*ODD_NAMES])  # a name starting with "-c" once read as the --contract option
     assert code == 1  # checked (the bomb and the bad chemistry rows fail), not a usage error
     assert hashes(submitted) == before
+
+
+def test_draft_diff_template_and_dictionary_leave_inputs_alone(submitted: Path, tmp_path: Path) -> None:
+    before = hashes(submitted)
+    contract = str(submitted / "contract ü.yaml")
+    out = tmp_path / "made"
+    out.mkdir()
+    assert invoke("draft", "--out", str(out / "drafted.yaml"), "--", str(submitted / ODD_NAMES[0])) == 0
+    assert invoke("draft", "--out", str(out / "bomb.yaml"), "--", str(submitted / ODD_NAMES[3])) == 2
+    assert invoke("diff", contract, str(out / "drafted.yaml")) in (0, 1)
+    assert invoke("template", "--out", str(out / "template.xlsx"), contract) == 0
+    assert invoke("dictionary", "--out", str(out / "dictionary.md"), contract) == 0
+    assert hashes(submitted) == before
