@@ -17,6 +17,7 @@ from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
+from linter.scale.fast_path import read_screened
 from linter.table import Frame, Table, first_row_header
 
 INTERNAL_RULE = "weir.inspector-failed"
@@ -30,6 +31,8 @@ class Governed:
     contract: Contract | None
     rules: TableContract | None
     sha256: str
+    rows: int | None = None
+    """Body rows in the file when `table` holds only the rows a pre-screen kept (large files)."""
 
 
 def submitted_files(paths: Iterable[str]) -> list[str]:
@@ -146,6 +149,10 @@ def check_paths(
     for path in submitted_files(paths):
         sha = file_sha256(path)
         contract, rules = governing(path, contracts)
+        screened = read_screened(path, rules) if rules is not None else None
+        if screened is not None:
+            governed.append(Governed(screened.table, contract, rules, sha, screened.rows))
+            continue
         try:
             tables = read_path(path)
         except UnreadableFile as error:
@@ -169,7 +176,7 @@ def check_paths(
                 sheet=g.table.sheet,
                 sha256=g.sha256,
                 format=g.table.format,
-                rows=len(frame.rows),
+                rows=len(frame.rows) if g.rows is None else g.rows,
                 columns=len(frame.names),
                 contract=g.contract.id if g.contract else None,
                 contract_version=g.contract.version if g.contract else None,

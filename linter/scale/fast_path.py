@@ -1,0 +1,161 @@
+"""Read a large, plain CSV file with Arrow, pre-screen it, and keep only the rows the engine must judge.
+
+The result is an ordinary `Table` (header, a sample of the first rows for the layout heuristics,
+and every row the screen could not pass) with the provider's exact line numbers, so the whole
+inspector catalogue — pandera included — runs on it unchanged. Any doubt about the file (a byte
+order mark, blank lines, quoted line breaks, ragged rows, NUL bytes, bare carriage returns,
+bytes that are not UTF-8) returns None and the file takes the ordinary reader instead.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import os
+from dataclasses import dataclass
+from pathlib import PurePath
+
+import pandas as pd
+import pyarrow as pa
+import pyarrow.compute as pc
+import pyarrow.csv as pacsv
+
+from linter.contract.model import TableContract
+from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
+from linter.scale.screen import duplicated_rows, screen_batch, unscreenable
+from linter.table import Table, unique_labels
+
+FAST_PATH_BYTES = 32 * 1024 * 1024
+"""Files at least this large are pre-screened; smaller ones are quick on the ordinary path."""
+SAMPLE_ROWS = 2000
+"""Leading body rows always kept, so layout and unit heuristics see the file as it starts."""
+SCAN_BLOCK = 16 * 1024 * 1024
+
+
+@dataclass(frozen=True)
+class ScreenedFile:
+    """A large file reduced to what needs judging, and what it was reduced from."""
+
+    table: Table
+    """Header row, leading sample and suspect rows, with the provider's line numbers."""
+    rows: int
+    """Body rows in the whole file."""
+    suspect: int
+    """Body rows the screen sent to the engine (the sample not counted)."""
+
+
+@dataclass(frozen=True)
+class LineCounts:
+    """Byte counts over the whole file that tell whether Arrow's rows are the provider's lines."""
+
+    newlines: int
+    carriage_returns: int
+    nuls: int
+    ends_with_newline: bool
+
+
+def count_lines(path: str) -> LineCounts:
+    newlines = returns = nuls = 0
+    last = b""
+    with open(path, "rb") as handle:
+        for block in iter(lambda: handle.read(SCAN_BLOCK), b""):
+            newlines += block.count(b"\n")
+            returns += block.count(b"\r")
+            nuls += block.count(b"\x00")
+            last = block[-1:]
+    return LineCounts(newlines, returns, nuls, last == b"\n")
+
+
+def plain_head(path: str) -> tuple[str, str] | None:
+    """(delimiter, header line) when the file starts as plain UTF-8 delimited text, else None."""
+    with open(path, "rb") as handle:
+        head = handle.read(SAMPLE_CHARS)
+    if head[:3] == b"\xef\xbb\xbf" or head[:2] in (b"\xff\xfe", b"\xfe\xff") or b"\x00" in head:
+        return None
+    cut = head.rfind(b"\n")
+    if cut < 0:
+        return None
+    try:
+        sample = head[: cut + 1].decode("utf-8")
+    except UnicodeDecodeError:
+        return None
+    if SEPARATOR_HINT.match(sample):
+        return None
+    delimiter = choose_delimiter(sample, complete=False, prefer_tab=PurePath(path).suffix.lower() == ".tsv")
+    return delimiter, sample.split("\n", 1)[0]
+
+
+def read_text_columns(path: str, delimiter: str, width: int) -> pa.Table | None:
+    """Every cell as text (empty -> null), header row included as row 0; None if Arrow refuses."""
+    names = [f"c{i}" for i in range(width)]
+    try:
+        return pacsv.read_csv(
+            path,
+            read_options=pacsv.ReadOptions(column_names=names, block_size=8 << 20),
+            parse_options=pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
+            convert_options=pacsv.ConvertOptions(
+                column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
+            ),
+        )
+    except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
+        return None
+
+
+def grid_of(columns: pa.Table) -> pd.DataFrame:
+    """Arrow text columns as the reader's grid: object cells, None where empty, positional labels."""
+    return pd.DataFrame(
+        {i: pd.Series(columns.column(i).to_pylist(), dtype=object) for i in range(columns.num_columns)}
+    )
+
+
+def read_screened(
+    path: str, contract: TableContract, min_bytes: int | None = None, sample_rows: int | None = None
+) -> ScreenedFile | None:
+    """The file reduced to the rows the engine must see, or None when it takes the ordinary path."""
+    min_bytes = FAST_PATH_BYTES if min_bytes is None else min_bytes
+    sample_rows = SAMPLE_ROWS if sample_rows is None else sample_rows
+    if os.stat(path).st_size < min_bytes or unscreenable(contract) is not None:
+        return None
+    head = plain_head(path)
+    if head is None:
+        return None
+    delimiter, header_line = head
+    header = next(csv.reader(io.StringIO(header_line.rstrip("\r")), delimiter=delimiter), [])
+    if not header:
+        return None
+    counts = count_lines(path)
+    if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
+        return None
+    data = read_text_columns(path, delimiter, len(header))
+    if data is None or data.num_rows < 2:
+        return None
+    # One Arrow row per physical line proves every row number exact (no blank or split lines).
+    if counts.newlines + (0 if counts.ends_with_newline else 1) != data.num_rows:
+        return None
+    names = ["" if v is None else str(v) for v in data.slice(0, 1).to_pylist()[0].values()]
+    labels = unique_labels(names)
+    body = data.slice(1).rename_columns(labels)
+    screened = screen_batch(body, contract)
+    suspect = pc.indices_nonzero(screened.suspect)
+    keep = pc.unique(
+        pa.concat_arrays(
+            [
+                pa.array(range(min(sample_rows, body.num_rows)), pa.int64()),
+                suspect.cast(pa.int64()),
+                duplicated_rows(screened.keys),
+            ]
+        )
+    ).sort()
+    kept = data.take(pc.add(keep, 1))
+    grid = pd.concat([grid_of(data.slice(0, 1)), grid_of(kept)], ignore_index=True)
+    line_numbers = (1, *(int(p) + 2 for p in keep.to_pylist()))
+    table = Table(
+        source=path,
+        sheet=None,
+        grid=grid,
+        row_numbers=line_numbers,
+        format="tsv" if delimiter == "\t" else "csv",
+        encoding="utf-8",
+        delimiter=delimiter,
+    )
+    return ScreenedFile(table, body.num_rows, len(suspect))

@@ -1,0 +1,186 @@
+"""Tell, with Arrow kernels over whole columns, which rows are certainly clean under a table contract.
+
+The screen is deliberately stricter than the engine: a cell passes only in a plain form that the
+pandera engine is known to accept (e.g. a number must look like `12.5`, a date like `2026-03-02`,
+a patterned text must be ASCII). Every row with a cell that does not pass goes to the engine of
+record (pandera, `linter.contract.engine`), which then judges it exactly as it would in a full
+run; a clean row yields no finding from any contract rule, so skipping it changes nothing.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+import pandas as pd
+import pyarrow as pa
+import pyarrow.compute as pc
+
+from linter.contract.convert import PLAIN_INTEGER, PLAIN_NUMBER
+from linter.contract.dates import ISO_DATE
+from linter.contract.model import TableContract, Variable, VarType
+
+SCREENED_TYPES = frozenset(
+    {VarType.STRING, VarType.CATEGORY, VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN, VarType.DATE}
+)
+ISO_FORMS = (None, "%Y-%m-%d")
+BOOLEAN_WORDS = ("true", "false", "1", "0")
+# Longer digit strings may overflow int64 in one engine and not the other: leave them to pandera.
+LONGEST_PLAIN_INTEGER = 15
+
+
+def whole_match(pattern: str) -> str:
+    """The contract pattern as an RE2 whole-text match (the engine anchors with `\\Z` in Python)."""
+    return rf"^(?:{pattern})\z"
+
+
+def re2_accepts(pattern: str) -> bool:
+    try:
+        pc.match_substring_regex(pa.array([""]), whole_match(pattern))
+    except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
+        return False
+    return True
+
+
+def unscreenable(contract: TableContract) -> str | None:
+    """Why this contract cannot be pre-screened (then the file takes the ordinary path), or None."""
+    if contract.comparisons:
+        return "row comparisons"
+    if contract.complete_over:
+        return "complete_over (needs every row)"
+    for variable in contract.variables:
+        if variable.type not in SCREENED_TYPES:
+            return f"{variable.name} has type {variable.type}"
+        if variable.type is VarType.DATE and variable.date_format not in ISO_FORMS:
+            return f"{variable.name} has date_format {variable.date_format}"
+        if variable.references is not None:
+            return f"{variable.name} references another table"
+        if variable.pattern is not None and not re2_accepts(variable.pattern):
+            return f"{variable.name} has a pattern Arrow's regex engine cannot run"
+    return None
+
+
+@dataclass(frozen=True)
+class Screened:
+    """One batch judged: which rows need the engine, and the key columns for duplicate search."""
+
+    suspect: pa.ChunkedArray | pa.Array
+    """True where a row has a cell the screen could not pass."""
+    keys: pa.Table
+    """The key columns as the engine compares them (typed where the engine types them)."""
+
+
+def _falsy(array: pa.Array | pa.ChunkedArray) -> pa.Array | pa.ChunkedArray:
+    return pc.fill_null(array, False)
+
+
+def missing_cells(text: pa.ChunkedArray, codes: Sequence[str]) -> pa.ChunkedArray:
+    """Empty cells and cells whose trimmed text is a missing-value code, as `missing_mask` does."""
+    trimmed = pc.utf8_trim_whitespace(text)
+    codes_set = pa.array(sorted({c.strip() for c in codes} | {""}), pa.string())
+    return pc.or_(pc.is_null(text), _falsy(pc.is_in(trimmed, value_set=codes_set)))
+
+
+def _bound_ok(values: pa.ChunkedArray, variable: Variable, as_date: bool) -> pa.ChunkedArray:
+    ok = pc.is_valid(values)
+    for bound, compare in ((variable.minimum, pc.greater_equal), (variable.maximum, pc.less_equal)):
+        if bound is None:
+            continue
+        scalar = (
+            pa.scalar(pd.Timestamp(str(bound)).as_unit("ns"), pa.timestamp("ns"))
+            if as_date
+            else pa.scalar(float(bound))
+        )
+        ok = pc.and_(ok, _falsy(compare(values, scalar)))
+    return ok
+
+
+def _typed_cells(text: pa.ChunkedArray, variable: Variable) -> tuple[pa.ChunkedArray, pa.ChunkedArray]:
+    """(passes, typed value) for a present cell; typed values are null where the screen gives up."""
+    kind = variable.type
+    if kind in (VarType.NUMBER, VarType.INTEGER):
+        trimmed = pc.utf8_trim_whitespace(text)
+        shape = PLAIN_INTEGER if kind is VarType.INTEGER else PLAIN_NUMBER
+        plain = _falsy(pc.match_substring_regex(trimmed, shape))
+        if kind is VarType.INTEGER:
+            plain = pc.and_(plain, pc.less_equal(pc.utf8_length(trimmed), LONGEST_PLAIN_INTEGER))
+        if variable.censored_prefix:
+            plain = pc.and_(plain, pc.invert(_falsy(pc.starts_with(trimmed, variable.censored_prefix))))
+        values = pc.cast(pc.if_else(plain, trimmed, pa.scalar(None, pa.string())), pa.float64())
+        return pc.and_(plain, _bound_ok(values, variable, as_date=False)), values
+    if kind is VarType.DATE:
+        shaped = _falsy(pc.match_substring_regex(text, ISO_DATE))
+        stamps = pc.strptime(
+            pc.if_else(shaped, text, pa.scalar(None, pa.string())),
+            format="%Y-%m-%d",
+            unit="ns",
+            error_is_null=True,
+        )
+        # Arrow's strptime rolls 2026-02-30 over into March, where pandas refuses it: compare the day.
+        written_day = pc.cast(
+            pc.utf8_slice_codeunits(pc.if_else(shaped, text, "2000-01-01"), 8, 10), pa.int64()
+        )
+        real_day = pc.and_(shaped, _falsy(pc.equal(pc.day(stamps), written_day)))
+        return pc.and_(real_day, _bound_ok(stamps, variable, as_date=True)), stamps
+    if kind is VarType.BOOLEAN:
+        trimmed = pc.utf8_trim_whitespace(text)
+        words = pc.utf8_lower(trimmed)
+        ok = pc.and_(_falsy(pc.string_is_ascii(trimmed)), _falsy(pc.is_in(words, pa.array(BOOLEAN_WORDS))))
+        return ok, words
+    ok = pc.is_valid(text)
+    if variable.pattern is not None:
+        # RE2 and Python's re agree on ASCII text; other text goes to the engine.
+        matched = pc.match_substring_regex(text, whole_match(variable.pattern))
+        ok = pc.and_(ok, pc.and_(_falsy(pc.string_is_ascii(text)), _falsy(matched)))
+    if variable.codes is not None:
+        ok = pc.and_(ok, _falsy(pc.is_in(text, pa.array(variable.codes.values, pa.string()))))
+    return ok, text
+
+
+def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
+    """Judge every present variable of one batch (columns named as in the header, all text)."""
+    suspect: pa.ChunkedArray = pa.chunked_array([pa.nulls(batch.num_rows, pa.bool_()).fill_null(False)])
+    key_columns: dict[str, pa.ChunkedArray] = {}
+    for variable in contract.variables:
+        if variable.name not in batch.column_names:
+            continue
+        text = batch.column(variable.name)
+        missing = missing_cells(text, tuple(contract.missing) + tuple(variable.missing))
+        passes, typed = _typed_cells(text, variable)
+        nullable = variable.nullable and variable.name not in contract.keys
+        clean = pc.if_else(missing, pa.scalar(nullable), _falsy(passes))
+        suspect = pc.or_(suspect, pc.invert(clean))
+        if variable.name in contract.keys:
+            key_columns[variable.name] = pc.if_else(missing, pa.scalar(None, typed.type), typed)
+    return Screened(suspect, pa.table(key_columns) if key_columns else pa.table({}))
+
+
+def _join_ready(keys: pa.Table) -> pa.Table:
+    """Nulls replaced by a filler plus a null flag per column: Arrow's hash join never matches nulls,
+    while the engine (pandas' `duplicated`) counts two empty keys as equal."""
+    columns: dict[str, pa.ChunkedArray] = {}
+    for name in keys.column_names:
+        column = keys.column(name)
+        filler = (
+            pa.scalar("" if pa.types.is_string(column.type) else 0, column.type)
+            if not pa.types.is_timestamp(column.type)
+            else pa.scalar(0, column.type)
+        )
+        columns[f"{name}\x00value"] = pc.fill_null(column, filler)
+        columns[f"{name}\x00empty"] = pc.is_null(column)
+    return pa.table(columns)
+
+
+def duplicated_rows(keys: pa.Table) -> pa.Array:
+    """Sorted row positions whose whole key is shared with another row."""
+    if keys.num_columns == 0 or keys.num_rows == 0:
+        return pa.array([], pa.int64())
+    ready = _join_ready(keys)
+    names = ready.column_names
+    counts = ready.group_by(names).aggregate([([], "count_all")])
+    shared = counts.filter(pc.greater(counts.column("count_all"), 1)).select(names)
+    if shared.num_rows == 0:
+        return pa.array([], pa.int64())
+    numbered = ready.append_column("\x00position", pa.array(range(ready.num_rows), pa.int64()))
+    joined = numbered.join(shared, keys=names, join_type="inner")
+    return pc.unique(joined.column("\x00position")).sort()
