@@ -9,9 +9,12 @@ run; a clean row yields no finding from any contract rule, so skipping it change
 
 from __future__ import annotations
 
+import os
 from collections.abc import Sequence
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import dataclass
 
+import numpy as np
 import pandas as pd
 import pyarrow as pa
 import pyarrow.compute as pc
@@ -137,50 +140,60 @@ def _typed_cells(text: pa.ChunkedArray, variable: Variable) -> tuple[pa.ChunkedA
     return ok, text
 
 
+def _judged(text: pa.ChunkedArray, variable: Variable, contract: TableContract) -> tuple[pa.Array, pa.Array]:
+    """(clean, key value) for one column: clean where the engine would find nothing in the cell."""
+    missing = missing_cells(text, tuple(contract.missing) + tuple(variable.missing))
+    passes, typed = _typed_cells(text, variable)
+    nullable = variable.nullable and variable.name not in contract.keys
+    clean = pc.if_else(missing, pa.scalar(nullable), _falsy(passes))
+    return clean, pc.if_else(missing, pa.scalar(None, typed.type), typed)
+
+
 def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
     """Judge every present variable of one batch (columns named as in the header, all text)."""
+    present = [v for v in contract.variables if v.name in batch.column_names]
+    # Arrow kernels release the GIL, so columns are judged side by side on the available cores.
+    with ThreadPoolExecutor(max_workers=min(len(present), os.cpu_count() or 1) or 1) as pool:
+        judged = list(pool.map(lambda v: _judged(batch.column(v.name), v, contract), present))
     suspect: pa.ChunkedArray = pa.chunked_array([pa.nulls(batch.num_rows, pa.bool_()).fill_null(False)])
-    key_columns: dict[str, pa.ChunkedArray] = {}
-    for variable in contract.variables:
-        if variable.name not in batch.column_names:
-            continue
-        text = batch.column(variable.name)
-        missing = missing_cells(text, tuple(contract.missing) + tuple(variable.missing))
-        passes, typed = _typed_cells(text, variable)
-        nullable = variable.nullable and variable.name not in contract.keys
-        clean = pc.if_else(missing, pa.scalar(nullable), _falsy(passes))
+    for clean, _ in judged:
         suspect = pc.or_(suspect, pc.invert(clean))
-        if variable.name in contract.keys:
-            key_columns[variable.name] = pc.if_else(missing, pa.scalar(None, typed.type), typed)
-    return Screened(suspect, pa.table(key_columns) if key_columns else pa.table({}))
+    keys = {v.name: key for v, (_, key) in zip(present, judged, strict=True) if v.name in contract.keys}
+    return Screened(suspect, pa.table(keys) if keys else pa.table({}))
 
 
-def _join_ready(keys: pa.Table) -> pa.Table:
-    """Nulls replaced by a filler plus a null flag per column: Arrow's hash join never matches nulls,
-    while the engine (pandas' `duplicated`) counts two empty keys as equal."""
-    columns: dict[str, pa.ChunkedArray] = {}
+def plain_integers(indices: pa.Array) -> np.ndarray:
+    """Dictionary indices (no nulls) as int64 without Arrow's slow nullable conversion."""
+    raw = np.frombuffer(indices.buffers()[1], dtype=indices.type.to_pandas_dtype())
+    return raw[indices.offset : indices.offset + len(indices)].astype(np.int64)
+
+
+def key_codes(keys: pa.Table) -> np.ndarray:
+    """A dense integer per distinct whole key (nulls equal to nulls, as in pandas' `duplicated`).
+
+    Each column is dictionary-encoded, and the codes are folded in column by column and encoded
+    again, so the combined code never overflows and no separator can make two keys collide.
+    """
+    combined: np.ndarray | None = None
     for name in keys.column_names:
         column = keys.column(name)
-        filler = (
-            pa.scalar("" if pa.types.is_string(column.type) else 0, column.type)
-            if not pa.types.is_timestamp(column.type)
-            else pa.scalar(0, column.type)
-        )
-        columns[f"{name}\x00value"] = pc.fill_null(column, filler)
-        columns[f"{name}\x00empty"] = pc.is_null(column)
-    return pa.table(columns)
+        if pa.types.is_floating(column.type):
+            column = pc.add(column, 0.0)  # -0.0 + 0.0 is 0.0: equal numbers, one code
+        # One chunk first: chunked input would get one dictionary per chunk.
+        encoded = pc.dictionary_encode(column.combine_chunks(), null_encoding="encode")
+        codes = plain_integers(encoded.indices)
+        if combined is None:
+            combined = codes
+            continue
+        folded = combined * len(encoded.dictionary) + codes
+        combined = plain_integers(pc.dictionary_encode(pa.array(folded)).indices)
+    return np.zeros(keys.num_rows, np.int64) if combined is None else combined
 
 
 def duplicated_rows(keys: pa.Table) -> pa.Array:
     """Sorted row positions whose whole key is shared with another row."""
     if keys.num_columns == 0 or keys.num_rows == 0:
         return pa.array([], pa.int64())
-    ready = _join_ready(keys)
-    names = ready.column_names
-    counts = ready.group_by(names).aggregate([([], "count_all")])
-    shared = counts.filter(pc.greater(counts.column("count_all"), 1)).select(names)
-    if shared.num_rows == 0:
-        return pa.array([], pa.int64())
-    numbered = ready.append_column("\x00position", pa.array(range(ready.num_rows), pa.int64()))
-    joined = numbered.join(shared, keys=names, join_type="inner")
-    return pc.unique(joined.column("\x00position")).sort()
+    codes = key_codes(keys)
+    shared = np.bincount(codes)[codes] > 1
+    return pa.array(np.flatnonzero(shared), pa.int64())

@@ -97,3 +97,16 @@ def test_duplicates_count_empty_keys_as_equal_like_pandas():
     frame = pd.DataFrame({"a": ["x", None, "x", None, "y"], "b": [1.0, 2.0, 1.0, 2.0, 1.0]})
     expected = [i for i, d in enumerate(frame.duplicated(keep=False)) if d]
     assert duplicated_rows(keys).to_pylist() == expected == [0, 1, 2, 3]
+
+
+def test_duplicates_found_across_arrow_chunks():
+    # Arrow's CSV reader hands columns over in chunks; a key repeated in another chunk must count.
+    keys = pa.table(
+        {
+            "sample_id": pa.chunked_array([["S1", "S2"], ["S3", "S1"], ["S2", "S4"]]),
+            "analyte": pa.chunked_array(
+                [["NITRATE", "NITRATE"], ["NITRATE", "NITRATE"], ["CHLORIDE", "NITRATE"]]
+            ),
+        }
+    )
+    assert duplicated_rows(keys).to_pylist() == [0, 3]
