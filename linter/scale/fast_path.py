@@ -17,13 +17,13 @@ from pathlib import PurePath
 
 import pandas as pd
 import pyarrow as pa
-import pyarrow.compute as pc
 import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
-from linter.scale.screen import duplicated_rows, screen_batch, unscreenable
-from linter.table import Table, unique_labels
+from linter.scale.screen import unscreenable
+from linter.scale.stream import KEYS_IN_MEMORY_BYTES, Progress, screen_stream
+from linter.table import Table
 
 FAST_PATH_BYTES = 32 * 1024 * 1024
 """Files at least this large are pre-screened; smaller ones are quick on the ordinary path."""
@@ -109,12 +109,17 @@ def grid_of(columns: pa.Table) -> pd.DataFrame:
 
 
 def read_screened(
-    path: str, contract: TableContract, min_bytes: int | None = None, sample_rows: int | None = None
+    path: str,
+    contract: TableContract,
+    min_bytes: int | None = None,
+    sample_rows: int | None = None,
+    progress: Progress | None = None,
 ) -> ScreenedFile | None:
     """The file reduced to the rows the engine must see, or None when it takes the ordinary path."""
     min_bytes = FAST_PATH_BYTES if min_bytes is None else min_bytes
     sample_rows = SAMPLE_ROWS if sample_rows is None else sample_rows
-    if os.stat(path).st_size < min_bytes or unscreenable(contract) is not None:
+    size = os.stat(path).st_size
+    if size < min_bytes or unscreenable(contract) is not None:
         return None
     head = plain_head(path)
     if head is None:
@@ -126,36 +131,27 @@ def read_screened(
     counts = count_lines(path)
     if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
         return None
-    data = read_text_columns(path, delimiter, len(header))
-    if data is None or data.num_rows < 2:
-        return None
-    # One Arrow row per physical line proves every row number exact (no blank or split lines).
-    if counts.newlines + (0 if counts.ends_with_newline else 1) != data.num_rows:
-        return None
-    names = ["" if v is None else str(v) for v in data.slice(0, 1).to_pylist()[0].values()]
-    labels = unique_labels(names)
-    body = data.slice(1).rename_columns(labels)
-    screened = screen_batch(body, contract)
-    suspect = pc.indices_nonzero(screened.suspect)
-    keep = pc.unique(
-        pa.concat_arrays(
-            [
-                pa.array(range(min(sample_rows, body.num_rows)), pa.int64()),
-                suspect.cast(pa.int64()),
-                duplicated_rows(screened.keys),
-            ]
+    try:
+        found = screen_stream(
+            path, contract, delimiter, len(header), sample_rows, progress, size <= KEYS_IN_MEMORY_BYTES
         )
-    ).sort()
-    kept = data.take(pc.add(keep, 1))
-    grid = pd.concat([grid_of(data.slice(0, 1)), grid_of(kept)], ignore_index=True)
-    line_numbers = (1, *(int(p) + 2 for p in keep.to_pylist()))
+    except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
+        return None  # ragged rows, quoted line breaks, bytes that are not UTF-8: the ordinary reader says
+    # One Arrow row per physical line proves every row number exact (no blank or split lines).
+    if found.rows < 1 or counts.newlines + (0 if counts.ends_with_newline else 1) != found.rows + 1:
+        return None
+    header_grid = pd.DataFrame(
+        {i: pd.Series([name or None], dtype=object) for i, name in enumerate(found.names)}
+    )
+    grid = pd.concat([header_grid, grid_of(found.kept)], ignore_index=True)
+    grid.columns = pd.RangeIndex(grid.shape[1])
     table = Table(
         source=path,
         sheet=None,
         grid=grid,
-        row_numbers=line_numbers,
+        row_numbers=(1, *(p + 2 for p in found.positions)),
         format="tsv" if delimiter == "\t" else "csv",
         encoding="utf-8",
         delimiter=delimiter,
     )
-    return ScreenedFile(table, body.num_rows, len(suspect))
+    return ScreenedFile(table, found.rows, found.suspect)
