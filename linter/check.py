@@ -8,6 +8,7 @@ from dataclasses import dataclass
 from datetime import UTC, datetime
 from fnmatch import fnmatch
 from pathlib import Path, PurePath
+from typing import Protocol
 
 from linter import __version__
 from linter.contract.model import Contract, TableContract
@@ -21,6 +22,14 @@ from linter.scale.fast_path import read_screened
 from linter.table import Frame, Table, first_row_header
 
 INTERNAL_RULE = "weir.inspector-failed"
+
+
+class FileProgress(Protocol):
+    """Told how far the check has got through each submitted file (see `linter.scale.progress`)."""
+
+    def part(self, path: str, fraction: float) -> None: ...
+
+    def done(self, path: str) -> None: ...
 
 
 @dataclass(frozen=True)
@@ -138,55 +147,97 @@ def run_submission_inspectors(subjects: Sequence[Subject]) -> list[Finding]:
     return sorted(findings, key=sort_key)
 
 
+@dataclass(frozen=True)
+class FileOutcome:
+    """One submitted file read (and, when it needs no other table, already inspected)."""
+
+    governed: tuple[Governed, ...]
+    unreadable: TableResult | None = None
+    results: tuple[TableResult | None, ...] = ()
+    """Per governed table, its result when inspected where it was read; None to inspect later."""
+
+
+def read_governed(
+    path: str, contracts: Sequence[Contract], progress: FileProgress | None = None
+) -> FileOutcome:
+    """Read one file under its contract: large plain CSV files through the pre-screen."""
+    sha = file_sha256(path)
+    contract, rules = governing(path, contracts)
+    share = None if progress is None else (lambda fraction: progress.part(path, fraction))
+    screened = read_screened(path, rules, progress=share) if rules is not None else None
+    if screened is not None:
+        return FileOutcome((Governed(screened.table, contract, rules, sha, screened.rows),))
+    try:
+        tables = read_path(path)
+    except UnreadableFile as error:
+        return FileOutcome((), unreadable_result(path, sha, error))
+    return FileOutcome(tuple(Governed(t, contract, rules, sha) for t in tables))
+
+
+def needs_other_tables(rules: TableContract | None) -> bool:
+    return rules is not None and any(v.references is not None for v in rules.variables)
+
+
+def table_result(g: Governed, subject: Subject) -> TableResult:
+    frame = subject.frame
+    return TableResult(
+        file=g.table.source,
+        sheet=g.table.sheet,
+        sha256=g.sha256,
+        format=g.table.format,
+        rows=len(frame.rows) if g.rows is None else g.rows,
+        columns=len(frame.names),
+        contract=g.contract.id if g.contract else None,
+        contract_version=g.contract.version if g.contract else None,
+        table=g.rules.name if g.rules else None,
+        findings=attach_excerpts(
+            run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
+        ),
+        encoding=g.table.encoding,
+    )
+
+
 def check_paths(
-    paths: Sequence[str], contracts: Sequence[Contract], fail_on: Severity = Severity.ERROR
+    paths: Sequence[str],
+    contracts: Sequence[Contract],
+    fail_on: Severity = Severity.ERROR,
+    jobs: int = 1,
+    progress: FileProgress | None = None,
 ) -> Report:
-    """Check every named file (folders expanded) and return the whole report."""
+    """Check every named file (folders expanded) and return the whole report.
+
+    With `jobs` above 1, files are read and inspected in that many worker processes (started
+    once for the whole run); tables that reference another table are inspected here afterwards.
+    """
     import linter.rules.catalogue  # noqa: F401  (registers every rule family)
 
-    governed: list[Governed] = []
-    results: list[TableResult] = []
-    for path in submitted_files(paths):
-        sha = file_sha256(path)
-        contract, rules = governing(path, contracts)
-        screened = read_screened(path, rules) if rules is not None else None
-        if screened is not None:
-            governed.append(Governed(screened.table, contract, rules, sha, screened.rows))
-            continue
-        try:
-            tables = read_path(path)
-        except UnreadableFile as error:
-            results.append(unreadable_result(path, sha, error))
-            continue
-        governed.extend(Governed(t, contract, rules, sha) for t in tables)
+    files = submitted_files(paths)
+    if jobs > 1 and len(files) > 1:
+        from linter.scale.parallel import outcomes_in_parallel
 
-    frames = {id(g): first_row_header(g.table) for g in governed}
+        outcomes = outcomes_in_parallel(files, contracts, jobs, progress)
+    else:
+        outcomes = []
+        for path in files:
+            outcomes.append(read_governed(path, contracts, progress))
+            if progress is not None:
+                progress.done(path)
+    results: list[TableResult] = [o.unreadable for o in outcomes if o.unreadable is not None]
+    governed = [
+        (g, r)
+        for o in outcomes
+        for g, r in zip(o.governed, o.results or (None,) * len(o.governed), strict=True)
+    ]
+    frames = {id(g): first_row_header(g.table) for g, _ in governed}
     by_name: dict[str, Frame] = {}
-    for g in governed:
+    for g, _ in governed:
         if g.rules is not None:
             by_name.setdefault(g.rules.name, frames[id(g)])
     subjects: list[Subject] = []
-    for g in governed:
-        frame = frames[id(g)]
-        subject = Subject(g.table, frame, g.rules, by_name)
+    for g, done in governed:
+        subject = Subject(g.table, frames[id(g)], g.rules, by_name)
         subjects.append(subject)
-        results.append(
-            TableResult(
-                file=g.table.source,
-                sheet=g.table.sheet,
-                sha256=g.sha256,
-                format=g.table.format,
-                rows=len(frame.rows) if g.rows is None else g.rows,
-                columns=len(frame.names),
-                contract=g.contract.id if g.contract else None,
-                contract_version=g.contract.version if g.contract else None,
-                table=g.rules.name if g.rules else None,
-                findings=attach_excerpts(
-                    run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
-                ),
-                encoding=g.table.encoding,
-            )
-        )
+        results.append(done if done is not None else table_result(g, subject))
     whole = tuple(run_submission_inspectors(subjects))
     return Report(
         __version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results), whole

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 from collections.abc import Callable
 from pathlib import Path
 
@@ -71,6 +72,9 @@ def check(
     ),
     fail_on: Severity | None = typer.Option(None, "--fail-on", help="Lowest severity that fails."),
     verbose: bool = typer.Option(False, "--verbose", "-v", help="Show every finding in the summary."),
+    jobs: int = typer.Option(
+        1, "--jobs", "-j", min=0, help="Check files in N worker processes (0: one per CPU core)."
+    ),
 ) -> int:
     from rich.console import Console
 
@@ -100,7 +104,12 @@ def check(
     settings = find_settings(Path.cwd())
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
     governance = load_governance(settings, contract)
-    result = check_governed([str(p) for p in paths], governance, threshold)
+    from linter.check import submitted_files
+    from linter.scale.progress import bytes_meter
+
+    workers = jobs or os.cpu_count() or 1
+    with bytes_meter(submitted_files([str(p) for p in paths]), Console(stderr=True)) as meter:
+        result = check_governed([str(p) for p in paths], governance, threshold, workers, meter)
     if redact or examples is not None:
         result = redacted(result, hide_values=redact, examples=examples)
     console_report.render(result, Console(), verbose=verbose)

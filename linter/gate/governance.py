@@ -5,11 +5,15 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from linter.config import Settings, bundle_members, bundle_of, contract_paths, mapped_contract
 from linter.contract.model import Contract
 from linter.findings import Severity
 from linter.report.model import Report
+
+if TYPE_CHECKING:
+    from linter.check import FileProgress
 
 
 @dataclass(frozen=True)
@@ -53,12 +57,18 @@ def load_governance(settings: Settings | None, named: Sequence[Path] = ()) -> Go
     return Governance(None if named else settings, {p.resolve(): load_contract(str(p)) for p in files})
 
 
-def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severity) -> Report:
+def check_governed(
+    paths: Sequence[str],
+    governance: Governance,
+    fail_on: Severity,
+    jobs: int = 1,
+    progress: FileProgress | None = None,
+) -> Report:
     """`weir check`: all files in one run, except that files a `[[map]]` assigns get their own run."""
     from linter.check import check_paths, submitted_files
 
     if governance.settings is None or not governance.settings.maps:
-        return check_paths(paths, list(governance.contracts.values()), fail_on)
+        return check_paths(paths, list(governance.contracts.values()), fail_on, jobs, progress)
     runs: dict[tuple[int, ...], list[str]] = {}
     chosen: dict[tuple[int, ...], tuple[Contract, ...]] = {}
     for name in submitted_files(paths):
@@ -66,7 +76,7 @@ def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severi
         key = tuple(id(c) for c in contracts)
         runs.setdefault(key, []).append(name)
         chosen[key] = contracts
-    reports = [check_paths(files, list(chosen[key]), fail_on) for key, files in runs.items()]
+    reports = [check_paths(files, list(chosen[key]), fail_on, jobs, progress) for key, files in runs.items()]
     return merged(reports, fail_on)
 
 

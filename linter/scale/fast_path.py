@@ -12,6 +12,7 @@ from __future__ import annotations
 import csv
 import io
 import os
+from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import PurePath
 
@@ -22,7 +23,7 @@ import pyarrow.csv as pacsv
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
 from linter.scale.screen import unscreenable
-from linter.scale.stream import KEYS_IN_MEMORY_BYTES, Progress, screen_stream
+from linter.scale.stream import KEYS_IN_MEMORY_BYTES, screen_stream
 from linter.table import Table
 
 FAST_PATH_BYTES = 32 * 1024 * 1024
@@ -113,7 +114,7 @@ def read_screened(
     contract: TableContract,
     min_bytes: int | None = None,
     sample_rows: int | None = None,
-    progress: Progress | None = None,
+    progress: Callable[[float], None] | None = None,
 ) -> ScreenedFile | None:
     """The file reduced to the rows the engine must see, or None when it takes the ordinary path."""
     min_bytes = FAST_PATH_BYTES if min_bytes is None else min_bytes
@@ -131,9 +132,17 @@ def read_screened(
     counts = count_lines(path)
     if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
         return None
+    lines = max(1, counts.newlines)
+    seen = [0]
+
+    def rows_read(rows: int) -> None:
+        seen[0] += rows
+        if progress is not None:
+            progress(seen[0] / lines)
+
     try:
         found = screen_stream(
-            path, contract, delimiter, len(header), sample_rows, progress, size <= KEYS_IN_MEMORY_BYTES
+            path, contract, delimiter, len(header), sample_rows, rows_read, size <= KEYS_IN_MEMORY_BYTES
         )
     except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
         return None  # ragged rows, quoted line breaks, bytes that are not UTF-8: the ordinary reader says
