@@ -21,14 +21,17 @@ import pyarrow.compute as pc
 import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
+from linter.read.limits import DEFAULT_LIMITS
 from linter.scale.screen import key_codes, screen_batch
 from linter.table import unique_labels
 
 BATCH_BYTES = 16 * 1024 * 1024
-KEYS_IN_MEMORY_BYTES = 1024 * 1024 * 1024
+KEYS_IN_MEMORY_BYTES = 512 * 1024 * 1024
 """Files larger than this find duplicate keys through spilled 64-bit hashes instead of kept keys."""
 PARTITION_ROWS = 4_000_000
 """Rows per hash partition, so one partition (16 bytes a row) stays near 64 MB."""
+LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
+"""UTF-8 needs at most 4 bytes a character."""
 NULL_HASH = np.uint64(0x9E3779B97F4A7C15)
 
 Progress = Callable[[int], None]
@@ -49,19 +52,33 @@ class StreamResult:
 
 
 def text_batches(path: str, delimiter: str, width: int, block: int | None = None) -> Iterator[pa.Table]:
-    """Record batches of text cells (empty -> null), the header line included as the first row."""
+    """Batches of text cells (empty -> null), the header line included as the first row.
+
+    The file is cut at line ends and each piece parsed on its own: with line breaks inside cells
+    refused (`newlines_in_values=False`) that is exactly how Arrow splits records anyway, and only
+    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound).
+    """
     block = BATCH_BYTES if block is None else block
     names = [f"c{i}" for i in range(width)]
-    reader = pacsv.open_csv(
-        path,
-        read_options=pacsv.ReadOptions(column_names=names, block_size=block),
-        parse_options=pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
-        convert_options=pacsv.ConvertOptions(
-            column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
-        ),
+    read_options = pacsv.ReadOptions(column_names=names)
+    parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False)
+    convert_options = pacsv.ConvertOptions(
+        column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
     )
-    for batch in reader:
-        yield pa.Table.from_batches([batch])
+    rest = b""
+    with open(path, "rb") as handle:
+        while True:
+            more = handle.read(block)
+            data = rest + more
+            cut = len(data) if not more else data.rfind(b"\n") + 1
+            piece, rest = data[:cut], data[cut:]
+            if len(rest) > LONGEST_LINE_BYTES:
+                # The ordinary reader refuses such a line with a finding; let it.
+                raise pa.ArrowInvalid("a line longer than the reader's limit")
+            if piece:
+                yield pacsv.read_csv(pa.BufferReader(piece), read_options, parse_options, convert_options)
+            if not more:
+                return
 
 
 def _mix(values: np.ndarray) -> np.ndarray:

@@ -65,3 +65,12 @@ def test_equal_keys_hash_equal_and_spill_finds_them(tmp_path):
     spill.add(hashes[:2], 0)
     spill.add(hashes[2:], 2)
     assert spill.candidates().tolist() == [0, 2, 3, 4]
+
+
+def test_a_runaway_line_goes_to_the_ordinary_reader(tmp_path, contract_file, monkeypatch):
+    monkeypatch.setattr(stream, "BATCH_BYTES", 1024)
+    monkeypatch.setattr(stream, "LONGEST_LINE_BYTES", 4096)
+    path = tmp_path / "results-runaway.csv"
+    path.write_text("sample_id,lab\n" + "S" * 10_000 + ",HERON\n", encoding="utf-8")
+    contract = load_contract(str(contract_file)).tables[0]
+    assert fast_path.read_screened(str(path), contract, 0, 3) is None
