@@ -113,6 +113,17 @@ def write_csv(table: pa.Table, path: Path) -> None:
 MEASURE = textwrap.dedent(
     """
     import json, resource, sys, time
+
+    def peak_resident_mb():
+        # Linux carries ru_maxrss over exec, so a child would start at the parent's peak;
+        # VmHWM is the high-water mark of this process's own memory.
+        try:
+            for line in open("/proc/self/status"):
+                if line.startswith("VmHWM:"):
+                    return int(line.split()[1]) / 1024
+        except OSError:
+            pass
+        return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
     path, contract, how = sys.argv[1], sys.argv[2], sys.argv[3]
     # Every contender loads the same libraries first, so time and memory compare the work alone.
     import pandas as pd
@@ -195,8 +206,8 @@ MEASURE = textwrap.dedent(
         rows = table["rows"]
         failures = sum(f.get("count", 1) for f in table["findings"])
     elapsed = time.perf_counter() - started
-    peak_kb = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
-    print(json.dumps({"seconds": elapsed, "peak_mb": peak_kb / 1024, "rows": rows, "failures": failures}))
+    peak_mb = peak_resident_mb()
+    print(json.dumps({"seconds": elapsed, "peak_mb": peak_mb, "rows": rows, "failures": failures}))
     """
 )
 

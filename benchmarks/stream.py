@@ -27,6 +27,17 @@ BLOCK_ROWS = 1_000_000
 MEASURE = textwrap.dedent(
     """
     import contextlib, io, json, resource, sys, time
+
+    def peak_resident_mb():
+        # Linux carries ru_maxrss over exec, so a child would start at the parent's peak;
+        # VmHWM is the high-water mark of this process's own memory.
+        try:
+            for line in open("/proc/self/status"):
+                if line.startswith("VmHWM:"):
+                    return int(line.split()[1]) / 1024
+        except OSError:
+            pass
+        return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
     path, contract = sys.argv[1], sys.argv[2]
     from linter.cli import app
     import linter.rules.catalogue
@@ -38,7 +49,7 @@ MEASURE = textwrap.dedent(
             pass
     elapsed = time.perf_counter() - started
     table = json.load(open(path + ".json"))["tables"][0]
-    peak_mb = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+    peak_mb = peak_resident_mb()
     print(json.dumps({"seconds": elapsed, "peak_mb": peak_mb, "rows": table["rows"],
                       "findings": len(table["findings"])}))
     """

@@ -158,13 +158,23 @@ class FileOutcome:
 
 
 def read_governed(
-    path: str, contracts: Sequence[Contract], progress: FileProgress | None = None
+    path: str, contracts: Sequence[Contract], progress: FileProgress | None = None, engine: str = "local"
 ) -> FileOutcome:
-    """Read one file under its contract: large plain CSV files through the pre-screen."""
+    """Read one file under its contract: large plain CSV files through the pre-screen.
+
+    With engine "dask" every plain delimited file is pre-screened on the current Dask cluster.
+    """
     sha = file_sha256(path)
     contract, rules = governing(path, contracts)
     share = None if progress is None else (lambda fraction: progress.part(path, fraction))
-    screened = read_screened(path, rules, progress=share) if rules is not None else None
+    if rules is None:
+        screened = None
+    elif engine == "dask":
+        from linter.scale.dask_engine import screen_with_dask
+
+        screened = screen_with_dask(path, rules)
+    else:
+        screened = read_screened(path, rules, progress=share)
     if screened is not None:
         return FileOutcome((Governed(screened.table, contract, rules, sha, screened.rows),))
     try:
@@ -203,6 +213,7 @@ def check_paths(
     fail_on: Severity = Severity.ERROR,
     jobs: int = 1,
     progress: FileProgress | None = None,
+    engine: str = "local",
 ) -> Report:
     """Check every named file (folders expanded) and return the whole report.
 
@@ -212,14 +223,14 @@ def check_paths(
     import linter.rules.catalogue  # noqa: F401  (registers every rule family)
 
     files = submitted_files(paths)
-    if jobs > 1 and len(files) > 1:
+    if jobs > 1 and len(files) > 1 and engine == "local":
         from linter.scale.parallel import outcomes_in_parallel
 
         outcomes = outcomes_in_parallel(files, contracts, jobs, progress)
     else:
         outcomes = []
         for path in files:
-            outcomes.append(read_governed(path, contracts, progress))
+            outcomes.append(read_governed(path, contracts, progress, engine))
             if progress is not None:
                 progress.done(path)
     results: list[TableResult] = [o.unreadable for o in outcomes if o.unreadable is not None]

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import os
 from collections.abc import Callable
+from contextlib import ExitStack
+from enum import StrEnum
 from pathlib import Path
 
 import typer
@@ -13,6 +15,12 @@ from linter.errors import WeirError
 from linter.findings import Severity
 from linter.output import write_bytes_atomic
 from linter.report.model import Report
+
+
+class Engine(StrEnum):
+    LOCAL = "local"
+    DASK = "dask"
+
 
 OUTPUTS_HELP = """Check files against their contract; exit 0 if accepted, 1 if returned, 2 if Weir could not.
 
@@ -75,6 +83,14 @@ def check(
     jobs: int = typer.Option(
         1, "--jobs", "-j", min=0, help="Check files in N worker processes (0: one per CPU core)."
     ),
+    engine: Engine = typer.Option(
+        Engine.LOCAL, "--engine", help="local: this process (and --jobs); dask: pre-screen on a Dask cluster."
+    ),
+    scheduler: str | None = typer.Option(
+        None,
+        "--scheduler",
+        help="Address of the Dask scheduler for --engine dask (default: a local cluster).",
+    ),
 ) -> int:
     from rich.console import Console
 
@@ -108,8 +124,15 @@ def check(
     from linter.scale.progress import bytes_meter
 
     workers = jobs or os.cpu_count() or 1
-    with bytes_meter(submitted_files([str(p) for p in paths]), Console(stderr=True)) as meter:
-        result = check_governed([str(p) for p in paths], governance, threshold, workers, meter)
+    with ExitStack() as stack:
+        if engine is Engine.DASK:
+            from linter.scale.dask_engine import cluster
+
+            stack.enter_context(cluster(scheduler))
+        meter = stack.enter_context(
+            bytes_meter(submitted_files([str(p) for p in paths]), Console(stderr=True))
+        )
+        result = check_governed([str(p) for p in paths], governance, threshold, workers, meter, engine.value)
     if redact or examples is not None:
         result = redacted(result, hide_values=redact, examples=examples)
     console_report.render(result, Console(), verbose=verbose)

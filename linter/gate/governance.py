@@ -63,12 +63,13 @@ def check_governed(
     fail_on: Severity,
     jobs: int = 1,
     progress: FileProgress | None = None,
+    engine: str = "local",
 ) -> Report:
     """`weir check`: all files in one run, except that files a `[[map]]` assigns get their own run."""
     from linter.check import check_paths, submitted_files
 
     if governance.settings is None or not governance.settings.maps:
-        return check_paths(paths, list(governance.contracts.values()), fail_on, jobs, progress)
+        return check_paths(paths, list(governance.contracts.values()), fail_on, jobs, progress, engine)
     runs: dict[tuple[int, ...], list[str]] = {}
     chosen: dict[tuple[int, ...], tuple[Contract, ...]] = {}
     for name in submitted_files(paths):
@@ -76,7 +77,9 @@ def check_governed(
         key = tuple(id(c) for c in contracts)
         runs.setdefault(key, []).append(name)
         chosen[key] = contracts
-    reports = [check_paths(files, list(chosen[key]), fail_on, jobs, progress) for key, files in runs.items()]
+    reports = [
+        check_paths(files, list(chosen[key]), fail_on, jobs, progress, engine) for key, files in runs.items()
+    ]
     return merged(reports, fail_on)
 
 

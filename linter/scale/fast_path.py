@@ -23,7 +23,7 @@ import pyarrow.csv as pacsv
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
 from linter.scale.screen import unscreenable
-from linter.scale.stream import KEYS_IN_MEMORY_BYTES, screen_stream
+from linter.scale.stream import KEYS_IN_MEMORY_BYTES, StreamResult, screen_stream
 from linter.table import Table
 
 FAST_PATH_BYTES = 32 * 1024 * 1024
@@ -109,6 +109,52 @@ def grid_of(columns: pa.Table) -> pd.DataFrame:
     )
 
 
+@dataclass(frozen=True)
+class PlainFile:
+    """A delimited file whose every physical line is one record: safe to cut into pieces anywhere."""
+
+    path: str
+    delimiter: str
+    width: int
+    counts: LineCounts
+
+    def rows_agree(self, body_rows: int) -> bool:
+        """One parsed row per physical line proves every row number exact (no blank or split lines)."""
+        lines = self.counts.newlines + (0 if self.counts.ends_with_newline else 1)
+        return body_rows >= 1 and lines == body_rows + 1
+
+
+def plain_file(path: str) -> PlainFile | None:
+    head = plain_head(path)
+    if head is None:
+        return None
+    delimiter, header_line = head
+    header = next(csv.reader(io.StringIO(header_line.rstrip("\r")), delimiter=delimiter), [])
+    if not header:
+        return None
+    counts = count_lines(path)
+    if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
+        return None
+    return PlainFile(path, delimiter, len(header), counts)
+
+
+def screened_table(plain: PlainFile, found: StreamResult) -> ScreenedFile:
+    """The header, the kept rows and their line numbers as an ordinary `Table`."""
+    header_grid = pd.DataFrame({i: pd.Series([n or None], dtype=object) for i, n in enumerate(found.names)})
+    grid = pd.concat([header_grid, grid_of(found.kept)], ignore_index=True)
+    grid.columns = pd.RangeIndex(grid.shape[1])
+    table = Table(
+        source=plain.path,
+        sheet=None,
+        grid=grid,
+        row_numbers=(1, *(p + 2 for p in found.positions)),
+        format="tsv" if plain.delimiter == "\t" else "csv",
+        encoding="utf-8",
+        delimiter=plain.delimiter,
+    )
+    return ScreenedFile(table, found.rows, found.suspect)
+
+
 def read_screened(
     path: str,
     contract: TableContract,
@@ -122,17 +168,10 @@ def read_screened(
     size = os.stat(path).st_size
     if size < min_bytes or unscreenable(contract) is not None:
         return None
-    head = plain_head(path)
-    if head is None:
+    plain = plain_file(path)
+    if plain is None:
         return None
-    delimiter, header_line = head
-    header = next(csv.reader(io.StringIO(header_line.rstrip("\r")), delimiter=delimiter), [])
-    if not header:
-        return None
-    counts = count_lines(path)
-    if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
-        return None
-    lines = max(1, counts.newlines)
+    lines = max(1, plain.counts.newlines)
     seen = [0]
 
     def rows_read(rows: int) -> None:
@@ -142,25 +181,8 @@ def read_screened(
 
     try:
         found = screen_stream(
-            path, contract, delimiter, len(header), sample_rows, rows_read, size <= KEYS_IN_MEMORY_BYTES
+            path, contract, plain.delimiter, plain.width, sample_rows, rows_read, size <= KEYS_IN_MEMORY_BYTES
         )
     except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
         return None  # ragged rows, quoted line breaks, bytes that are not UTF-8: the ordinary reader says
-    # One Arrow row per physical line proves every row number exact (no blank or split lines).
-    if found.rows < 1 or counts.newlines + (0 if counts.ends_with_newline else 1) != found.rows + 1:
-        return None
-    header_grid = pd.DataFrame(
-        {i: pd.Series([name or None], dtype=object) for i, name in enumerate(found.names)}
-    )
-    grid = pd.concat([header_grid, grid_of(found.kept)], ignore_index=True)
-    grid.columns = pd.RangeIndex(grid.shape[1])
-    table = Table(
-        source=path,
-        sheet=None,
-        grid=grid,
-        row_numbers=(1, *(p + 2 for p in found.positions)),
-        format="tsv" if delimiter == "\t" else "csv",
-        encoding="utf-8",
-        delimiter=delimiter,
-    )
-    return ScreenedFile(table, found.rows, found.suspect)
+    return screened_table(plain, found) if plain.rows_agree(found.rows) else None
