@@ -169,25 +169,34 @@ def plain_integers(indices: pa.Array) -> np.ndarray:
 
 
 def key_codes(keys: pa.Table) -> np.ndarray:
-    """A dense integer per distinct whole key (nulls equal to nulls, as in pandas' `duplicated`).
+    """An integer per row, equal exactly where the whole keys are equal (nulls equal to nulls,
+    as in pandas' `duplicated`).
 
-    Each column is dictionary-encoded, and the codes are folded in column by column and encoded
-    again, so the combined code never overflows and no separator can make two keys collide.
+    Each column is dictionary-encoded and the codes are folded in column by column; when the
+    product of the dictionary sizes could overflow, the folded codes are renumbered first.
     """
-    combined: np.ndarray | None = None
+    combined = np.zeros(keys.num_rows, np.int64)
+    span = 1
     for name in keys.column_names:
         column = keys.column(name)
         if pa.types.is_floating(column.type):
             column = pc.add(column, 0.0)  # -0.0 + 0.0 is 0.0: equal numbers, one code
         # One chunk first: chunked input would get one dictionary per chunk.
         encoded = pc.dictionary_encode(column.combine_chunks(), null_encoding="encode")
-        codes = plain_integers(encoded.indices)
-        if combined is None:
-            combined = codes
-            continue
-        folded = combined * len(encoded.dictionary) + codes
-        combined = plain_integers(pc.dictionary_encode(pa.array(folded)).indices)
-    return np.zeros(keys.num_rows, np.int64) if combined is None else combined
+        size = max(1, len(encoded.dictionary))
+        if span * size >= 1 << 62:
+            _, combined = np.unique(combined, return_inverse=True)
+            span = int(combined.max()) + 1 if len(combined) else 1
+        combined = combined * size + plain_integers(encoded.indices)
+        span *= size
+    return combined
+
+
+def shared_codes(codes: np.ndarray) -> np.ndarray:
+    """True where a code occurs more than once (one sort, no table as large as the code range)."""
+    ordered = np.sort(codes)
+    repeated = ordered[1:][ordered[1:] == ordered[:-1]]
+    return np.isin(codes, repeated) if len(repeated) else np.zeros(len(codes), bool)
 
 
 def duplicated_rows(keys: pa.Table) -> pa.Array:
@@ -195,5 +204,5 @@ def duplicated_rows(keys: pa.Table) -> pa.Array:
     if keys.num_columns == 0 or keys.num_rows == 0:
         return pa.array([], pa.int64())
     codes = key_codes(keys)
-    shared = np.bincount(codes)[codes] > 1
+    shared = shared_codes(codes)
     return pa.array(np.flatnonzero(shared), pa.int64())

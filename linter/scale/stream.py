@@ -22,7 +22,7 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.limits import DEFAULT_LIMITS
-from linter.scale.screen import key_codes, screen_batch
+from linter.scale.screen import key_codes, screen_batch, shared_codes
 from linter.table import unique_labels
 
 BATCH_BYTES = 16 * 1024 * 1024
@@ -232,7 +232,7 @@ def _exact_duplicates(
             return empty
         keys = pa.concat_tables(key_parts)
         codes = key_codes(keys)
-        shared = np.flatnonzero(np.bincount(codes)[codes] > 1)
+        shared = np.flatnonzero(shared_codes(codes))
         candidates = shared
     else:
         candidates = spill.candidates()
@@ -243,7 +243,7 @@ def _exact_duplicates(
         # Verify: only candidates whose keys are really equal (as the engine compares them) stay.
         keys = screen_batch(rows, contract).keys
         codes = key_codes(keys)
-        real = np.bincount(codes)[codes] > 1
+        real = shared_codes(codes)
         return Duplicates(candidates[real], rows.filter(pa.array(real)))
     return Duplicates(candidates, rows)
 
