@@ -191,10 +191,13 @@ MEASURE = textwrap.dedent(
             failures = 0
         except SchemaErrors as error:
             failures = len(error.failure_cases)
-    elif how == "weir":
+    elif how in ("weir", "weir-ordinary"):
         # The real command, as a data manager runs it: contract, report file, exit code.
         import contextlib, io
         from linter.cli import app
+        if how == "weir-ordinary":  # before the fast path: every file through the ordinary reader
+            import linter.scale.fast_path
+            linter.scale.fast_path.FAST_PATH_BYTES = 1 << 62
         out = path + ".report.json"
         with contextlib.redirect_stdout(io.StringIO()):
             try:
@@ -247,6 +250,9 @@ def main() -> None:
     parser.add_argument("--repeat", type=int, default=2)
     parser.add_argument("--broken", type=float, default=0.01, help="share of broken rows in the variant")
     parser.add_argument("--keep", action="store_true", help="keep the generated files")
+    parser.add_argument(
+        "--before", action="store_true", help="also time Weir without the fast path (slow: use few rows)"
+    )
     options = parser.parse_args()
     contenders = ["pyarrow", "pandas", "pandera-pandas"] + (["pandera-polars"] if polars_available() else [])
     folder = Path(tempfile.mkdtemp(prefix="weir-scale-"))
@@ -262,6 +268,7 @@ def main() -> None:
         times = {how: measure(clean, contract, how, options.repeat) for how in contenders}
         weir = measure(clean, contract, "weir", options.repeat)
         weir_broken = measure(broken, contract, "weir", options.repeat)
+        before = measure(clean, contract, "weir-ordinary", 1) if options.before else None
         pandera_broken = measure(broken, contract, "pandera-pandas", options.repeat)
         floor = min(times["pyarrow"]["seconds"], times["pandas"]["seconds"])
         line = {
@@ -286,6 +293,8 @@ def main() -> None:
             "pandera_broken_over_clean": round(
                 pandera_broken["seconds"] / times["pandera-pandas"]["seconds"], 2
             ),
+            "weir_without_fast_path_s": round(before["seconds"], 3) if before else None,
+            "fast_path_speed_up": round(before["seconds"] / weir["seconds"], 1) if before else None,
             "weir_findings_broken": weir_broken["failures"],
             "pandera_failure_cases_broken": pandera_broken["failures"],
         }
