@@ -26,7 +26,7 @@ from linter.scale.screen import unscreenable
 from linter.scale.stream import KEYS_IN_MEMORY_BYTES, StreamResult, screen_stream
 from linter.table import Table
 
-FAST_PATH_BYTES = 32 * 1024 * 1024
+FAST_PATH_BYTES = 8 * 1024 * 1024
 """Files at least this large are pre-screened; smaller ones are quick on the ordinary path."""
 SAMPLE_ROWS = 2000
 """Leading body rows always kept, so layout and unit heuristics see the file as it starts."""
