@@ -129,7 +129,8 @@ def _typed_cells(text: pa.ChunkedArray, variable: Variable) -> tuple[pa.ChunkedA
         trimmed = pc.utf8_trim_whitespace(text)
         words = pc.utf8_lower(trimmed)
         ok = pc.and_(_falsy(pc.string_is_ascii(trimmed)), _falsy(pc.is_in(words, pa.array(BOOLEAN_WORDS))))
-        return ok, words
+        # As a key, "1" and "true" are the same value to the engine.
+        return ok, pc.is_in(words, pa.array(("true", "1")))
     ok = pc.is_valid(text)
     if variable.pattern is not None:
         # RE2 and Python's re agree on ASCII text; other text goes to the engine.

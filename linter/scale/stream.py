@@ -22,7 +22,7 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.limits import DEFAULT_LIMITS
-from linter.scale.screen import key_codes, screen_batch, shared_codes
+from linter.scale.screen import duplicated_rows, key_codes, screen_batch, shared_codes
 from linter.table import unique_labels
 
 BATCH_BYTES = 16 * 1024 * 1024
@@ -230,10 +230,7 @@ def _exact_duplicates(
     if spill is None:
         if not key_parts:
             return empty
-        keys = pa.concat_tables(key_parts)
-        codes = key_codes(keys)
-        shared = np.flatnonzero(shared_codes(codes))
-        candidates = shared
+        candidates = duplicated_rows(pa.concat_tables(key_parts)).to_numpy()
     else:
         candidates = spill.candidates()
     if not len(candidates):

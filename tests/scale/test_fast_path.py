@@ -26,11 +26,11 @@ def row_findings(report: Report) -> list[Finding]:
     return [f for r in report.results for f in r.findings if f.rule.startswith(ROW_RULES)]
 
 
-def both_paths(path: Path, contract: Path, monkeypatch: pytest.MonkeyPatch):
+def both_paths(path: Path, contract: Path, monkeypatch: pytest.MonkeyPatch, sample: int = 5):
     contracts = [load_contract(str(contract))]
     ordinary = check_paths([str(path)], contracts)
     monkeypatch.setattr(fast_path, "FAST_PATH_BYTES", 0)
-    monkeypatch.setattr(fast_path, "SAMPLE_ROWS", 5)
+    monkeypatch.setattr(fast_path, "SAMPLE_ROWS", sample)
     fast = check_paths([str(path)], contracts)
     return ordinary, fast
 
@@ -110,3 +110,21 @@ def test_duplicates_found_across_arrow_chunks():
         }
     )
     assert duplicated_rows(keys).to_pylist() == [0, 3]
+
+
+def test_typed_keys_compare_as_the_engine_compares_them(tmp_path, monkeypatch):
+    # 1 and true are one boolean, 1.50 and 1.5 one number: the engine sees duplicate keys there.
+    contract = tmp_path / "readings.yaml"
+    contract.write_text(
+        "contract: readings\nversion: 1\ntitle: Vell Basin sonde readings (invented)\n"
+        "observational_unit: one reading\nkeys: [site_id, depth_m, surface]\n"
+        "variables:\n  site_id: {type: string}\n  depth_m: {type: number}\n  surface: {type: boolean}\n",
+        encoding="utf-8",
+    )
+    path = tmp_path / "readings.csv"
+    rows = ["VB-001,1.50,true", "VB-001,1.5,1", "VB-002,2,false", "VB-003,2,0", "VB-003,2.0,false"]
+    path.write_text("site_id,depth_m,surface\n" + "\n".join(rows) + "\n", encoding="utf-8")
+    ordinary, fast = both_paths(path, contract, monkeypatch, sample=1)  # only line 2 kept as sample
+    expected = row_findings(ordinary)
+    assert [f.place.rows for f in expected if f.rule == "keys.duplicate"] == [(2, 3), (5, 6)]
+    assert row_findings(fast) == expected
