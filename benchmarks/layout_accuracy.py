@@ -74,6 +74,12 @@ def same_content(expected_text: str, output_text: str) -> bool:
     )
 
 
+def case_family(folder: Path) -> str:
+    """The `family:` line of a case.yaml; other keys (source_style, why) may follow it."""
+    lines = (folder / "case.yaml").read_text(encoding="utf-8").splitlines()
+    return next((line.split(":", 1)[1].strip() for line in lines if line.startswith("family:")), "")
+
+
 @dataclass(frozen=True)
 class CaseResult:
     name: str
@@ -89,7 +95,7 @@ def run_case(folder: Path) -> CaseResult:
     from linter.check import check_paths
     from linter.cli import app
 
-    family = (folder / "case.yaml").read_text(encoding="utf-8").split(":", 1)[1].strip()
+    family = case_family(folder)
     source = next(p for p in sorted(folder.iterdir()) if p.stem == "input")
     with tempfile.TemporaryDirectory() as out:
         result = CliRunner().invoke(app, ["tidy", str(source), "--out", out])

@@ -7,19 +7,23 @@ from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from fnmatch import fnmatch
-from pathlib import Path, PurePath
+from pathlib import PurePath
 from typing import Protocol
 
 from linter import __version__
 from linter.contract.model import Contract, TableContract
+from linter.deadline import TimedOut, time_limit
 from linter.findings import Finding, Place, Severity, sort_key
+from linter.limits import MAX_FOLDER_DEPTH, Limits
 from linter.read import SUPPORTED_SUFFIXES, UnreadableFile, read_path
+from linter.read.folders import Skipped, expand_paths
 from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
 from linter.scale.fast_path import read_screened
 from linter.table import Frame, Table, first_row_header
+from linter.template.returned import sheet_owner, template_parts_removed
 
 INTERNAL_RULE = "weir.inspector-failed"
 
@@ -44,22 +48,9 @@ class Governed:
     """Body rows in the file when `table` holds only the rows a pre-screen kept (large files)."""
 
 
-def submitted_files(paths: Iterable[str]) -> list[str]:
+def submitted_files(paths: Iterable[str], max_depth: int = MAX_FOLDER_DEPTH) -> list[str]:
     """The files named, with folders expanded to the supported files below them, sorted."""
-    found: list[str] = []
-    for name in paths:
-        path = Path(name)
-        if path.is_dir():
-            found.extend(
-                str(p)
-                for p in sorted(path.rglob("*"))
-                if p.is_file()
-                and p.suffix.lower() in SUPPORTED_SUFFIXES
-                and not any(part.startswith(".") for part in p.relative_to(path).parts)
-            )
-        else:
-            found.append(name)
-    return found
+    return list(expand_paths(paths, SUPPORTED_SUFFIXES, max_depth).files)
 
 
 def governing(path: str, contracts: Sequence[Contract]) -> tuple[Contract | None, TableContract | None]:
@@ -107,6 +98,17 @@ def unreadable_result(path: str, sha: str, error: UnreadableFile) -> TableResult
     )
 
 
+def inspector_failed(name: str, error: Exception, place: Place) -> Finding:
+    """The finding that stands in for a check that crashed, so the provider still hears of it."""
+    return Finding(
+        rule=INTERNAL_RULE,
+        severity=Severity.ERROR,
+        message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
+        f"{type(error).__name__}: {error}. Please report this to the data manager.",
+        place=place,
+    )
+
+
 def run_inspectors(subject: Subject) -> list[Finding]:
     """Run every registered inspector on its own: one that fails never hides the others."""
     findings: list[Finding] = []
@@ -116,15 +118,7 @@ def run_inspectors(subject: Subject) -> list[Finding]:
         try:
             findings.extend(inspect(subject))
         except Exception as error:  # a bug in one check must not cost the provider the others
-            findings.append(
-                Finding(
-                    rule=INTERNAL_RULE,
-                    severity=Severity.ERROR,
-                    message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
-                    f"{type(error).__name__}: {error}. Please report this to the data manager.",
-                    place=Place(file=subject.table.source, sheet=subject.table.sheet),
-                )
-            )
+            findings.append(inspector_failed(name, error, Place(subject.table.source, subject.table.sheet)))
     return sorted(findings, key=sort_key)
 
 
@@ -136,15 +130,26 @@ def run_submission_inspectors(subjects: Sequence[Subject]) -> list[Finding]:
             findings.extend(inspect(subjects))
         except Exception as error:  # same isolation as per-table inspectors
             findings.append(
-                Finding(
-                    rule=INTERNAL_RULE,
-                    severity=Severity.ERROR,
-                    message=f"Weir could not finish the check {name.rsplit('.', 1)[-1]}: "
-                    f"{type(error).__name__}: {error}. Please report this to the data manager.",
-                    place=Place(file=subjects[0].table.source if subjects else ""),
-                )
+                inspector_failed(name, error, Place(subjects[0].table.source if subjects else ""))
             )
     return sorted(findings, key=sort_key)
+
+
+def not_followed_findings(skipped: Iterable[Skipped]) -> list[Finding]:
+    """Links out of a folder and folders too deep are not files Weir read: they have no table
+    result (and no hash), so they are reported with the whole submission."""
+    return [
+        Finding(s.reason.rule, Severity.ERROR, s.reason.message, Place(file=s.path), fix=s.reason.fix)
+        for s in skipped
+    ]
+
+
+def timed_out(seconds: float) -> UnreadableFile:
+    return UnreadableFile(
+        "file.timed-out",
+        f"Weir stopped after {seconds:g} seconds on this file, so it was not fully checked.",
+        "Send the data as CSV, or split it into smaller files; the data manager can raise the time limit.",
+    )
 
 
 @dataclass(frozen=True)
@@ -158,38 +163,62 @@ class FileOutcome:
 
 
 def read_governed(
-    path: str, contracts: Sequence[Contract], progress: FileProgress | None = None, engine: str = "local"
+    path: str,
+    contracts: Sequence[Contract],
+    bounds: Limits,
+    progress: FileProgress | None = None,
+    engine: str = "local",
 ) -> FileOutcome:
     """Read one file under its contract: large plain CSV files through the pre-screen.
 
     With engine "dask" every plain delimited file is pre-screened on the current Dask cluster.
+    The pre-screen reads in bounded memory and linear time, so it is not under the time limit.
     """
     sha = file_sha256(path)
     contract, rules = governing(path, contracts)
-    share = None if progress is None else (lambda fraction: progress.part(path, fraction))
-    if rules is None:
-        screened = None
-    elif engine == "dask":
-        from linter.scale.dask_engine import screen_with_dask
+    if rules is not None:
+        if engine == "dask":
+            from linter.scale.dask_engine import screen_with_dask
 
-        screened = screen_with_dask(path, rules)
-    else:
-        screened = read_screened(path, rules, progress=share)
-    if screened is not None:
-        return FileOutcome((Governed(screened.table, contract, rules, sha, screened.rows),))
+            screened = screen_with_dask(path, rules)
+        else:
+            share = None if progress is None else (lambda fraction: progress.part(path, fraction))
+            screened = read_screened(path, rules, progress=share)
+        if screened is not None:
+            return FileOutcome((Governed(screened.table, contract, rules, sha, screened.rows),))
     try:
-        tables = read_path(path)
+        with time_limit(bounds.seconds_per_file):
+            tables = read_path(path, bounds.read)
     except UnreadableFile as error:
         return FileOutcome((), unreadable_result(path, sha, error))
-    return FileOutcome(tuple(Governed(t, contract, rules, sha) for t in tables))
+    except TimedOut:
+        return FileOutcome((), unreadable_result(path, sha, timed_out(bounds.seconds_per_file)))
+    # A returned Weir template: its help sheets and untouched example rows are not data, and
+    # each sheet named after a table of the contract is governed by that table.
+    owner = contract or sheet_owner(tables, contracts)
+    return FileOutcome(
+        tuple(
+            Governed(table, owner if table_rules else contract, table_rules, sha)
+            for table, table_rules in template_parts_removed(tables, owner, rules)
+        )
+    )
 
 
 def needs_other_tables(rules: TableContract | None) -> bool:
     return rules is not None and any(v.references is not None for v in rules.variables)
 
 
-def table_result(g: Governed, subject: Subject) -> TableResult:
+def table_result(g: Governed, subject: Subject, bounds: Limits) -> TableResult:
     frame = subject.frame
+    try:
+        with time_limit(bounds.seconds_per_file):
+            findings = attach_excerpts(
+                run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
+            )
+    except TimedOut:
+        stopped = timed_out(bounds.seconds_per_file)
+        place = Place(file=g.table.source, sheet=g.table.sheet)
+        findings = (Finding(stopped.rule, Severity.ERROR, stopped.message, place, fix=stopped.fix),)
     return TableResult(
         file=g.table.source,
         sheet=g.table.sheet,
@@ -200,9 +229,7 @@ def table_result(g: Governed, subject: Subject) -> TableResult:
         contract=g.contract.id if g.contract else None,
         contract_version=g.contract.version if g.contract else None,
         table=g.rules.name if g.rules else None,
-        findings=attach_excerpts(
-            run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
-        ),
+        findings=tuple(findings),
         encoding=g.table.encoding,
     )
 
@@ -211,6 +238,7 @@ def check_paths(
     paths: Sequence[str],
     contracts: Sequence[Contract],
     fail_on: Severity = Severity.ERROR,
+    limits: Limits | None = None,
     jobs: int = 1,
     progress: FileProgress | None = None,
     engine: str = "local",
@@ -222,15 +250,18 @@ def check_paths(
     """
     import linter.rules.catalogue  # noqa: F401  (registers every rule family)
 
-    files = submitted_files(paths)
+    bounds = limits or Limits()
+    expansion = expand_paths(paths, SUPPORTED_SUFFIXES, bounds.folder_depth)
+    not_followed = not_followed_findings(expansion.skipped)
+    files = list(expansion.files)
     if jobs > 1 and len(files) > 1 and engine == "local":
         from linter.scale.parallel import outcomes_in_parallel
 
-        outcomes = outcomes_in_parallel(files, contracts, jobs, progress)
+        outcomes = outcomes_in_parallel(files, contracts, bounds, jobs, progress)
     else:
         outcomes = []
         for path in files:
-            outcomes.append(read_governed(path, contracts, progress, engine))
+            outcomes.append(read_governed(path, contracts, bounds, progress, engine))
             if progress is not None:
                 progress.done(path)
     results: list[TableResult] = [o.unreadable for o in outcomes if o.unreadable is not None]
@@ -248,8 +279,8 @@ def check_paths(
     for g, done in governed:
         subject = Subject(g.table, frames[id(g)], g.rules, by_name)
         subjects.append(subject)
-        results.append(done if done is not None else table_result(g, subject))
-    whole = tuple(run_submission_inspectors(subjects))
+        results.append(done if done is not None else table_result(g, subject, bounds))
+    whole = tuple(sorted([*not_followed, *run_submission_inspectors(subjects)], key=sort_key))
     return Report(
         __version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results), whole
     )

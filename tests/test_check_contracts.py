@@ -97,3 +97,31 @@ def test_chemistry_alone_notes_that_sites_could_not_be_checked(tmp_path: Path, r
         ("references.table-absent", "note")
     ]
     assert report.verdict == "accepted"
+
+
+FIELD_SHEETS = """site_id,month,visited_on,water_temp_min_c,water_temp_max_c,ph,dissolved_oxygen,observer
+VB-014,2026-01,2026-01-11,3.1,5.0,7.2,11.0,AH
+VB-014,2026-02,2026-02-08,6.4,4.2,7.4,10.6,AH
+VB-015,2026-01,2026-01-11,2.9,4.8,15.1,11.3,RT
+VB-014,2026-03,2026-03-08,5.5,8.0,7.1,9.9,AH
+VB-015,2026-03,2026-03-08,5.2,7.9,7.0,9.8,
+"""
+
+
+def test_field_sheet_comparison_grid_and_range(tmp_path: Path, repo: Path) -> None:
+    write(tmp_path, "sites.csv", SITES)
+    write(tmp_path, "field-sheets-2026-q1.csv", FIELD_SHEETS)
+    loaded = [load_contract(str(repo / "contracts" / f"{n}.yaml")) for n in ("field-sheets", "sites")]
+    report = check_paths(["."], loaded)
+    found = {(f.rule, f.place.columns, f.place.rows, f.examples) for f in report.all_findings()}
+    assert found == {
+        (
+            "rows.comparison",
+            ("water_temp_min_c", "water_temp_max_c"),
+            (3,),
+            ("water_temp_min_c=6.4, water_temp_max_c=4.2",),
+        ),
+        ("values.out-of-range", ("ph",), (4,), ("15.1",)),
+        ("values.missing", ("observer",), (6,), ("",)),
+        ("keys.incomplete-grid", ("site_id", "month"), (), ("site_id=VB-015, month=2026-02",)),
+    }

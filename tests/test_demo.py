@@ -1,4 +1,4 @@
-"""`make demo` end to end: every demo file gets its promised verdict, letters are written, inputs untouched."""
+"""`make demo` end to end: every demo file gets its verdict, letters are written, inputs untouched."""
 
 from __future__ import annotations
 

@@ -58,38 +58,45 @@ def missing_mask(text: pd.Series, codes: tuple[str, ...]) -> pd.Series:
     return text.isna() | text.str.strip().isin(trimmed)
 
 
-def _numbers(
-    text: pd.Series, present: pd.Series, unit: str | None, integer: bool
-) -> tuple[pd.Series, pd.Series, pd.Series]:
-    trimmed = text.str.strip()
-    shape = PLAIN_INTEGER if integer else PLAIN_NUMBER
-    good = present & trimmed.str.match(shape, na=False)
-    values = pd.to_numeric(trimmed.where(good), errors="coerce")
-    reason = pd.Series(None, index=text.index, dtype=object)
-    suggestion = pd.Series(None, index=text.index, dtype=object)
-    bad = present & ~good
+def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tuple[pd.Series, pd.Series]:
+    """Why each of these (failing, trimmed) cells is not a plain number, and what to write instead."""
+    reason = pd.Series(None, index=trimmed.index, dtype=object)
+    suggestion = pd.Series(None, index=trimmed.index, dtype=object)
     if integer:
-        fractional = bad & trimmed.str.match(PLAIN_NUMBER, na=False)
-        reason[fractional] = Problem.NOT_AN_INTEGER
-        bad &= ~fractional
-    thousands = bad & trimmed.str.match(THOUSANDS, na=False)
+        reason[trimmed.str.match(PLAIN_NUMBER, na=False)] = Problem.NOT_AN_INTEGER
+    thousands = reason.isna() & trimmed.str.match(THOUSANDS, na=False)
     reason[thousands] = Problem.THOUSANDS_SEPARATOR
     suggestion[thousands] = trimmed[thousands].str.replace(",", "", regex=False)
-    comma = bad & ~thousands & trimmed.str.match(DECIMAL_COMMA, na=False)
+    comma = reason.isna() & trimmed.str.match(DECIMAL_COMMA, na=False)
     reason[comma] = Problem.DECIMAL_COMMA
     suggestion[comma] = trimmed[comma].str.replace(",", ".", regex=False)
-    parts = trimmed.where(bad & reason.isna()).str.extract(NUMBER_WITH_UNIT)
-    with_unit = bad & reason.isna() & parts[0].notna()
+    parts = trimmed.where(reason.isna()).str.extract(NUMBER_WITH_UNIT)
+    with_unit = reason.isna() & parts[0].notna()
+    written_unit = parts[1].str.strip()
     if unit is None:
         same_unit = with_unit
     else:
-        same_unit = with_unit & (parts[1].str.strip().map(unit_key, na_action="ignore") == unit_key(unit))
+        same_unit = with_unit & (written_unit.map(unit_key, na_action="ignore") == unit_key(unit))
     reason[same_unit] = Problem.UNIT_IN_CELL
     suggestion[same_unit] = parts[0][same_unit]
     other_unit = with_unit & ~same_unit
     reason[other_unit] = Problem.WRONG_UNIT
-    suggestion[other_unit] = parts[1][other_unit].str.strip()
-    reason[bad & reason.isna()] = Problem.NOT_A_NUMBER
+    suggestion[other_unit] = written_unit[other_unit]
+    reason[reason.isna()] = Problem.NOT_A_NUMBER
+    return reason, suggestion
+
+
+def _numbers(
+    text: pd.Series, present: pd.Series, unit: str | None, integer: bool
+) -> tuple[pd.Series, pd.Series, pd.Series]:
+    trimmed = text.str.strip()
+    good = present & trimmed.str.match(PLAIN_INTEGER if integer else PLAIN_NUMBER, na=False)
+    values = pd.to_numeric(trimmed.where(good), errors="coerce")
+    reason = pd.Series(None, index=text.index, dtype=object)
+    suggestion = pd.Series(None, index=text.index, dtype=object)
+    bad = present & ~good
+    if bad.any():  # the usual file is mostly clean: explain only the cells that failed
+        reason[bad], suggestion[bad] = _number_problems(trimmed[bad], unit, integer)
     typed = values.astype("Int64") if integer else values.astype("float64")
     return typed, reason, suggestion
 
@@ -111,7 +118,9 @@ def _booleans(text: pd.Series, present: pd.Series) -> tuple[pd.Series, pd.Series
 
 def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str, ...]) -> Converted:
     """Read `text` (cells as written, None when empty) as `variable` declares; never raises on a cell."""
-    text = text.astype(object).where(text.notna(), None)
+    raw = text.astype(object).where(text.notna(), None)
+    # pandas' pyarrow-backed "str" dtype runs the regular expressions below in C, not per cell in Python.
+    text = raw.astype("str")
     missing = missing_mask(text, tuple(file_missing) + tuple(variable.missing))
     present = ~missing
     censored = pd.Series(False, index=text.index)
@@ -136,7 +145,7 @@ def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str,
     elif kind is VarType.DATETIME:
         values, reason, suggestion = convert_datetimes(text, present, variable.date_format)
     else:
-        values = text.where(present, None)
+        values = raw.where(present, None)
         reason = pd.Series(None, index=text.index, dtype=object)
         suggestion = reason.copy()
     return Converted(values, missing, censored, _or_none(reason), _or_none(suggestion))

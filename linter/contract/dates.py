@@ -47,8 +47,15 @@ def _iso_text(stamps: pd.Series, with_time: bool) -> pd.Series:
 
 def _other_date(text: pd.Series, todo: pd.Series, extra: tuple[tuple[str, str], ...]) -> pd.Series:
     """Where `todo`, the ISO rewrite of a date written in another recognised form, else None."""
+    full = pd.Series(None, index=text.index, dtype=object)
+    if todo.any():  # only the failing cells are tried against the other forms
+        full[todo] = _other_date_forms(text[todo], extra)
+    return full
+
+
+def _other_date_forms(text: pd.Series, extra: tuple[tuple[str, str], ...]) -> pd.Series:
     suggestion = pd.Series(None, index=text.index, dtype=object)
-    left = todo.copy()
+    left = pd.Series(True, index=text.index)
     for pattern, form in extra + OTHER_DATE_FORMS:
         shaped = left & text.str.match(pattern, na=False)
         if not shaped.any():

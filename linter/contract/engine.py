@@ -141,30 +141,22 @@ def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[t
     return tuple((str(r["column"]), _kind_of(r, kinds), str(r["failure_case"])) for _, r in cases.iterrows())
 
 
-def _kinds_of(cases: pd.DataFrame, kinds: Mapping[tuple[str, int], str]) -> pd.Series:
-    """`_kind_of` for every failure case at once: a lookup join, not a Python call per row."""
-    named = cases["check"].map(KINDS_BY_PANDERA_NAME)
-    numbers = pd.to_numeric(cases["check_number"], errors="coerce")
-    table = pd.DataFrame(
-        [(column, number, kind) for (column, number), kind in kinds.items()],
-        columns=["column", "number", "kind"],
-    ).astype({"column": object, "number": "float64", "kind": object})
-    looked_up = (
-        pd.DataFrame({"column": cases["column"].astype(object).to_numpy(), "number": numbers.to_numpy()})
-        .merge(table, on=["column", "number"], how="left")["kind"]
-        .to_numpy()
-    )
-    by_number = pd.Series(looked_up, index=cases.index, dtype=object).where(numbers.notna(), None)
-    return named.astype(object).where(named.notna(), by_number).fillna("other")
-
-
 def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> pd.DataFrame:
     cases = error.failure_cases
-    cases = cases[cases["index"].notna()]
+    cases = cases[cases["index"].notna()].reset_index(drop=True)
+    # Vectorised: a file can fail a check on every row, so no per-case Python here.
+    numbers = pd.to_numeric(cases["check_number"], errors="coerce").astype("Int64")
+    known = pd.DataFrame(
+        [(column, number, kind) for (column, number), kind in kinds.items()],
+        columns=["column", "number", "kind"],
+    ).astype({"column": object, "number": "Int64"})
+    lookup = pd.DataFrame({"column": cases["column"].astype(object), "number": numbers})
+    by_number = lookup.merge(known, how="left", on=["column", "number"])["kind"]
+    by_name = cases["check"].astype(object).map(KINDS_BY_PANDERA_NAME)
     table = pd.DataFrame(
         {
             "column": cases["column"].astype(object),
-            "kind": _kinds_of(cases, kinds) if len(cases) else pd.Series(dtype=object),
+            "kind": by_name.fillna(by_number).fillna("other").astype(object),
             "row": cases["index"].astype(int),
             "value": cases["failure_case"],
         }

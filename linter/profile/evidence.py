@@ -2,10 +2,10 @@
 
 A contract-free false alarm is costly, so the thresholds are stated and conservative:
 
-- a table needs at least MIN_ROWS body rows (MIN_ROWS_WITH_CONTRACT when a contract names the key);
-- a determining column set X must repeat: at most rows / MIN_GROUP distinct values
-  (MIN_GROUP = 3 without a contract, 2 with one) and at least MIN_REPEATED_GROUPS values
-  that occur on two or more rows;
+- a table needs at least MIN_ROWS body rows, with or without a contract: in a small file many
+  dependencies hold by chance (in a 12-row site register, `active` "depends" on `county`);
+- a determining column set X must repeat: at most rows / MIN_GROUP distinct values and at
+  least MIN_REPEATED_GROUPS values that occur on two or more rows;
 - X is never empty (a constant column is no unit), never holds the key, and the dependent
   column is never a key column and takes at least two values;
 - a probable entry error is an approximate dependency (g3 at most MAX_ERROR_SHARE of the rows,
@@ -25,9 +25,7 @@ from linter.profile.keys import unique_combinations
 from linter.profile.normalise import Split, propose_split
 
 MIN_ROWS = 20
-MIN_ROWS_WITH_CONTRACT = 6
 MIN_GROUP = 3
-MIN_GROUP_WITH_CONTRACT = 2
 MIN_REPEATED_GROUPS = 2
 MAX_ERROR_SHARE = 0.05
 MAX_ERROR_ROWS = 10
@@ -61,7 +59,7 @@ def table_key(frame: pd.DataFrame, declared: Sequence[str] = ()) -> tuple[str, .
         return tuple(declared)
     if declared:
         return None
-    keys = unique_combinations(frame).keys
+    keys = unique_combinations(frame, skip_measurements=True).keys
     return keys[0] if keys else None
 
 
@@ -74,21 +72,33 @@ def mixed_units(
     frame: pd.DataFrame, declared_key: Sequence[str] = (), name: str = "rows"
 ) -> MixedUnits | None:
     """The split of `frame` by its strong dependencies, or None when it holds one unit (or is too small)."""
-    with_contract = bool(declared_key)
-    if len(frame) < (MIN_ROWS_WITH_CONTRACT if with_contract else MIN_ROWS) or frame.shape[1] < 3:
+    if len(frame) < MIN_ROWS or frame.shape[1] < 3:
         return None
     key = table_key(frame, declared_key)
     if key is None:
         return None
-    min_group = MIN_GROUP_WITH_CONTRACT if with_contract else MIN_GROUP
+    min_group = MIN_GROUP
     found = [d for d in functional_dependencies(frame, max_lhs=MAX_LHS) if d.determinant]
+    repeating: dict[tuple[str, ...], bool] = {}
+    varied: dict[str, bool] = {}
+
+    def repeats(columns: tuple[str, ...]) -> bool:
+        if columns not in repeating:
+            repeating[columns] = _repeats(frame, columns, min_group)
+        return repeating[columns]
+
+    def varies(column: str) -> bool:
+        if column not in varied:
+            varied[column] = frame[column].nunique(dropna=False) >= 2
+        return varied[column]
+
     strong = tuple(
         d
         for d in found
         if not set(key) <= set(d.determinant)
         and d.dependent not in key
-        and frame[d.dependent].nunique(dropna=False) >= 2
-        and _repeats(frame, d.determinant, min_group)
+        and varies(d.dependent)
+        and repeats(d.determinant)
     )
     if not strong:
         return None
@@ -97,9 +107,7 @@ def mixed_units(
     backing = [
         d
         for d in found
-        if d.dependent in key
-        and not set(key) <= set(d.determinant)
-        and _repeats(frame, d.determinant, min_group)
+        if d.dependent in key and not set(key) <= set(d.determinant) and repeats(d.determinant)
     ]
     split = propose_split(
         [str(c) for c in frame.columns],
@@ -112,14 +120,15 @@ def mixed_units(
 
 def entry_errors(frame: pd.DataFrame, declared_key: Sequence[str] = ()) -> list[EntryError]:
     """Single-column dependencies that hold on all but a few rows, with those rows."""
-    with_contract = bool(declared_key)
-    if len(frame) < (MIN_ROWS_WITH_CONTRACT if with_contract else MIN_ROWS) or frame.shape[1] < 2:
+    if len(frame) < MIN_ROWS or frame.shape[1] < 2:
         return []
     key = set(declared_key)
-    min_group = MIN_GROUP_WITH_CONTRACT if with_contract else MIN_GROUP
+    min_group = MIN_GROUP
     column = [str(c) for c in frame.columns]
     found: dict[tuple[str, tuple[int, ...]], EntryError] = {}
-    for d in functional_dependencies(frame, max_lhs=1, max_error=MAX_ERROR_SHARE):
+    # The budget is the smaller of the share and the row cap, so that long tables stay cheap.
+    share = min(MAX_ERROR_SHARE, MAX_ERROR_ROWS / len(frame))
+    for d in functional_dependencies(frame, max_lhs=1, max_error=share):
         if d.exact or not d.determinant or d.dependent in key or d.breaking_rows > MAX_ERROR_ROWS:
             continue
         if frame[d.dependent].nunique(dropna=False) < 2 or not _repeats(frame, d.determinant, min_group):

@@ -14,8 +14,15 @@ kept as a non-key, so the result is exact, not sampled).
 Null semantics (SQL PRIMARY KEY): a column with any empty cell is never part of a key, because
 an empty cell identifies nothing. Such columns are listed in `with_nulls`.
 
+Refutation is progressive: the first sample (20,000 rows), then one ten times larger, and
+so on; only a combination unique in every sample is checked on all rows.
+
 Limits: combinations of at most `max_size` columns (default 3) among the first `max_columns`
-columns (default 40); columns past that are listed in `not_considered`. Constant columns are
+columns (default 40); columns past that are listed in `not_considered`. With
+`skip_measurements`, columns whose sampled values are all decimal numbers with a fraction
+(12.5, -0.031) are left out, listed in `measurements`: a measured quantity identifies nothing,
+and such columns otherwise make many accidental keys in long tables (the rules use this;
+the cross-checks against the reference library do not). Constant columns are
 never part of a minimal key (adding one cannot make rows distinct) and are skipped. A table
 with no body rows has no keys to find.
 """
@@ -34,6 +41,7 @@ from linter.profile.partitions import column_codes, combine, combined_codes, dis
 DEFAULT_MAX_SIZE = 3
 DEFAULT_MAX_COLUMNS = 40
 DEFAULT_SAMPLE_ROWS = 20_000
+DECIMAL = r"-?\d*\.\d+"
 
 
 @dataclass(frozen=True)
@@ -51,9 +59,11 @@ class KeySearch:
     """Columns left out because every row holds the same value."""
     not_considered: tuple[str, ...] = ()
     """Columns past `max_columns`."""
+    measurements: tuple[str, ...] = ()
+    """Columns left out as measurements (only with `skip_measurements`)."""
     max_size: int = DEFAULT_MAX_SIZE
     verified_on_all_rows: int = 0
-    """How many candidate combinations needed a check on every row (the sample could not refute them)."""
+    """How many candidate combinations needed a check on every row (no sample could refute them)."""
 
 
 def sample_positions(rows: int, size: int, seed: int = 0) -> np.ndarray:
@@ -70,6 +80,7 @@ def unique_combinations(
     max_columns: int = DEFAULT_MAX_COLUMNS,
     sample_rows: int = DEFAULT_SAMPLE_ROWS,
     seed: int = 0,
+    skip_measurements: bool = False,
 ) -> KeySearch:
     """Every minimal combination of at most `max_size` columns whose values identify each row."""
     labels = [str(c) for c in frame.columns]
@@ -79,11 +90,22 @@ def unique_combinations(
     with_nulls = tuple(c for c in inside if rows and codes[c].min() < 0)
     constant = tuple(c for c in inside if c not in with_nulls and rows and codes[c].max() == 0 and rows > 1)
     considered = tuple(c for c in inside if c not in with_nulls and c not in constant)
+    positions = sample_positions(rows, sample_rows, seed)
+    measurements: tuple[str, ...] = ()
+    if skip_measurements:
+        measurements = tuple(
+            c for c in considered if frame[c].iloc[positions].astype(str).str.fullmatch(DECIMAL).all()
+        )
+        considered = tuple(c for c in considered if c not in measurements)
     if rows == 0:
-        return KeySearch((), 0, considered, with_nulls, constant, outside, max_size)
+        return KeySearch((), 0, considered, with_nulls, constant, outside, measurements, max_size)
 
     cardinality = {c: distinct_count(codes[c]) for c in considered}
-    positions = sample_positions(rows, sample_rows, seed)
+    larger: list[np.ndarray] = []
+    size = sample_rows * 10
+    while size < rows:
+        larger.append(sample_positions(rows, size, seed + len(larger) + 1))
+        size *= 10
     # Sample codes are re-factorised so that they are dense again (distinct_count relies on it).
     sample = {c: pd.factorize(codes[c][positions])[0].astype(np.int64) for c in considered}
     whole = positions.size == rows
@@ -95,6 +117,10 @@ def unique_combinations(
             return True
         if float(np.prod([float(cardinality[c]) for c in columns])) < rows:
             return False  # too few value combinations to tell every row apart
+        for subset in larger:
+            part = {c: codes[c][subset] for c in columns}
+            if distinct_count(combined_codes(part, columns, subset.size)) < subset.size:
+                return False
         verified += 1
         return distinct_count(combined_codes(codes, columns, rows)) == rows
 
@@ -118,7 +144,9 @@ def unique_combinations(
         if not level:
             break
         non_keys = level
-    return KeySearch(tuple(keys), rows, considered, with_nulls, constant, outside, max_size, verified)
+    return KeySearch(
+        tuple(keys), rows, considered, with_nulls, constant, outside, measurements, max_size, verified
+    )
 
 
 def _next_level(

@@ -150,8 +150,23 @@ def table_name(key: Sequence[str]) -> str:
                 stem = stem[: -len(suffix)]
                 break
         stems.append(stem.replace(" ", "_").lower())
-    name = "_".join(stems)
-    return name if name.endswith("s") else f"{name}s"
+    return plural_noun("_".join(stems))
+
+
+def plural_noun(name: str) -> str:
+    """English plural of a unit name: site -> sites, county -> counties, batch -> batches.
+
+    Common practice (no source): the regular English spelling rules; irregular nouns are rare
+    in column names and keep the plain -s.
+    """
+    lower = name.lower()
+    if lower.endswith("s"):
+        return name
+    if lower.endswith("y") and len(lower) > 1 and lower[-2] not in "aeiou":
+        return name[:-1] + "ies"
+    if lower.endswith(("x", "z", "ch", "sh")):
+        return name + "es"
+    return name + "s"
 
 
 def propose_split(
@@ -161,6 +176,9 @@ def propose_split(
     everything = frozenset(columns)
     whole_key = frozenset(key)
     relevant = [d for d in dependencies if d[0] <= everything and d[1] in everything and d[1] not in d[0]]
+    # The key determines every column by definition, even where the given (minimal) dependencies
+    # only imply it through a constant column's empty determinant.
+    relevant += [(whole_key, c) for c in columns if c not in whole_key and (whole_key, c) not in relevant]
     order = {c: i for i, c in enumerate(columns)}
     sets = bcnf_tables(everything, relevant, order, whole_key)
     lost = tuple(d for d in canonical_cover(relevant) if not preserved(d, sets, relevant))
@@ -171,9 +189,22 @@ def propose_split(
     for table in sets:
         found = whole_key if whole_key <= table else _smallest_key(table, relevant, order)
         keyed.append((table, tuple(sorted(found, key=order.__getitem__))))
+    # Tables with the same key describe the same unit (their join is one to one): one table each.
+    merged: dict[frozenset[str], frozenset[str]] = {}
+    for table, table_key in keyed:
+        merged[frozenset(table_key)] = merged.get(frozenset(table_key), frozenset()) | table
+    keyed = [(table, tuple(sorted(k, key=order.__getitem__))) for k, table in merged.items()]
+    # A table inside another (site_name, river of sites) is a projection of it: drop it (3NF rule).
+    keyed = [(t, k) for t, k in keyed if whole_key <= t or not any(t < other for other, _ in keyed)]
     names: dict[frozenset[str], str] = {}
     for table, table_key in keyed:
-        names[table] = name if whole_key <= table else table_name(table_key)
+        wanted = name if whole_key <= table else table_name(table_key)
+        taken = set(names.values())
+        names[table] = (
+            wanted
+            if wanted not in taken
+            else next(f"{wanted}_{i}" for i in range(2, len(keyed) + 2) if f"{wanted}_{i}" not in taken)
+        )
     units = []
     for table, table_key in sorted(keyed, key=lambda t: (not whole_key <= t[0], min(order[c] for c in t[0]))):
         refers = tuple(

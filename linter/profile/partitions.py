@@ -62,11 +62,9 @@ class Stripped:
     rows: np.ndarray
     """Row positions in non-singleton classes."""
     labels: np.ndarray
-    """Dense class id of each kept row."""
-
-    @property
-    def classes(self) -> int:
-        return distinct_count(self.labels)
+    """Dense class id (0..classes-1) of each kept row."""
+    classes: int
+    """Number of classes kept."""
 
     @property
     def error(self) -> int:
@@ -74,15 +72,23 @@ class Stripped:
         return int(self.rows.size) - self.classes
 
 
+DIRECT_COUNT_FACTOR = 8
+"""Labels spanning at most this many times the kept rows are counted directly (np.bincount, the
+vectorised form of TANE's table T, §4.4) instead of hashed: linear time, no hash table."""
+
+
 def strip(rows: np.ndarray, labels: np.ndarray) -> Stripped:
-    """Drop the rows alone in their class and re-number the remaining classes densely."""
+    """Drop the rows alone in their class; class ids come back dense (0..classes-1)."""
     if labels.size == 0:
-        return Stripped(rows, labels)
-    dense, _ = pd.factorize(labels)
-    sizes = np.bincount(dense)
-    keep = sizes[dense] > 1
-    kept, _ = pd.factorize(dense[keep])
-    return Stripped(rows[keep], kept.astype(np.int64, copy=False))
+        return Stripped(rows, labels, 0)
+    span = int(labels.max()) + 1
+    if span > DIRECT_COUNT_FACTOR * labels.size + 1024:
+        labels, _ = pd.factorize(labels)
+    sizes = np.bincount(labels)
+    shared = sizes > 1
+    keep = shared[labels]
+    renumber = np.cumsum(shared) - 1
+    return Stripped(rows[keep], renumber[labels[keep]].astype(np.int64, copy=False), int(shared.sum()))
 
 
 def stripped_of(codes: np.ndarray) -> Stripped:
@@ -96,3 +102,26 @@ def product(partition: Stripped, codes: np.ndarray) -> Stripped:
         return partition
     width = int(codes.max()) + 1
     return strip(partition.rows, partition.labels * width + codes[partition.rows])
+
+
+def refines(partition: Stripped, codes: np.ndarray) -> bool:
+    """Whether every class of `partition` holds one value of `codes` (X -> A holds exactly).
+
+    Each kept row is compared with the first row of its class: a linear pass, no hashing.
+    """
+    if partition.rows.size == 0:
+        return True
+    values = codes[partition.rows]
+    first = np.empty(partition.classes, dtype=values.dtype)
+    first[partition.labels[::-1]] = values[::-1]  # with repeated indices the last write wins
+    return bool((values == first[partition.labels]).all())
+
+
+def refines_each(partition: Stripped, matrix: np.ndarray, columns: list[int]) -> np.ndarray:
+    """`refines` for several columns of `matrix` (rows x all columns of codes), one flag each."""
+    if partition.rows.size == 0:
+        return np.ones(len(columns), dtype=bool)
+    values = matrix[np.ix_(partition.rows, np.asarray(columns, dtype=np.int64))]  # kept rows only
+    first = np.empty((partition.classes, len(columns)), dtype=values.dtype)
+    first[partition.labels[::-1]] = values[::-1]
+    return np.asarray((values == first[partition.labels]).all(axis=0))

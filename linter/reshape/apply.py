@@ -6,13 +6,14 @@ from collections.abc import Mapping
 from dataclasses import dataclass, replace
 from pathlib import Path
 
+import numpy as np
 import pandas as pd
 
 from linter.reshape.grid_steps import Header, header
 from linter.reshape.recipe import Recipe
-from linter.reshape.sheet import Bench, CellIndex, Dropped, Origin, StepNote, sheet_of
+from linter.reshape.sheet import Bench, Carried, CellIndex, Dropped, Origin, StepNote, sheet_of
 from linter.reshape.steps import STEPS, RecipeError, StepParams
-from linter.table import Table
+from linter.table import Table, column_letter
 
 
 @dataclass(frozen=True)
@@ -31,11 +32,36 @@ class Reshaped:
     dropped: tuple[Dropped, ...]
     notes: tuple[StepNote, ...]
     renamed: frozenset[int]
-    carried: tuple[tuple[int, str], ...]
+    carried: tuple[Carried, ...]
 
     def origin(self, table: str, row: int, column: str) -> Origin | None:
         """The input cell behind output cell (`row` is 0-based), None if the recipe made it."""
         return self.index.decode(int(self.provenance[table][column].iloc[row]))
+
+    def origin_labels(self, table: str) -> pd.DataFrame:
+        """Shaped like output `table`: each cell's input cell as `C7`, or `C1 (header)` for a
+        header-derived value, or None for a cell the recipe made (a row number)."""
+        codes = self.provenance[table].to_numpy(dtype=np.int64)
+        flat = codes.ravel()
+        made = flat < 0
+        cell = np.where(made, 0, flat // 2)
+        offsets = np.asarray(self.index.offsets, dtype=np.int64)
+        which = np.searchsorted(offsets, cell, side="right") - 1
+        labels = np.full(flat.shape, None, dtype=object)
+        for k, source in enumerate(self.index.tables):
+            mine = (which == k) & ~made
+            if not mine.any() or source.grid.shape[1] == 0:
+                continue
+            row, col = np.divmod(cell[mine] - offsets[k], source.grid.shape[1])
+            numbers = np.asarray(source.row_numbers, dtype=np.int64)[row]
+            letters = np.asarray([column_letter(i) for i in range(source.grid.shape[1])], dtype=object)[col]
+            header = (flat[mine] % 2) == 1
+            prefix = "" if len(self.index.tables) == 1 else f"{source.label}!"
+            labels[mine] = [
+                f"{prefix}{letter}{number}{' (header)' if h else ''}"
+                for letter, number, h in zip(letters, numbers, header, strict=True)
+            ]
+        return pd.DataFrame(labels.reshape(codes.shape), columns=self.provenance[table].columns)
 
 
 def output_name(table: Table) -> str:
@@ -86,7 +112,7 @@ def apply_recipe(table: Table, recipe: Recipe) -> Reshaped:
         tables[name] = sheet.cells.astype(object).where(sheet.cells.notna(), None).reset_index(drop=True)
         provenance[name] = sheet.origin.reset_index(drop=True)
         headers[name] = dict(sheet.header or {})
-        rows[name] = tuple(int(r) for r in sheet.rows)
+        rows[name] = tuple(sheet.rows.tolist())
     return Reshaped(
         tables, provenance, headers, rows, index, bench.dropped, bench.notes, bench.renamed, bench.carried
     )

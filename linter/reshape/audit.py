@@ -7,7 +7,6 @@ from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
-import pandas as pd
 
 from linter.reshape.apply import Reshaped
 from linter.reshape.recipe import Recipe
@@ -52,6 +51,10 @@ class Audit:
     """Cells a split_column pattern did not match (kept whole in the first new column)."""
     collisions: int = 0
     """Values a spread found a second value for; they are lost and listed in `lost`."""
+    trimmed: tuple[AuditCell, ...] = ()
+    """Cells kept in parts whose left-out text holds letters but no digit (a constant label
+    such as the `Sample` of `Sample 1 Depth`, or a unit the pattern spells out): listed so
+    nobody is surprised, not counted as loss. Left-out digits make the cell lost instead."""
 
     @property
     def lossless(self) -> bool:
@@ -66,6 +69,7 @@ class Audit:
             **{f"kept_{k}": v for k, v in self.kept.items()},
             **{f"dropped_{k.replace(' ', '_')}": v for k, v in sorted(reasons.items())},
             "lost": len(self.lost),
+            "trimmed": len(self.trimmed),
             "unmatched": self.unmatched,
             "collisions": self.collisions,
         }
@@ -76,38 +80,82 @@ class Audit:
             "counts": self.counts(),
             "dropped": [c.to_json() for c in self.dropped],
             "lost": [c.to_json() for c in self.lost],
+            "trimmed": [c.to_json() for c in self.trimmed],
         }
 
 
-def _input_cells(reshaped: Reshaped) -> pd.DataFrame:
-    frames = []
-    for which, table in enumerate(reshaped.index.tables):
-        values = table.grid.to_numpy(dtype=object).ravel()
-        ids = reshaped.index.base_codes(which).ravel() // 2
-        text = pd.Series(values, dtype=object)
-        filled = text.notna() & (text.astype(str).str.strip() != "")
-        frames.append(
-            pd.DataFrame({"id": ids[filled.to_numpy()], "text": text[filled].astype(str).to_numpy()})
-        )
-    return pd.concat(frames, ignore_index=True) if frames else pd.DataFrame({"id": [], "text": []})
+def _input_texts(reshaped: Reshaped) -> np.ndarray:
+    """Text of every input cell by cell id; None for an empty or blank cell."""
+    parts = [table.grid.to_numpy(dtype=object).ravel() for table in reshaped.index.tables]
+    values = np.concatenate(parts) if parts else np.zeros(0, dtype=object)
+    filled = np.fromiter(
+        (isinstance(v, str) and v.strip() != "" for v in values), dtype=bool, count=len(values)
+    )
+    texts = values.copy()
+    texts[~filled] = None
+    return texts
 
 
-def _fragments(reshaped: Reshaped) -> pd.DataFrame:
-    """Every place an input cell lives on: (input cell id, how, output text)."""
-    parts = []
+def _fragments(reshaped: Reshaped) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Every place an input cell lives on: (input cell ids, how as an index of KEPT, output texts)."""
+    ids, hows, outs = [], [], []
     for name, cells in reshaped.tables.items():
-        codes = reshaped.provenance[name].to_numpy().ravel()
-        texts = pd.Series(cells.to_numpy(dtype=object).ravel(), dtype=object)
-        ok = (codes >= 0) & texts.notna().to_numpy()
-        how = np.where(codes[ok] % 2 == 1, "header_value", "value")
-        parts.append(
-            pd.DataFrame({"id": codes[ok] // 2, "how": how, "out": texts[ok].astype(str).to_numpy()})
-        )
-        named = [(c // 2, "column_name", column) for column, cs in reshaped.headers[name].items() for c in cs]
-        parts.append(pd.DataFrame(named, columns=["id", "how", "out"]))
-    carried = [(c // 2, "header_value" if c % 2 else "value", text) for c, text in reshaped.carried if c >= 0]
-    parts.append(pd.DataFrame(carried, columns=["id", "how", "out"]))
-    return pd.concat(parts, ignore_index=True).astype({"id": np.int64})
+        codes = reshaped.provenance[name].to_numpy(dtype=np.int64).ravel()
+        texts = cells.to_numpy(dtype=object).ravel()
+        ok = codes >= 0
+        ids.append(codes[ok] // 2)
+        hows.append((codes[ok] % 2).astype(np.int8))  # 0 value, 1 header_value
+        outs.append(texts[ok])
+        named = [(c // 2, column) for column, cs in reshaped.headers[name].items() for c in cs]
+        ids.append(np.asarray([c for c, _ in named], dtype=np.int64))
+        hows.append(np.full(len(named), 2, dtype=np.int8))
+        outs.append(np.asarray([str(n) for _, n in named], dtype=object))
+    for chunk in reshaped.carried:
+        ok = chunk.codes >= 0
+        ids.append(chunk.codes[ok] // 2)
+        hows.append((chunk.codes[ok] % 2).astype(np.int8))
+        outs.append(chunk.texts[ok])
+    return np.concatenate(ids), np.concatenate(hows), np.concatenate(outs)
+
+
+def _ranks(reshaped: Reshaped, texts: np.ndarray) -> tuple[np.ndarray, dict[int, set[str]]]:
+    """For every input cell id, the best way it lives on (index into KEPT), or 9 when it does not;
+    and for cells kept in parts, the pieces of their text that the output holds."""
+    ids, how, out = _fragments(reshaped)
+    source = texts[ids]
+    usable = np.fromiter((o is not None for o in out), dtype=bool, count=len(out)) & (source != None)  # noqa: E711
+    same = usable & (source == out)
+    rank = np.where(same, how, 9).astype(np.int8)
+    # Only the few fragments that differ need a closer look (whitespace, split, joined, renamed).
+    odd = np.flatnonzero(usable & ~same)
+    renamed = {c // 2 for c in reshaped.renamed}
+    pieces: dict[int, set[str]] = {}
+    whole: set[int] = set()
+    for k in odd.tolist():
+        a, b = str(source[k]).strip(), str(out[k]).strip()
+        if a == b:
+            rank[k] = how[k]
+        elif a in b:  # the whole cell lives on inside a longer text (a joined header)
+            rank[k] = 3
+            whole.add(int(ids[k]))
+        elif b in a:  # a piece of the cell (a split, an exploded item, part of a header)
+            rank[k] = 3
+            pieces.setdefault(int(ids[k]), set()).add(b)
+        elif how[k] == 2 and int(ids[k]) in renamed:
+            rank[k] = 4
+    best = np.full(len(texts), 9, dtype=np.int8)
+    np.minimum.at(best, ids, rank)
+    for cell in whole:
+        pieces.pop(cell, None)
+    return best, pieces
+
+
+def _left_out(text: str, pieces: set[str]) -> str:
+    """What of `text` no piece covers, separators and spaces aside ('' when nothing is)."""
+    for piece in sorted(pieces, key=len, reverse=True):
+        text = text.replace(piece, "\0")
+    rest = " ".join(part.strip() for part in text.split("\0") if part.strip())
+    return rest if any(ch.isalnum() for ch in rest) else ""
 
 
 def _as_number(text: str) -> float | None:
@@ -119,35 +167,28 @@ def _as_number(text: str) -> float | None:
 
 
 def _total_mismatches(
-    reshaped: Reshaped, inputs: pd.DataFrame, kept_value: pd.Series, totals: set[int]
-) -> dict:
+    reshaped: Reshaped, texts: np.ndarray, best: np.ndarray, totals: set[int]
+) -> dict[int, str]:
     """Total-row cells the data does not recompute: id -> why. A total is the sum of the kept
     values above it in its column, down to the previous total (so subtotals work too)."""
     why: dict[int, str] = {}
-    widths = {}
     for which, table in enumerate(reshaped.index.tables):
-        widths[reshaped.index.offsets[which]] = table.grid.shape[1]
-    offsets = np.asarray(sorted(widths))
-    cells = inputs.assign(kept=kept_value.to_numpy(), total=inputs["id"].isin(totals).to_numpy())
-    base = offsets[np.searchsorted(offsets, cells["id"].to_numpy(), side="right") - 1]
-    width = np.asarray([widths[b] for b in base]) if len(base) else np.zeros(0, dtype=np.int64)
-    cells["table"] = base
-    cells["column"] = (cells["id"].to_numpy() - base) % np.maximum(width, 1)
-    cells["number"] = [_as_number(t) for t in cells["text"]] if len(cells) else []
-    for _, column in cells.sort_values("id").groupby(["table", "column"]):
-        if not column["total"].any():
-            continue
-        # each total closes a segment: the cells above it, after the previous total
-        segment = column["total"].cumsum().shift(fill_value=0)
-        counted = column[column["kept"] & column["number"].notna() & ~column["total"]]
-        sums = counted.groupby(segment[counted.index])["number"].sum()
-        for position, (cell, number) in enumerate(zip(column["id"], column["number"], strict=True)):
-            if not column["total"].iloc[position] or number is None or math.isnan(number):
-                continue
-            expected = sums.get(segment.iloc[position])
-            if expected is None or not math.isclose(number, expected, rel_tol=1e-9, abs_tol=1e-9):
-                shown = "nothing" if expected is None else f"{expected:g}"
-                why[int(cell)] = f"dropped as a total, but the values above it sum to {shown}"
+        base = reshaped.index.offsets[which]
+        n_rows, n_cols = table.grid.shape
+        mine = [t - base for t in totals if base <= t < base + n_rows * n_cols]
+        for col in sorted({t % n_cols for t in mine}):
+            running, seen = 0.0, False
+            for cell in (base + np.arange(n_rows) * n_cols + col).tolist():
+                text = texts[cell]
+                number = _as_number(text) if text is not None else None
+                if cell in totals:
+                    if number is not None and not (seen and math.isclose(number, running, rel_tol=1e-9)):
+                        shown = f"{running:g}" if seen else "nothing"
+                        why[cell] = f"dropped as a total, but the values above it sum to {shown}"
+                    running, seen = 0.0, False
+                elif number is not None and best[cell] == 0:
+                    running += number
+                    seen = True
     return why
 
 
@@ -159,31 +200,11 @@ def audit(table: Table, reshaped: Reshaped, recipe: Recipe | None = None) -> Aud
     """
     if not any(t is table for t in reshaped.index.tables):
         raise ValueError("audit: this Reshaped was not made from this table")
-    inputs = _input_cells(reshaped)
-    frags = _fragments(reshaped)
-    pairs = inputs.merge(frags, on="id", how="inner")
-    a = pairs["text"].str.strip()
-    b = pairs["out"].str.strip()
-    same = (a == b).to_numpy()
-    inside = np.fromiter(
-        ((x in y) or (y in x) for x, y in zip(a, b, strict=True)), dtype=bool, count=len(pairs)
-    )
-    renamed = pairs["id"].isin({c // 2 for c in reshaped.renamed}).to_numpy()
-    how = pairs["how"].to_numpy()
-    pairs["rank"] = np.select(
-        [
-            same & (how == "value"),
-            same & (how == "header_value"),
-            same & (how == "column_name"),
-            inside & ~same,
-            renamed & (how == "column_name"),
-        ],
-        [0, 1, 2, 3, 4],
-        default=9,
-    )
-    best = pairs.groupby("id")["rank"].min()
-    rank = inputs["id"].map(best).fillna(9).astype(int)
-    kept = {name: int((rank == r).sum()) for r, name in enumerate(KEPT)}
+    texts = _input_texts(reshaped)
+    best, pieces = _ranks(reshaped, texts)
+    filled = np.flatnonzero(texts != None)  # noqa: E711
+    counts = np.bincount(best[filled], minlength=10)
+    kept = {name: int(counts[r]) for r, name in enumerate(KEPT)}
     dropped_reason: dict[int, str] = {}
     for record in reshaped.dropped:
         for code in record.codes:
@@ -194,11 +215,12 @@ def audit(table: Table, reshaped: Reshaped, recipe: Recipe | None = None) -> Aud
             for code in note.codes:
                 note_why.setdefault(code // 2, f"step {note.step}: {note.message}")
     totals = {i for i, r in dropped_reason.items() if r == "total"}
-    total_why = _total_mismatches(reshaped, inputs, rank == 0, totals) if totals else {}
-    changed = set(pairs["id"][pairs["rank"] == 9].tolist())
-    dropped, lost = [], []
-    missing = inputs[(rank == 9).to_numpy()]
-    for cell, text in zip(missing["id"].tolist(), missing["text"].tolist(), strict=True):
+    total_why = _total_mismatches(reshaped, texts, best, totals) if totals else {}
+    cited = set(_fragments(reshaped)[0].tolist()) if (best[filled] == 9).any() else set()
+    dropped: list[AuditCell] = []
+    lost: list[AuditCell] = []
+    for cell in filled[best[filled] == 9].tolist():
+        text = str(texts[cell])
         place = reshaped.index.decode(cell * 2)
         assert place is not None  # every input id decodes
         reason = dropped_reason.get(cell)
@@ -211,11 +233,25 @@ def audit(table: Table, reshaped: Reshaped, recipe: Recipe | None = None) -> Aud
             continue
         elif cell in note_why:
             why = note_why[cell]
-        elif cell in changed:
+        elif cell in cited:
             why = "its text was changed"
         else:
             why = "not found in the output"
         lost.append(AuditCell(place.row, place.letter, text, why, place.source))
+    trimmed: list[AuditCell] = []
+    for cell in filled[best[filled] == 3].tolist():
+        if cell not in pieces:
+            continue
+        rest = _left_out(str(texts[cell]).strip(), pieces[cell])
+        if not rest:
+            continue
+        place = reshaped.index.decode(cell * 2)
+        assert place is not None
+        kept_parts = ", ".join(repr(p) for p in sorted(pieces[cell]))
+        why = f"kept as {kept_parts}; left out {rest!r}"
+        # Digits are data (a separator or a constant label never holds one): a cut number is loss.
+        target = lost if any(ch.isdigit() for ch in rest) else trimmed
+        target.append(AuditCell(place.row, place.letter, str(texts[cell]), why, place.source))
     unmatched = sum(len(n.codes) for n in reshaped.notes if n.kind == "unmatched")
     collisions = sum(len(n.codes) for n in reshaped.notes if n.kind == "collision")
-    return Audit(len(inputs), kept, tuple(dropped), tuple(lost), unmatched, collisions)
+    return Audit(len(filled), kept, tuple(dropped), tuple(lost), unmatched, collisions, tuple(trimmed))

@@ -30,7 +30,7 @@ def is_letter(label):
 
 {helpers}
 
-df = pd.read_csv(INPUT, header=None, dtype=str, keep_default_na=False)
+{read}
 df = df.astype(object).where(df != "", None)
 df.index = range(1, len(df) + 1)
 df.columns = [column_letter(i) for i in range(df.shape[1])]
@@ -50,15 +50,32 @@ if __name__ == "__main__":
 """
 
 
-def pandas_code(recipe: Recipe, input_name: str = "input.csv", output_name: str | None = None) -> str:
-    """A script that reads `input_name` as Weir reads a CSV and applies `recipe` step by step."""
+def _read_line(input_name: str, sheet: str | None) -> str:
+    """Every cell as text, blank as empty, no header: the raw grid as Weir reads it."""
+    suffix = Path(input_name).suffix.lower()
+    if suffix in (".xlsx", ".xlsm"):
+        # Cells are read as pandas formats them; Weir's reader may write dates or
+        # numbers differently, which the script then keeps as pandas wrote them.
+        where = repr(sheet) if sheet is not None else "0"
+        return f"df = pd.read_excel(INPUT, sheet_name={where}, header=None, dtype=str, keep_default_na=False)"
+    separator = ', sep="\\t"' if suffix == ".tsv" else ""
+    return f"df = pd.read_csv(INPUT, header=None, dtype=str, keep_default_na=False{separator})"
+
+
+def pandas_code(
+    recipe: Recipe, input_name: str = "input.csv", output_name: str | None = None, sheet: str | None = None
+) -> str:
+    """A script that reads `input_name` (CSV, TSV or an Excel `sheet`) as a raw grid and applies
+    `recipe` step by step."""
     stem = Path(input_name).stem or "table"
     helpers = "\n\n".join(inspect.getsource(f) for f in (column_letter, unique_labels))
-    lines = [
-        _PREAMBLE.format(
-            input_name=input_name, output_name=output_name or f"{stem}_tidy.csv", helpers=helpers
-        )
-    ]
+    preamble = _PREAMBLE.format(
+        input_name=input_name,
+        output_name=output_name or f"{stem}_tidy.csv",
+        helpers=helpers,
+        read=_read_line(input_name, sheet),
+    )
+    lines = [preamble]
     grid = True
     for number, step in enumerate(recipe.steps, start=1):
         kind = STEPS[type(step).step]

@@ -229,7 +229,7 @@ def lift_titles(p: LiftTitles, sheet: Sheet) -> Outcome:
     title_codes = code.where(is_title).ffill().fillna(NO_ORIGIN).astype(np.int64)
     cells = sheet.cells.copy()
     origin = sheet.origin.copy()
-    cells.insert(0, p.into, titles.where(titles.notna(), None).to_numpy())
+    cells.insert(0, p.into, pd.Series(titles.where(titles.notna(), None).to_numpy(), dtype=object))
     origin.insert(0, p.into, np.where(titles.notna(), title_codes.to_numpy(), NO_ORIGIN))
     keep = ~is_title
     made = sheet.with_frames(cells[keep], origin[keep], sheet.rows[keep])

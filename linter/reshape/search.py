@@ -66,16 +66,23 @@ class SearchResult:
 
 def layout_detectors() -> list[Detector]:
     """The layout detectors in the order their steps should apply (margins and header first)."""
-    from linter.rules import layout_cells, layout_headers, layout_margins, layout_rows
+    from linter.rules import (
+        layout_cells,
+        layout_groups,
+        layout_header_rows,
+        layout_headers,
+        layout_margins,
+        layout_rows,
+    )
 
     return [
         layout_margins.find_blank_rows_columns,
         layout_margins.find_totals_and_notes,
-        layout_headers.find_multi_row_header,
-        layout_headers.find_no_header,
+        layout_header_rows.find_multi_row_header,
+        layout_header_rows.find_no_header,
         layout_rows.find_transposed,
-        layout_rows.find_section_titles,
-        layout_rows.find_same_as_above,
+        layout_groups.find_section_titles,
+        layout_groups.find_same_as_above,
         layout_headers.find_repeated_groups,
         layout_headers.find_values_in_headers,
         layout_cells.find_packed_column,
@@ -262,9 +269,9 @@ def search(table: Table, contract: TableContract | None = None, *, keep_empty: b
     unique: dict[int, Candidate] = {}
     for c in seen.values():
         if c.lossless:
-            key = _fingerprint(c.output)
-            if key not in unique or c.score > unique[key].score:
-                unique[key] = c
+            fingerprint = _fingerprint(c.output)
+            if fingerprint not in unique or c.score > unique[fingerprint].score:
+                unique[fingerprint] = c
     ranked = sorted(unique.values(), key=lambda c: -c.score)
     best = ranked[0] if ranked else start[0]
     renames = contract_names(best.output, contract)

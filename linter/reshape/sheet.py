@@ -101,7 +101,7 @@ def sheet_of(table: Table, index: CellIndex, which: int = 0) -> Sheet:
     """The raw grid of `table` as a working sheet, columns named by spreadsheet letter."""
     grid = table.grid
     letters = [column_letter(i) for i in range(grid.shape[1])]
-    cells = pd.DataFrame(grid.to_numpy(dtype=object), columns=letters).astype(object)
+    cells = pd.DataFrame(grid.to_numpy(dtype=object), columns=letters, dtype=object)
     cells = cells.where(cells.notna(), None)
     origin = pd.DataFrame(index.base_codes(which), columns=letters)
     return Sheet(cells, origin, np.asarray(table.row_numbers, dtype=np.int64))
@@ -128,6 +128,24 @@ class StepNote:
     """Origin codes of the input cells concerned."""
 
 
+@dataclass(frozen=True, eq=False)
+class Carried:
+    """Input cells that live on in output texts beyond the one origin code a cell can hold:
+    the upper row of a joined header that was gathered, or the repeated identifying cells
+    that a spread merged into one row. Arrays, because a spread can merge millions."""
+
+    codes: np.ndarray
+    """Origin codes (int64)."""
+    texts: np.ndarray
+    """The output text each cell lives on in (object), aligned with `codes`."""
+
+    @classmethod
+    def of(cls, pairs: list[tuple[int, str]]) -> Carried:
+        return cls(
+            np.asarray([c for c, _ in pairs], dtype=np.int64), np.asarray([t for _, t in pairs], dtype=object)
+        )
+
+
 @dataclass(frozen=True)
 class Bench:
     """Everything a recipe works on: the sheets (name -> Sheet) and what steps recorded."""
@@ -138,7 +156,7 @@ class Bench:
     notes: tuple[StepNote, ...] = ()
     renamed: frozenset[int] = field(default_factory=frozenset)
     """Origin codes of header cells whose text a `rename` step replaced on purpose."""
-    carried: tuple[tuple[int, str], ...] = ()
+    carried: tuple[Carried, ...] = ()
     """(origin code, output text): input cells that live on in an output text beyond the one
     code a cell can hold (the upper row of a joined header that was gathered; the repeated
     identifying cells that a spread merged into one row)."""

@@ -10,7 +10,7 @@ from dataclasses import dataclass, replace
 from typing import Any, ClassVar, Literal, Self, TypeVar, get_args, get_origin
 
 from linter.errors import WeirError
-from linter.reshape.sheet import Bench, Dropped, Sheet, StepNote
+from linter.reshape.sheet import Bench, Carried, Dropped, Sheet, StepNote
 
 
 class RecipeError(WeirError):
@@ -127,8 +127,8 @@ class Outcome:
     notes: tuple[tuple[str, str, tuple[int, ...]], ...] = ()
     """(kind, message, origin codes) to report."""
     renamed: tuple[int, ...] = ()
-    carried: tuple[tuple[int, str], ...] = ()
-    """(origin code, output text) for input cells kept inside an output text (see Bench.carried)."""
+    carried: tuple[Carried, ...] = ()
+    """Input cells kept inside output texts beyond their one origin code (see Carried)."""
 
 
 @dataclass(frozen=True)

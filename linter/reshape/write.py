@@ -28,6 +28,8 @@ class Written:
 
     tables: tuple[Path, ...]
     """The tidy CSV files (none when the recipe loses data and loss was not allowed)."""
+    origins: tuple[Path, ...]
+    """Beside each tidy CSV, when asked for: the input cell (`C7`) behind every output cell."""
     recipe: Path
     audit: Path
     code: Path | None
@@ -68,6 +70,7 @@ def write_tidy(
     *,
     allow_loss: bool = False,
     with_code: bool = True,
+    with_origins: bool = False,
 ) -> Written:
     """Write into `out_dir` (created if needed). Never overwrites an input file: a clash is a WeirError.
 
@@ -90,12 +93,21 @@ def write_tidy(
             raise WeirError(f"refusing to overwrite the input {path}; choose another output folder")
     if len(set(table_paths)) != len(table_paths):
         raise WeirError("two output tables would get the same file name; rename them in the recipe")
+    origin_paths = [p.with_name(f"{p.stem}.origins.csv") for p in table_paths] if with_origins else []
+    for path in origin_paths:
+        if path.resolve() in inputs:
+            raise WeirError(f"refusing to overwrite the input {path}; choose another output folder")
     if write_tables:
         for path, frame in zip(table_paths, reshaped.tables.values(), strict=True):
             write_text_atomic(path, csv_text(frame))
+        if with_origins:
+            for path, name in zip(origin_paths, reshaped.tables, strict=True):
+                write_text_atomic(path, csv_text(reshaped.origin_labels(name)))
     write_text_atomic(planned["recipe"], dumps_recipe(recipe))
     audit_text = json.dumps(audit_json(table, reshaped, result), indent=2, ensure_ascii=False) + "\n"
     write_text_atomic(planned["audit"], audit_text)
     if with_code:
-        write_text_atomic(planned["code"], pandas_code(recipe, Path(table.source).name))
-    return Written(tuple(table_paths), planned["recipe"], planned["audit"], planned.get("code"))
+        write_text_atomic(planned["code"], pandas_code(recipe, Path(table.source).name, sheet=table.sheet))
+    return Written(
+        tuple(table_paths), tuple(origin_paths), planned["recipe"], planned["audit"], planned.get("code")
+    )

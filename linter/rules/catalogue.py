@@ -1,12 +1,15 @@
 """Imports every rule family so that its rules and inspectors are registered."""
 
 from linter.rules import (  # noqa: F401
+    bounds,
     columns,
     comparisons,
     gate,
     header,
     keys,
     layout_cells,
+    layout_groups,
+    layout_header_rows,
     layout_headers,
     layout_margins,
     layout_rows,
@@ -16,5 +19,6 @@ from linter.rules import (  # noqa: F401
     units,
     unreadable,
     value_codes,
+    value_patterns,
     values,
 )

@@ -37,8 +37,9 @@ def place_of(subject: Subject, columns: Sequence[str], rows: Iterable[int] = ())
 
 def written(subject: Subject, column: str, rows: Iterable[int]) -> list[str]:
     """The cells of `column` at provider `rows` exactly as written ('' for an empty cell)."""
-    cells = subject.frame.body[column].set_axis(pd.Index(subject.frame.rows, dtype="int64"))
-    return ["" if pd.isna(cells[r]) else str(cells[r]) for r in rows]
+    positions = pd.Index(subject.frame.rows, dtype="int64").get_indexer(pd.Index(list(rows), dtype="int64"))
+    cells = subject.frame.body[column].iloc[positions]
+    return ["" if pd.isna(cell) else str(cell) for cell in cells.tolist()]
 
 
 def examples_from(values: Iterable[str]) -> tuple[str, ...]:

@@ -23,6 +23,7 @@ define_rule(
     every other check still runs.
 
     Bad:  header site_id, sampled_on, result      (analyte is required)
+
     Good: header site_id, sampled_on, analyte, result
     """,
 )
@@ -35,6 +36,7 @@ define_rule(
     column that is missing (other case, spaces or a typo), and says which name to use.
 
     Bad:  header Site ID, sampeld_on
+
     Good: header site_id, sampled_on
     """,
 )
@@ -47,6 +49,7 @@ define_rule(
     decides whether this is an error, a warning (default) or allowed.
 
     Bad:  header site_id, result, my_notes      (my_notes is not agreed)
+
     Good: header site_id, result
     """,
 )
@@ -59,6 +62,7 @@ define_rule(
     order than the contract lists them.
 
     Bad:  header result, site_id
+
     Good: header site_id, result
     """,
 )
@@ -67,8 +71,10 @@ SEVERITY_OF_EXTRA = {"error": Severity.ERROR, "warn": Severity.WARNING}
 
 
 def name_key(name: str) -> str:
-    """A header reduced for comparison: case folded, runs of spaces, dashes and dots as one underscore."""
-    return re.sub(r"[\s\-.]+", "_", name.strip()).casefold()
+    """A header reduced for comparison: a trailing unit like `(mg/L)` dropped, case folded,
+    runs of spaces, dashes and dots as one underscore."""
+    bare = re.sub(r"\s*[(\[][^)\]]*[)\]]\s*$", "", name.strip()) or name.strip()
+    return re.sub(r"[\s\-.]+", "_", bare).casefold()
 
 
 @dataclass(frozen=True)

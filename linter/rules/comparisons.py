@@ -24,6 +24,7 @@ define_rule(
     Rows where either side is empty or unreadable are left to the other checks.
 
     Bad:  min_temp 14.2, max_temp 9.8   (rule min_temp <= max_temp)
+
     Good: min_temp 9.8, max_temp 14.2
     """,
 )

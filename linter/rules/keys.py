@@ -21,6 +21,7 @@ define_rule(
     then recorded more than once. One finding per group, naming every row of the group.
 
     Bad:  VB-014, 2026-03-02, NITRATE on rows 4 and 9
+
     Good: each site, date and analyte appears on one row only
     """,
 )
@@ -33,6 +34,7 @@ define_rule(
     identified.
 
     Bad:  site_id empty on row 6
+
     Good: site_id VB-014 on row 6
     """,
 )
@@ -45,6 +47,7 @@ define_rule(
     the file that have no row (for example a site with no row for one month).
 
     Bad:  VB-014 has rows for 2026-01 and 2026-03, but not 2026-02
+
     Good: every site has a row for every month in the file
     """,
 )

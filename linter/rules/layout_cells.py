@@ -8,11 +8,12 @@ from collections.abc import Iterable
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
+from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import layout_finding
-from linter.rules.layout_signals import blank, cell_kind, sample, slug
+from linter.rules.layout_signals import blank, cell_kind, frame_of, header_value_kind, sample, slug
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
-from linter.table import Frame, Table, first_row_header
+from linter.table import Frame, Table
 
 PACKED_COLUMN = define_rule(
     "layout.packed-column",
@@ -68,6 +69,8 @@ def _texts(frame: Frame, label: str) -> list[str]:
 
 
 def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
+    if any(header_value_kind(t) == "date" for t in texts[:50]):
+        return None  # "2025 Oct" is a month, not 2025 of a unit called Oct
     matches = [VALUE_UNIT.match(t) for t in texts]
     hits = [m for m in matches if m]
     if len(hits) < MATCH_SHARE * len(texts) or len(hits) < 2:
@@ -88,6 +91,18 @@ def _range(label: str, texts: list[str]) -> dict[str, object] | None:
     return {"pattern": pattern, "into": [f"{name}_from", f"{name}_to"], "kind": "range"}
 
 
+NUMBER_PAIR = re.compile(r"^\s*\d+(?:\.\d+)?\s*/\s*\d+(?:\.\d+)?\s*$")
+
+
+def _number_pair(label: str, texts: list[str]) -> dict[str, object] | None:
+    """Two numbers joined by a slash (`3/7`, `745/19987071`): a count and its total, say."""
+    if sum(bool(NUMBER_PAIR.match(t)) for t in texts) < MATCH_SHARE * len(texts) or len(texts) < 2:
+        return None
+    name = slug(label)
+    pattern = rf"^\s*(?P<{name}_1>\d+(?:\.\d+)?)\s*/\s*(?P<{name}_2>\d+(?:\.\d+)?)\s*$"
+    return {"pattern": pattern, "into": [f"{name}_1", f"{name}_2"], "kind": "two numbers"}
+
+
 def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
     """Two codes joined by one separator whose parts cross like two variables (m/014, f/014, ...)."""
     for sep in SEPARATORS:
@@ -99,8 +114,8 @@ def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
         combos = {(p[0].strip(), p[1].strip()) for p in parts}
         if len(left) < 2 or len(right) < 2 or len(combos) < 0.5 * len(left) * len(right):
             continue
-        if len(combos) == len(texts) and len(texts) > 6:
-            continue  # every value unique: an identifier, not two variables
+        if len(combos) == len(texts):
+            continue  # every value unique: an identifier (a bottle, a sample), not two variables
         if any(cell_kind(t) != "text" for t in texts):
             return None
         name = slug(label)
@@ -110,13 +125,18 @@ def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
 
 
 def find_packed_column(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     findings: list[Finding] = []
     for label in frame.labels:
         texts = _texts(frame, label)
         if len(texts) < 2:
             continue
-        found = _value_unit(label, texts) or _range(label, texts) or _crossed_codes(label, texts)
+        found = (
+            _value_unit(label, texts)
+            or _range(label, texts)
+            or _number_pair(label, texts)
+            or _crossed_codes(label, texts)
+        )
         if found is None:
             continue
         variable = contract.variable(label) if contract else None
@@ -147,7 +167,7 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
 
 
 def find_list_cells(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     findings: list[Finding] = []
     for label in frame.labels:
         texts = _texts(frame, label)
@@ -163,6 +183,16 @@ def find_list_cells(table: Table, contract: TableContract | None = None) -> list
             sizes = Counter(len(t.split(sep)) for t in texts)
             vocabulary = set(items)
             if len(sizes) < 2 or len(vocabulary) > 0.8 * len(items):
+                continue
+            # Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
+            # the parts of "Surname, Given" always come together in the same one cell.
+            cells_of: dict[str, set[str]] = {}
+            for text in set(texts):
+                for item in text.split(sep):
+                    cells_of.setdefault(item.strip(), set()).add(text)
+            multi = [t for t in set(texts) if sep in t]
+            shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
+            if len(shared) < 0.5 * len(multi):
                 continue
             findings.append(
                 layout_finding(
@@ -185,9 +215,9 @@ def find_list_cells(table: Table, contract: TableContract | None = None) -> list
 
 @inspector()
 def packed_column(subject: Subject) -> Iterable[Finding]:
-    return find_packed_column(subject.table, subject.contract)
+    return find_packed_column(below_titles(subject.table), subject.contract)
 
 
 @inspector()
 def list_cells(subject: Subject) -> Iterable[Finding]:
-    return find_list_cells(subject.table, subject.contract)
+    return find_list_cells(below_titles(subject.table), subject.contract)

@@ -7,20 +7,22 @@ from collections.abc import Iterable
 
 from linter.contract.model import TableContract, VarType
 from linter.findings import Finding, Severity
-from linter.rules.layout_place import frame_letters, grid_letters, layout_finding, shown
+from linter.rules.layout_margins import below_titles
+from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_signals import (
+    GrowingStem,
     blank,
-    cell_kind,
     dominant_kind,
+    frame_of,
     header_value_kind,
-    is_number,
     sample,
     shared_stem,
+    sideways_by_names,
     slug,
 )
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
-from linter.table import Frame, Table, first_row_header
+from linter.table import Frame, Table
 
 VALUES_IN_HEADERS = define_rule(
     "layout.values-in-headers",
@@ -65,47 +67,6 @@ REPEATED_GROUPS = define_rule(
     """,
 )
 
-MULTI_ROW_HEADER = define_rule(
-    "layout.multi-row-header",
-    "Header spread over several rows",
-    Severity.ERROR,
-    """
-    Finds a header written over two rows (a group label over several columns, often a merged
-    cell, and the column labels below it). Readers take the first row as the header and the
-    second as data, so every column gets a wrong name and a text value in its first row.
-    Fix: one header row whose names join both labels.
-
-    Bad:
-        site,nitrate,,phosphate,
-        ,min,max,min,max
-        VB-014,0.4,1.1,0.02,0.05
-
-    Good:
-        site,nitrate min,nitrate max,phosphate min,phosphate max
-        VB-014,0.4,1.1,0.02,0.05
-    """,
-)
-
-NO_HEADER = define_rule(
-    "layout.no-header",
-    "No header row",
-    Severity.ERROR,
-    """
-    Finds a file whose first row is already data: its cells have the same kind and shape as
-    the values below them. Taken as a header, that first observation is lost and the
-    columns get meaningless names. Fix: add a header row naming every column.
-
-    Bad:
-        VB-014,2025-03-02,7.1
-        VB-015,2025-03-02,6.8
-
-    Good:
-        site_id,sampled_on,ph
-        VB-014,2025-03-02,7.1
-        VB-015,2025-03-02,6.8
-    """,
-)
-
 ID_RUN = re.compile(r"^[A-Za-z]?\d+([-_.]\d+)?[A-Za-z]?$")
 
 
@@ -120,7 +81,9 @@ def _levels(contract: TableContract | None) -> dict[str, str]:
 
 def _measured(contract: TableContract | None, present: set[str], names_to: str) -> str | None:
     """The declared number-like variable the gathered cells most likely hold."""
-    for variable in contract.variables if contract else ():
+    if contract is None:
+        return None
+    for variable in contract.variables:
         if variable.name in present or variable.name == names_to or variable.name in contract.keys:
             continue
         if variable.type in (VarType.NUMBER, VarType.INTEGER):
@@ -179,9 +142,9 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
     while i < len(labels):
         j = i + 1
         best = i
+        growing = GrowingStem(labels[i])
         while j < len(labels) and labels[j] not in taken:
-            stem = shared_stem(labels[i : j + 1])
-            if stem is None:
+            if growing.add(labels[j]) is None:
                 break
             best = j
             j += 1
@@ -225,14 +188,15 @@ def _code_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
 
 
 def find_values_in_headers(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     if not frame.labels:
         return []
     grouped = {c for found in find_repeated_groups(table) for c in found.place.columns}
     runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
     taken = grouped | {c for r, _ in runs for c in r}
-    runs += _code_runs(frame, taken)
-    runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
+    if not sideways_by_names(table):  # ids across the top of a sideways table are observations
+        runs += _code_runs(frame, taken)
+        runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []
     present = set(frame.labels)
     for run, kind in runs:
@@ -242,8 +206,13 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
         values_to = _measured(contract, present, names_to) or (
             "count" if _all_counts(frame, run) else "value"
         )
-        step = {"step": "gather", "columns": run, "names_to": names_to, "values_to": values_to}
-        step["keep_empty"] = True
+        step: dict[str, object] = {
+            "step": "gather",
+            "columns": run,
+            "names_to": names_to,
+            "values_to": values_to,
+            "keep_empty": True,
+        }
         findings.append(
             layout_finding(
                 VALUES_IN_HEADERS,
@@ -268,11 +237,11 @@ def _all_counts(frame: Frame, run: list[str]) -> bool:
 
 
 GROUP_ID_FIRST = re.compile(r"^(?P<stem>.*?\D)?(?P<id>\d+)(?P<sep>[ _.:-]+)(?P<member>[^\d\s].*)$")
-GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]+)(?P<id>\d+)$")
+GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]*)(?P<id>\d+)$")
 
 
 def find_repeated_groups(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     shapes: dict[tuple[str, str, str], list[tuple[str, str, str]]] = {}
     for label in frame.labels:
         first, last = GROUP_ID_FIRST.match(label), GROUP_ID_LAST.match(label)
@@ -314,119 +283,11 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
     return findings
 
 
-def find_multi_row_header(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    grid = table.grid
-    if grid.shape[0] < 3 or grid.shape[1] < 3:
-        return []
-    top, second = grid.iloc[0].tolist(), grid.iloc[1].tolist()
-    filled_top = [i for i, v in enumerate(top) if not blank(v)]
-    if len(filled_top) < 2:
-        return []
-    carried = [i for i in range(filled_top[0] + 1, len(top)) if blank(top[i]) and not blank(second[i])]
-    second_labels = [str(v).strip() for v in second if not blank(v)]
-    if len(second_labels) < 0.6 * grid.shape[1] or any(cell_kind(v) != "text" for v in second_labels):
-        return []
-    repeats = len(set(second_labels)) < len(second_labels)
-    top_row = str(table.row_numbers[0])
-    merged = any(re.fullmatch(rf"[A-Z]+{top_row}:[A-Z]+{top_row}", r) for r in table.merged_ranges)
-    if not (carried and (repeats or merged)):
-        return []
-    below = [cell_kind(v) for v in sample(grid.iloc[2:].to_numpy().ravel().tolist())]
-    if "number" not in below and "date" not in below:
-        return []
-    rows = list(table.row_numbers[:2])
-    return [
-        layout_finding(
-            MULTI_ROW_HEADER,
-            table,
-            f"The header is written over rows {rows[0]} and {rows[1]}: row {rows[0]} labels groups of "
-            "columns and the column names are in the row below.",
-            "Write one header row whose names join the group label and the column label.",
-            {"step": "header", "rows": rows, "joiner": " "},
-            rows=rows,
-            letters=grid_letters(carried),
-            count=len(carried),
-            examples=[str(top[i]) for i in filled_top] + second_labels[:3],
-        )
-    ]
-
-
-def _shape(text: str) -> str:
-    """Letters become a, digits 9, runs collapsed: 'VB-014' -> 'a-9'."""
-    out = re.sub(r"[A-Za-z]+", "a", text.strip())
-    return re.sub(r"\d+", "9", out)
-
-
-def _looks_like_data(first: Iterable[object], body: Frame) -> bool:
-    cells = list(first)
-    seen_value = False
-    for index, value in enumerate(cells):
-        column = sample(body.body.iloc[:, index])
-        kind, share = dominant_kind(column)
-        mine = cell_kind(value)
-        if mine == "empty":
-            return False
-        if kind in ("number", "date"):
-            if mine != kind or share < 0.9:
-                return False
-            seen_value = True
-        elif kind == "text":
-            shapes = [_shape(str(v)) for v in column if not blank(v)]
-            common = max(set(shapes), key=shapes.count)
-            if shapes.count(common) < 0.9 * len(shapes) or _shape(str(value)) != common or common == "a":
-                return False
-            seen_value = True
-    return seen_value
-
-
-def find_no_header(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    grid = table.grid
-    if grid.shape[0] < 3 or not table.header_given:
-        return []
-    frame = first_row_header(table)
-    first = grid.iloc[0].tolist()
-    if all(header_value_kind(str(v)) == "year" for v in first) or not _looks_like_data(first, frame):
-        return []
-    numbers = [str(v).strip() for v in first if not blank(v) and is_number(str(v))]
-    if len(numbers) >= 3 and numbers == [
-        str(n) for n in range(int(numbers[0]), int(numbers[0]) + len(numbers))
-    ]:
-        return []  # 1,2,3,... across the top is a row of labels
-    width = grid.shape[1]
-    if contract is not None and len(contract.variables) == width:
-        names = list(contract.names)
-    else:
-        names = [f"column_{letter}" for letter in grid_letters(range(width))]
-    return [
-        layout_finding(
-            NO_HEADER,
-            table,
-            f"Row {table.row_numbers[0]} is data, not a header: every cell has the kind and shape of the "
-            "values below it.",
-            "Add a header row that names every column.",
-            {"step": "header", "rows": [], "names": names},
-            rows=table.row_numbers[:1],
-            count=1,
-            examples=[str(v) for v in first[:5]],
-        )
-    ]
-
-
 @inspector()
 def values_in_headers(subject: Subject) -> Iterable[Finding]:
-    return find_values_in_headers(subject.table, subject.contract)
+    return find_values_in_headers(below_titles(subject.table), subject.contract)
 
 
 @inspector()
 def repeated_groups(subject: Subject) -> Iterable[Finding]:
-    return find_repeated_groups(subject.table, subject.contract)
-
-
-@inspector()
-def multi_row_header(subject: Subject) -> Iterable[Finding]:
-    return find_multi_row_header(subject.table, subject.contract)
-
-
-@inspector()
-def no_header(subject: Subject) -> Iterable[Finding]:
-    return find_no_header(subject.table, subject.contract)
+    return find_repeated_groups(below_titles(subject.table), subject.contract)

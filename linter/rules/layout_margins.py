@@ -4,11 +4,14 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterable
+from dataclasses import replace
+
+import numpy as np
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_place import grid_letters, layout_finding
-from linter.rules.layout_signals import blank, filled_positions
+from linter.rules.layout_signals import filled_mask, row_fill
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import Table
@@ -62,36 +65,51 @@ TOTAL_LABEL = re.compile(r"^\s*((grand|sub)[\s-]?)?totals?\b|^\s*(sum|all sites|
 NOTE_LABEL = re.compile(r"^\s*(notes?\b|source\b|\*|†|‡|¹|²|\(\d\)|\[\d\]|n\.?b\.?\b)", re.I)
 
 
-def _filled(table: Table) -> list[list[int]]:
-    return [filled_positions(row) for row in table.grid.itertuples(index=False, name=None)]
-
-
-def _data_span(filled: list[list[int]]) -> tuple[int, int] | None:
+def _data_span(counts: np.ndarray) -> tuple[int, int] | None:
     """First and last grid row holding at least two values (the header and observations)."""
-    wide = [i for i, f in enumerate(filled) if len(f) >= 2]
-    return (wide[0], wide[-1]) if wide else None
+    wide = np.flatnonzero(counts >= 2)
+    return (int(wide[0]), int(wide[-1])) if wide.size else None
+
+
+def _first_text(table: Table, index: int, first: np.ndarray) -> str:
+    return str(table.grid.iat[index, int(first[index])])
+
+
+def _reads_as_note(text: str) -> bool:
+    """A lone cell under the data is a note when it says so or is a sentence, not a short value."""
+    return bool(NOTE_LABEL.match(text)) or len(text.split()) >= 3
+
+
+def _matching_rows(table: Table, rows: np.ndarray, first: np.ndarray, pattern: re.Pattern[str]) -> list[int]:
+    """Rows whose first filled cell matches `pattern`; each distinct text is matched once."""
+    found: list[int] = []
+    for column in np.unique(first[rows]) if rows.size else ():
+        these = rows[first[rows] == column]
+        texts = table.grid.iloc[these, int(column)].astype(str)
+        hits = [t for t in texts.unique() if pattern.match(t)]
+        if hits:
+            found.extend(int(r) for r in these[texts.isin(hits).to_numpy()])
+    return sorted(found)
 
 
 def find_totals_and_notes(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
     if grid.shape[1] < 2 or grid.shape[0] < 2:
         return []
-    filled = _filled(table)
-    span = _data_span(filled)
+    counts, first_cell = row_fill(grid)
+    span = _data_span(counts)
     if span is None:
         return []
     first, last = span
-    titles = [i for i in range(first) if len(filled[i]) == 1]
-    notes = [i for i in range(last + 1, len(filled)) if filled[i]]
-    for i in range(first + 1, last + 1):
-        if len(filled[i]) == 1 and NOTE_LABEL.match(str(grid.iat[i, filled[i][0]])):
-            notes.append(i)
-    totals = []
-    for i in range(first + 1, last + 1):
-        if filled[i]:
-            label = str(grid.iat[i, filled[i][0]])
-            if TOTAL_LABEL.match(label) and len(filled[i]) >= 2:
-                totals.append(i)
+    titles = [i for i in range(first) if counts[i] == 1]
+    notes = [
+        i
+        for i in range(last + 1, len(counts))
+        if counts[i] and _reads_as_note(_first_text(table, i, first_cell))
+    ]
+    inside = np.arange(first + 1, last + 1)
+    notes += _matching_rows(table, inside[counts[inside] == 1], first_cell, NOTE_LABEL)
+    totals = _matching_rows(table, inside[counts[inside] >= 2], first_cell, TOTAL_LABEL)
     findings: list[Finding] = []
     for indexes, reason, what, fix in (
         (
@@ -111,7 +129,7 @@ def find_totals_and_notes(table: Table, contract: TableContract | None = None) -
         if not indexes:
             continue
         rows = [table.row_numbers[i] for i in indexes]
-        examples = [str(grid.iat[i, filled[i][0]]) for i in indexes]
+        examples = [_first_text(table, i, first_cell) for i in indexes[:5]]
         findings.append(
             layout_finding(
                 TOTALS_AND_NOTES,
@@ -132,11 +150,11 @@ def find_blank_rows_columns(table: Table, contract: TableContract | None = None)
     grid = table.grid
     if grid.shape[0] == 0:
         return []
-    filled = _filled(table)
-    span = _data_span(filled)
+    mask = filled_mask(grid)
+    counts = mask.sum(axis=1)
     findings: list[Finding] = []
-    blank_rows = [table.row_numbers[i] for i, f in enumerate(filled) if not f]
-    if blank_rows and span is not None:
+    blank_rows = [table.row_numbers[int(i)] for i in np.flatnonzero(counts == 0)]
+    if blank_rows and _data_span(counts) is not None:
         findings.append(
             layout_finding(
                 BLANK_ROWS_COLUMNS,
@@ -148,7 +166,7 @@ def find_blank_rows_columns(table: Table, contract: TableContract | None = None)
                 count=len(blank_rows),
             )
         )
-    blank_columns = [i for i in range(grid.shape[1]) if all(blank(v) for v in grid.iloc[:, i].tolist())]
+    blank_columns = [int(i) for i in np.flatnonzero(~mask.any(axis=0))]
     if blank_columns and len(blank_columns) < grid.shape[1]:
         letters = grid_letters(blank_columns)
         findings.append(
@@ -163,6 +181,20 @@ def find_blank_rows_columns(table: Table, contract: TableContract | None = None)
             )
         )
     return findings
+
+
+def below_titles(table: Table) -> Table:
+    """The table from its header row down: title and blank rows above the header left out.
+
+    `weir check` judges the header rules on this, so a title line does not hide, say, months
+    used as column names; row numbers stay the provider's.
+    """
+    counts, _ = row_fill(table.grid)
+    span = _data_span(counts)
+    if span is None or span[0] == 0:
+        return table
+    grid = table.grid.iloc[span[0] :].reset_index(drop=True)
+    return replace(table, grid=grid, row_numbers=table.row_numbers[span[0] :])
 
 
 @inspector()

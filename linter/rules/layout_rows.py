@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import itertools
 import re
 from collections.abc import Iterable
 
@@ -10,12 +9,19 @@ import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
-from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL
+from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
-from linter.rules.layout_signals import blank, cell_kind, dominant_kind, filled_positions, sample
+from linter.rules.layout_signals import (
+    blank,
+    cell_kind,
+    dominant_kind,
+    frame_of,
+    sample,
+    sideways_by_names,
+)
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
-from linter.table import Table, first_row_header
+from linter.table import Table
 
 VARIABLES_IN_ROWS = define_rule(
     "layout.variables-in-rows",
@@ -58,50 +64,10 @@ TRANSPOSED = define_rule(
     """,
 )
 
-SECTION_TITLES = define_rule(
-    "layout.section-titles",
-    "Section-title rows",
-    Severity.ERROR,
-    """
-    Finds rows with only their first cell filled that label the rows below them (a river, a
-    month, a laboratory). The label is a value of every row in its section but is written once,
-    so sorting or filtering loses it. Fix: move the label into its own column.
-
-    Bad:
-        site,ph
-        Upper Vell,
-        VB-014,7.1
-        Lower Vell,
-        VB-031,6.9
-
-    Good:
-        section,site,ph
-        Upper Vell,VB-014,7.1
-        Lower Vell,VB-031,6.9
-    """,
-)
-
-SAME_AS_ABOVE = define_rule(
-    "layout.same-as-above",
-    "Blank cells that mean 'same as above'",
-    Severity.ERROR,
-    """
-    Finds identifying columns written once per group (often merged cells) and left blank below,
-    where blank means "same as above", not "missing". A row read on its own then has no site or
-    date. Fix: repeat the value in every row.
-
-    Bad:
-        site,sampled_on,ph
-        VB-014,2025-03-02,7.1
-        ,2025-03-09,7.0
-
-    Good:
-        site,sampled_on,ph
-        VB-014,2025-03-02,7.1
-        VB-014,2025-03-09,7.0
-    """,
-)
-
+MAX_VARIABLES = 500
+"""More rows than this and a table is not a sideways one."""
+SAMPLE_BLOCK = 5000
+"""Rows looked at by the variables-in-rows detector (the first ones, so row groups stay whole)."""
 PAIRED = re.compile(
     r"(^|[_ .-])(min|max|lo|hi|low|high|mean|start|end|first|last)($|[_ .-])|^t?(min|max)", re.I
 )
@@ -127,13 +93,37 @@ def _holds_values(
         len(declared & set(levels)) >= 2
         or len(by_kind) >= 2
         or sum(bool(PAIRED.search(level)) for level in levels) >= 2
+        or (
+            not any(UNIT_NAME.match(c) for c in others)
+            and (_scales_differ(body, names, levels, values_col) or bool(GENERIC_NAMES.match(names_col)))
+        )
     )
 
 
+GENERIC_NAMES = re.compile(
+    r"^(measure|measurement|variable|var|field|attribute|property|key|element|type|quantity|metric)s?$", re.I
+)
+"""Headers that say "this column names variables" (an analyte or a taxon column is a key, not this)."""
+UNIT_NAME = re.compile(r"^(units?|uom|unit_of_measure)$", re.I)
+SCALE_GAP = 1000.0
+"""Median magnitudes this far apart mean the names are different quantities (cases vs population)."""
+
+
+def _scales_differ(body: pd.DataFrame, names: pd.Series, levels: list[str], values_col: str) -> bool:
+    medians = []
+    for level in levels:
+        numbers = pd.to_numeric(body.loc[names == level, values_col], errors="coerce").abs().dropna()
+        if numbers.empty:
+            return False
+        medians.append(float(numbers.median()))
+    low, high = min(medians), max(medians)
+    return low > 0 and high / low >= SCALE_GAP
+
+
 def find_variables_in_rows(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
+    frame = frame_of(table)
     labels = list(frame.labels)
-    body = frame.body.iloc[[i for i in range(0, len(frame.body), max(1, len(frame.body) // 5000))]]
+    body = frame.body.iloc[:SAMPLE_BLOCK]  # a contiguous block: row groups must stay whole
     if len(labels) < 3 or len(body) < 4:
         return []
     declared = set(contract.names) if contract else set()
@@ -175,8 +165,10 @@ def find_variables_in_rows(table: Table, contract: TableContract | None = None) 
 
 def find_transposed(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
-    if grid.shape[0] < 3 or grid.shape[1] < 3 or grid.shape[1] > 5000:
-        return []
+    if not 3 <= grid.shape[0] <= MAX_VARIABLES or grid.shape[1] < 3:
+        return []  # a sideways table has one row per variable: a few, not thousands
+    if any(blank(v) for v in grid.iloc[0].tolist()):
+        return []  # the top row of a sideways table names every observation
     firsts = grid.iloc[1:, 0].tolist()
     if any(blank(v) for v in firsts) or len(set(firsts)) != len(firsts):
         return []
@@ -192,7 +184,7 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
     column_shares = [dominant_kind(grid.iloc[1:, j].tolist())[1] for j in range(1, grid.shape[1])]
     mixed = len(set(row_kinds) - {"empty"}) >= 2 and max(column_shares) < 0.85
     named = len(declared & {str(v) for v in firsts}) >= 2 and len(declared & set(map(str, grid.iloc[0]))) < 2
-    if not (mixed or named):
+    if not (mixed or named or sideways_by_names(table)):
         return []
     return [
         layout_finding(
@@ -211,103 +203,11 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
     ]
 
 
-def find_section_titles(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    grid = table.grid
-    if grid.shape[0] < 4 or grid.shape[1] < 3:
-        return []
-    filled = [filled_positions(row) for row in grid.itertuples(index=False, name=None)]
-    wide = [i for i, f in enumerate(filled) if len(f) >= 2]
-    if not wide or wide[0] != 0:
-        return []
-    last = wide[-1]
-    titles = [
-        i
-        for i in range(1, last)
-        if filled[i] == [0]
-        and not TOTAL_LABEL.match(str(grid.iat[i, 0]))
-        and not NOTE_LABEL.match(str(grid.iat[i, 0]))
-    ]
-    if not titles or titles[0] != 1 or any(b - a < 2 for a, b in itertools.pairwise(titles)):
-        return []
-    texts = [str(grid.iat[i, 0]).strip() for i in titles]
-    into = "section"
-    for variable in contract.variables if contract else ():
-        codes = set(variable.codes.values) if variable.codes else set()
-        if variable.name not in map(str, grid.iloc[0]) and codes and set(texts) <= codes:
-            into = variable.name
-    rows = [table.row_numbers[i] for i in titles]
-    return [
-        layout_finding(
-            SECTION_TITLES,
-            table,
-            f"{len(rows)} row(s) are section titles ({shown(texts)}) labelling the rows below them.",
-            f"Move each title into a '{into}' column on every row of its section.",
-            {"step": "lift_titles", "rows": rows, "into": into},
-            rows=rows,
-            letters=("A",),
-            count=len(rows),
-            examples=texts,
-        )
-    ]
-
-
-def find_same_as_above(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = first_row_header(table)
-    body = frame.body
-    if len(body) < 3 or len(frame.labels) < 2:
-        return []
-    chosen: list[str] = []
-    for label in frame.labels[:3]:
-        column = body[label].tolist()
-        kind = dominant_kind(sample(column))[0]
-        if kind == "number" and not chosen:
-            break
-        empties = sum(blank(v) for v in column)
-        values = [v for v in column if not blank(v)]
-        if blank(column[0]) or empties < len(column) / 4 or len(values) < 2:
-            continue
-        if len(set(values)) != len(values):
-            continue
-        rest = body.drop(columns=[label])
-        empty_rows = [i for i, v in enumerate(column) if blank(v)]
-        if any(rest.iloc[i].isna().all() for i in empty_rows[:200]):
-            continue
-        chosen.append(label)
-    if not chosen:
-        return []
-    examples = [str(v) for v in body[chosen[0]].tolist() if not blank(v)]
-    blanks = sum(int(body[c].isna().sum()) for c in chosen)
-    return [
-        layout_finding(
-            SAME_AS_ABOVE,
-            table,
-            f"The column(s) {shown(chosen)} name each group once and leave {blanks} cell(s) blank below, "
-            "meaning 'same as above'.",
-            "Repeat the value in every row of its group.",
-            {"step": "fill_down", "columns": chosen},
-            columns=chosen,
-            letters=frame_letters(frame, chosen),
-            count=blanks,
-            examples=examples,
-        )
-    ]
-
-
 @inspector()
 def variables_in_rows(subject: Subject) -> Iterable[Finding]:
-    return find_variables_in_rows(subject.table, subject.contract)
+    return find_variables_in_rows(below_titles(subject.table), subject.contract)
 
 
 @inspector()
 def transposed(subject: Subject) -> Iterable[Finding]:
     return find_transposed(subject.table, subject.contract)
-
-
-@inspector()
-def section_titles(subject: Subject) -> Iterable[Finding]:
-    return find_section_titles(subject.table, subject.contract)
-
-
-@inspector()
-def same_as_above(subject: Subject) -> Iterable[Finding]:
-    return find_same_as_above(subject.table, subject.contract)

@@ -18,6 +18,7 @@ define_rule(
     that column of the referenced table submitted alongside (a foreign key without its row).
 
     Bad:  chemistry.csv names site VB-099, which sites.csv does not list
+
     Good: every site_id in chemistry.csv is listed in sites.csv
     """,
 )
@@ -30,6 +31,7 @@ define_rule(
     this submission, so its values could not be checked against it.
 
     Bad:  chemistry.csv submitted alone, while site_id references sites.site_id
+
     Good: chemistry.csv and sites.csv submitted together
     """,
 )
@@ -64,9 +66,11 @@ def reference_values(subject: Subject) -> Iterator[Finding]:
                 evidence={"references": str(reference)},
             )
             continue
+        # Compared as written on both sides: a key is text to the provider ("014" is not "14").
         known = set(other.body[reference.column].dropna().astype(str))
-        cells = converted.values.where(~converted.missing & converted.reason.isna())
-        unknown = cells.notna() & ~cells.astype(str).isin(known)
+        cells = subject.frame.body[name].set_axis(converted.missing.index)
+        judged = ~converted.missing & converted.reason.isna()
+        unknown = judged & ~cells.astype(str).isin(known)
         if not unknown.any():
             continue
         rows = [int(r) for r in unknown.index[unknown]]

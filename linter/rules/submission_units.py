@@ -28,7 +28,8 @@ define_rule(
     Finds two files of one submission that share key columns (a key of both files: a declared
     key, or a minimal unique combination found in both) but hold different variables about the
     same units, at least half of the smaller file's keys appearing in the other. One table with
-    all variables of the unit is easier to check and use; the fix is a join on the keys.
+    all variables of the unit is easier to check and use; the fix is a join on the keys. Two
+    files that a bundle contract declares as two different tables are left alone.
 
     Bad:  field.csv (sample_id, temperature) and lab.csv (sample_id, nitrate)
     Good: samples.csv (sample_id, temperature, nitrate)
@@ -41,7 +42,9 @@ define_rule(
     """
     Finds files (or sheets) with the same columns whose names differ only by a value such as a
     month, a site or a laboratory, while no column says which file a row came from. The value
-    belongs in a column; the fix is the stack_files step.
+    belongs in a column; the fix is the stack_files step. Files that a contract governs are not
+    reported: the contract is the agreement, and one file per month or laboratory is then the
+    agreed way of delivering.
 
     Bad:  readings_2026-01.csv and readings_2026-02.csv, no month column
     Good: readings.csv with a month column holding 2026-01 and 2026-02
@@ -112,10 +115,15 @@ def _tells_files_apart(subjects: Sequence[Subject], columns: Sequence[str]) -> b
     return False
 
 
+def _in_name_order(subjects: Sequence[Subject]) -> list[Subject]:
+    """Files in path order, so that a finding about several lands on the same file however they were named."""
+    return sorted(subjects, key=lambda s: (PurePath(s.table.source).as_posix(), s.table.sheet or ""))
+
+
 @submission_inspector
 def stacked_files(subjects: Sequence[Subject]) -> Iterator[Finding]:
     groups: dict[frozenset[str], list[Subject]] = {}
-    for subject in subjects:
+    for subject in _in_name_order(subjects):
         labels = subject.frame.labels
         if len(labels) >= 2 and len(subject.frame.rows) >= 1:
             groups.setdefault(frozenset(labels), []).append(subject)
@@ -126,8 +134,9 @@ def stacked_files(subjects: Sequence[Subject]) -> Iterator[Finding]:
         values = _varying_part(names)
         if any(not v for v in values) or len(set(values)) != len(values):
             continue
-        governed = all(s.contract is not None for s in members)
-        if not governed and not all(VALUE_LIKE.match(v) for v in values):
+        if any(s.contract is not None for s in members):
+            continue  # a contract governs these files: one file per month or lab is the agreed delivery
+        if not all(VALUE_LIKE.match(v) for v in values):
             continue
         column = _column_for(values)
         keyed = {
@@ -160,7 +169,7 @@ def _shared_key(left: Subject, right: Subject) -> tuple[str, ...] | None:
                 return tuple(keys)
     if not shared:
         return None
-    for key in unique_combinations(left.frame.body[shared]).keys:
+    for key in unique_combinations(left.frame.body[shared], skip_measurements=True).keys:
         if (
             not right.frame.body[list(key)].duplicated().any()
             and right.frame.body[list(key)].notna().all().all()
@@ -176,13 +185,15 @@ def _keys_of(subject: Subject, key: Sequence[str]) -> pd.Series:
 
 @submission_inspector
 def split_over_files(subjects: Sequence[Subject]) -> Iterator[Finding]:
-    for left, right in combinations(subjects, 2):
+    for left, right in combinations(_in_name_order(subjects), 2):
         if left.table.source == right.table.source and left.table.sheet == right.table.sheet:
             continue
         if min(len(left.frame.rows), len(right.frame.rows)) < MIN_ROWS:
             continue
         if set(left.frame.labels) == set(right.frame.labels):
             continue  # same columns: a stack, not a split
+        if left.contract is not None and right.contract is not None and left.contract != right.contract:
+            continue  # the contract declares them as two tables: a deliberate bundle (references check it)
         key = _shared_key(left, right)
         if key is None:
             continue

@@ -7,7 +7,7 @@ from collections.abc import Iterator
 
 from linter.contract.model import Variable
 from linter.findings import Finding, Severity
-from linter.rules.cell_findings import column_finding, counted, engine_result, written
+from linter.rules.cell_findings import column_finding, counted, engine_result, quoted, written
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 
@@ -20,6 +20,7 @@ define_rule(
     a code-list file), and is not merely a spacing or case variant of an allowed code.
 
     Bad:  analyte (codes NITRATE, PHOSPHATE): NITRITE-N
+
     Good: analyte: NITRATE
     """,
 )
@@ -32,6 +33,7 @@ define_rule(
     case is ignored, and names the exact code to use.
 
     Bad:  analyte: 'Nitrate ' | nitrate
+
     Good: analyte: NITRATE
     """,
 )
@@ -64,13 +66,40 @@ def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], li
     result.raise_if_unrun("codes")
 
 
+def _labels_used(variable: Variable, found: list[str]) -> list[tuple[str, str]]:
+    """(value as written, code) where a provider wrote a code's label instead of the code."""
+    if variable.codes is None:
+        return []
+    by_label = {variant_key(label): code for code, label in variable.codes.labels.items()}
+    pairs: list[tuple[str, str]] = []
+    for value in dict.fromkeys(found):
+        code = by_label.get(variant_key(value))
+        if code is not None:
+            pairs.append((value, code))
+    return pairs
+
+
+def _nearest_codes(found: list[str], codes: list[str]) -> list[tuple[str, str]]:
+    """(value, code) for distinct values that are close to one allowed code (a likely typo)."""
+    upper = {c.upper(): c for c in codes}
+    pairs: list[tuple[str, str]] = []
+    for value in dict.fromkeys(found):
+        near = difflib.get_close_matches(value.strip().upper(), list(upper), n=1, cutoff=0.6)
+        if near:
+            pairs.append((value, upper[near[0]]))
+    return pairs
+
+
 @inspector(needs_contract=True)
 def code_variant(subject: Subject) -> Iterator[Finding]:
     for variable, variants, rows, _ in _code_cells(subject):
         if not rows:
             continue
+        by_code: dict[str, list[str]] = {}
+        for found, code in variants.items():
+            by_code.setdefault(code, []).append(found)
         fixes = "; ".join(
-            f"use the code {code} (found {found!r})" for found, code in list(variants.items())[:5]
+            f"use the code {code} (found {quoted(found[:3])})" for code, found in list(by_code.items())[:5]
         )
         yield column_finding(
             subject,
@@ -90,14 +119,16 @@ def not_in_code_list(subject: Subject) -> Iterator[Finding]:
         if not rows or variable.codes is None:
             continue
         codes = list(variable.codes.values)
-        first = written(subject, variable.name, rows[:1])[0]
-        near = difflib.get_close_matches(first.strip().upper(), [c.upper() for c in codes], n=1, cutoff=0.6)
-        nearest = next((c for c in codes if near and c.upper() == near[0]), None)
+        found = written(subject, variable.name, rows)
         shown = ", ".join(codes[:LISTED_CODES]) + (", ..." if len(codes) > LISTED_CODES else "")
         source = f" (code list {variable.codes.source})" if variable.codes.source else ""
-        fix = f"use one of the allowed codes{source}: {shown}"
-        if nearest is not None:
-            fix = f"did you mean {nearest} (found {first!r})? Otherwise {fix}"
+        labelled = dict(_labels_used(variable, found))
+        hints = [f"write {code} instead of its label {label!r}" for label, code in labelled.items()]
+        hints += [
+            f"{value!r} looks like {code}: write {code} if that is meant"
+            for value, code in _nearest_codes([f for f in found if f not in labelled], codes)
+        ]
+        fix = "; ".join([*hints[:5], f"otherwise use one of the allowed codes{source}: {shown}"])
         yield column_finding(
             subject,
             "values.not-in-code-list",

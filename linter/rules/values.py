@@ -1,4 +1,4 @@
-"""Value rules: each cell against its variable's type, unit, date format, range, pattern and nullability."""
+"""Value rules: each cell against its variable's type, unit, date format, range and nullability."""
 
 from __future__ import annotations
 
@@ -10,7 +10,7 @@ from linter.contract.convert import Converted
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
 from linter.findings import Finding, Severity
-from linter.rules.cell_findings import column_finding, counted, engine_result, plural, quoted, written
+from linter.rules.cell_findings import column_finding, counted, engine_result, plural, written
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 
@@ -23,6 +23,7 @@ define_rule(
     declares as not nullable (key columns are reported by keys.missing instead).
 
     Bad:  result is required for every row, but row 7 is empty or says NA.
+
     Good: every row has a result; a value below the detection limit is written <0.05.
     """,
 )
@@ -36,6 +37,7 @@ define_rule(
     separator, a decimal comma, a unit written in the cell, a day that does not exist.
 
     Bad:  result (number, mg/L): 1,234 | 12 mg/L | about 3
+
     Good: result: 1234 | 12 | 3
     """,
 )
@@ -48,6 +50,7 @@ define_rule(
     unit, which usually means the value was measured or reported on another scale.
 
     Bad:  result (unit mg/L): 12 ug/L
+
     Good: result: 0.012   (converted to mg/L, number alone)
     """,
 )
@@ -61,6 +64,7 @@ define_rule(
     readings when day and month cannot be told apart.
 
     Bad:  sampled_on: 03/02/2026 | 20260302 | 2 Mar 2026
+
     Good: sampled_on: 2026-03-02
     """,
 )
@@ -73,22 +77,10 @@ define_rule(
     <0.05 is checked by its detection limit 0.05.
 
     Bad:  result (min 0): -0.4
+
     Good: result: 0.4
     """,
 )
-define_rule(
-    "values.pattern-mismatch",
-    "Text that does not match the declared pattern",
-    Severity.ERROR,
-    """
-    Finds text cells whose whole text does not match the variable's declared pattern
-    (a regular expression).
-
-    Bad:  site_id (pattern ^VB-\\d{3}$): VB-14 | vb-014
-    Good: site_id: VB-014
-    """,
-)
-
 WRONG_TYPE_NAMES = {
     VarType.NUMBER: "a number",
     VarType.INTEGER: "a whole number",
@@ -96,6 +88,11 @@ WRONG_TYPE_NAMES = {
     VarType.DATE: "a date",
     VarType.DATETIME: "a date and time",
 }
+
+
+def bound_text(bound: float | str) -> str:
+    """A bound as a provider writes it: 0 and 2000 rather than 0.0 and 2000.0; dates as given."""
+    return f"{bound:g}" if isinstance(bound, float) else str(bound)
 
 
 def agreed_date_form(variable: Variable) -> str:
@@ -131,7 +128,9 @@ def problem_hint(problem: Problem, found: str, suggestion: object, variable: Var
 
 
 def _rule_of(reason: pd.Series) -> pd.Series:
-    return reason.map(lambda p: Problem(p).rule, na_action="ignore")
+    """The rule id of each failing cell (only failing cells are kept: most cells are fine)."""
+    failed = reason[reason.notna()]
+    return failed.map(lambda p: Problem(p).rule)
 
 
 def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
@@ -140,13 +139,14 @@ def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
         return
     for name, converted in result.converted.items():
         variable = subject.contract.variable(name)
-        mask = _rule_of(converted.reason) == rule
-        if variable is None or not mask.any():
+        rules = _rule_of(converted.reason)
+        mine = converted.reason[rules.index[rules == rule]]
+        if variable is None or mine.empty:
             continue
-        rows = [int(r) for r in converted.reason.index[mask]]
+        rows = [int(r) for r in mine.index]
         hints: list[str] = []
         kinds: dict[str, int] = {}
-        for problem, cells in converted.reason[mask].groupby(converted.reason[mask]):
+        for problem, cells in mine.groupby(mine):
             first = int(cells.index[0])
             found = written(subject, name, [first])[0]
             hints.append(problem_hint(Problem(problem), found, converted.suggestion[first], variable))
@@ -183,7 +183,7 @@ def _format_fix(subject: Subject, variable: Variable, converted: Converted, rows
     first = rows[0]
     found = written(subject, variable.name, [first])[0]
     suggestion = str(converted.suggestion[first])
-    if variable.unit and converted.reason[first] is Problem.WRONG_UNIT:
+    if variable.unit and converted.reason[first] == Problem.WRONG_UNIT:
         return f"convert to {variable.unit} and write the number alone (found {found!r}, in {suggestion})"
     if " or " in suggestion:
         return f"write {suggestion} (found {found!r}; day and month cannot be told apart, so check which)"
@@ -216,7 +216,8 @@ def missing_values(subject: Subject) -> Iterator[Finding]:
             continue
         flagged = set(result.failing(name, "nullable")["row"].astype(int))
         # pandera sees a failed conversion as null too; that cell is a wrong-type finding, not a missing one.
-        rows = [int(r) for r in converted.missing.index[converted.missing] if int(r) in flagged]
+        hit = converted.missing & converted.missing.index.isin(list(flagged))
+        rows = [int(r) for r in converted.missing.index[hit]]
         if rows:
             yield column_finding(
                 subject,
@@ -249,8 +250,8 @@ def out_of_range(subject: Subject) -> Iterator[Finding]:
         bounds = " and ".join(
             text
             for text in (
-                f"at least {variable.minimum}" if variable.minimum is not None else "",
-                f"at most {variable.maximum}" if variable.maximum is not None else "",
+                f"at least {bound_text(variable.minimum)}" if variable.minimum is not None else "",
+                f"at most {bound_text(variable.maximum)}" if variable.maximum is not None else "",
             )
             if text
         )
@@ -267,28 +268,3 @@ def out_of_range(subject: Subject) -> Iterator[Finding]:
             evidence={"minimum": variable.minimum, "maximum": variable.maximum},
         )
     result.raise_if_unrun("range")
-
-
-@inspector(needs_contract=True)
-def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
-    result = engine_result(subject)
-    if result is None or subject.contract is None:
-        return
-    for name in result.converted:
-        variable = subject.contract.variable(name)
-        failing = result.failing(name, "pattern")
-        if variable is None or failing.empty:
-            continue
-        rows = [int(r) for r in failing["row"]]
-        found = written(subject, name, rows[:3])
-        yield column_finding(
-            subject,
-            "values.pattern-mismatch",
-            name,
-            rows,
-            f"In {name}, {counted(len(rows), 'value', 'does', 'do')} not have the agreed form "
-            f"{variable.pattern}.",
-            f"write each {name} in the form {variable.pattern} (found {quoted(found)})",
-            evidence={"pattern": variable.pattern},
-        )
-    result.raise_if_unrun("pattern")

@@ -14,39 +14,47 @@ from linter.check import (
     table_result,
 )
 from linter.contract.model import Contract
+from linter.limits import Limits
 from linter.rules.subject import Subject
 from linter.table import first_row_header
 
 _contracts: Sequence[Contract] = ()
+_bounds = Limits()
 
 
-def _remember(contracts: Sequence[Contract]) -> None:
-    """Worker start-up: the contracts travel once per worker, not once per file."""
-    global _contracts
+def _remember(contracts: Sequence[Contract], bounds: Limits) -> None:
+    """Worker start-up: the contracts and limits travel once per worker, not once per file."""
+    global _contracts, _bounds
     import linter.rules.catalogue  # noqa: F401  (registers every rule family in the worker)
 
-    _contracts = contracts
+    _contracts, _bounds = contracts, bounds
 
 
 def _outcome(path: str) -> FileOutcome:
-    read = read_governed(path, _contracts)
+    read = read_governed(path, _contracts, _bounds)
     results = tuple(
         None
         if needs_other_tables(g.rules)
-        else table_result(g, Subject(g.table, first_row_header(g.table), g.rules))
+        else table_result(g, Subject(g.table, first_row_header(g.table), g.rules), _bounds)
         for g in read.governed
     )
     return FileOutcome(read.governed, read.unreadable, results)
 
 
 def outcomes_in_parallel(
-    files: Sequence[str], contracts: Sequence[Contract], jobs: int, progress: FileProgress | None = None
+    files: Sequence[str],
+    contracts: Sequence[Contract],
+    bounds: Limits,
+    jobs: int,
+    progress: FileProgress | None = None,
 ) -> list[FileOutcome]:
     """Each file's outcome, in the order of `files`, computed by `jobs` worker processes."""
     # spawn, not fork: Arrow's and pandas' thread pools in this process must not be copied mid-work.
     context = multiprocessing.get_context("spawn")
     chunk = max(1, min(16, len(files) // (jobs * 4)))
-    with ProcessPoolExecutor(jobs, mp_context=context, initializer=_remember, initargs=(contracts,)) as pool:
+    with ProcessPoolExecutor(
+        jobs, mp_context=context, initializer=_remember, initargs=(contracts, bounds)
+    ) as pool:
         outcomes: list[FileOutcome] = []
         for path, outcome in zip(files, pool.map(_outcome, files, chunksize=chunk), strict=True):
             outcomes.append(outcome)

@@ -60,10 +60,18 @@ class BytesMeter:
         self.bar.update(self.task, completed=self.total)
 
 
+def size_of(path: str) -> int:
+    """The file's size, or 0 when it cannot be seen (the reader then reports why)."""
+    try:
+        return os.stat(path).st_size
+    except OSError:
+        return 0
+
+
 @contextmanager
 def bytes_meter(files: Sequence[str], console: Console) -> Iterator[BytesMeter]:
     """A meter for `files`; its bar is drawn only when `console` is a terminal."""
-    sizes = {path: os.stat(path).st_size for path in files}
+    sizes = {path: size_of(path) for path in files}
     if not console.is_terminal:
         yield BytesMeter(sizes, None)
         return

@@ -179,3 +179,13 @@ def test_large_column_converts_without_per_row_python() -> None:
         Problem.NOT_A_NUMBER: 2_500,
     }
     assert math.isclose(converted.values.sum(), 0.5 * 2_500)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.floats(min_value=1000, max_value=1e9, allow_nan=False), min_size=1, max_size=20))
+def test_thousands_separators_written_by_python_are_undone(numbers: list[float]) -> None:
+    # Source: PEP 378 (format specifier for thousands separator): f"{x:,.2f}" groups digits by three with ",".
+    cells = pd.Series([f"{x:,.2f}" for x in numbers])
+    converted = convert_column(cells, RESULT, MISSING)
+    assert set(converted.reason) == {Problem.THOUSANDS_SEPARATOR}
+    assert converted.suggestion.tolist() == [f"{x:.2f}" for x in numbers]

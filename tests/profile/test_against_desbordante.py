@@ -37,10 +37,12 @@ def reference_uccs(frame: pd.DataFrame, max_size: int) -> set[frozenset[str]]:
     return {u for u in found if len(u) <= max_size}
 
 
+@pytest.mark.parametrize("sample_rows", [20_000, 60, 6])  # all rows; sample then confirm; two samples
 @pytest.mark.parametrize("dataset", sorted(DATASETS))
-def test_exact_dependencies_agree(dataset: str) -> None:
+def test_exact_dependencies_agree(dataset: str, sample_rows: int) -> None:
     frame = DATASETS[dataset]()
-    mine = {(frozenset(d.determinant), d.dependent) for d in functional_dependencies(frame, max_lhs=MAX_LHS)}
+    found = functional_dependencies(frame, max_lhs=MAX_LHS, sample_rows=sample_rows)
+    mine = {(frozenset(d.determinant), d.dependent) for d in found}
     assert mine == reference_fds(frame, MAX_LHS)
     assert mine, "every dataset here has at least one dependency; an empty result would hide a bug"
 
@@ -66,13 +68,16 @@ cells = st.sampled_from(["a", "b", "c", None])
 def test_random_small_tables_agree(grid: list[list[str | None]]) -> None:
     # Source: desbordante as the oracle on random tables, including empty cells and duplicate rows.
     frame = pd.DataFrame(grid, columns=[f"c{i}" for i in range(len(grid[0]))], dtype=object)
-    mine = {(frozenset(d.determinant), d.dependent) for d in functional_dependencies(frame, max_lhs=4)}
-    assert mine == reference_fds(frame, 4)
+    reference = reference_fds(frame, 4)
+    for sample_rows in (20_000, 3):
+        found = functional_dependencies(frame, max_lhs=4, sample_rows=sample_rows)
+        assert {(frozenset(d.determinant), d.dependent) for d in found} == reference
 
 
+@pytest.mark.parametrize("sample_rows", [20_000, 100])  # all rows; a sample's lower bound refutes first
 @pytest.mark.parametrize("max_error", [0.01, 0.05])
 @pytest.mark.parametrize("dataset", sorted(DATASETS))
-def test_approximate_dependencies_agree(dataset: str, max_error: float) -> None:
+def test_approximate_dependencies_agree(dataset: str, max_error: float, sample_rows: int) -> None:
     # Source: desbordante's TANE for approximate dependencies with the g3 measure (Huhtala et al. 1999).
     frame = DATASETS[dataset]()
     algorithm = desbordante.afd.algorithms.Tane()
@@ -82,7 +87,7 @@ def test_approximate_dependencies_agree(dataset: str, max_error: float) -> None:
     reference = {
         (frozenset(names[i] for i in fd.lhs_indices), names[fd.rhs_index]) for fd in algorithm.get_fds()
     }
-    found = functional_dependencies(frame, max_lhs=2, max_error=max_error)
+    found = functional_dependencies(frame, max_lhs=2, max_error=max_error, sample_rows=sample_rows)
     assert {(frozenset(d.determinant), d.dependent) for d in found} == reference
     assert all(d.breaking_rows <= max_error * len(frame) for d in found)
 

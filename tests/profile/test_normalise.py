@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import pandas as pd
+import pytest
 
 from linter.profile.dependencies import functional_dependencies
 from linter.profile.normalise import FD, canonical_cover, closure, propose_split
@@ -107,3 +108,21 @@ def test_split_found_from_data_of_the_university_example() -> None:
         (("ID",), ("ID", "name", "dept_name", "salary")),
         (("dept_name",), ("dept_name", "building", "budget")),
     ]
+
+
+@pytest.mark.parametrize(
+    ("singular", "plural"),
+    [
+        ("site", "sites"),
+        ("county", "counties"),
+        ("survey", "surveys"),
+        ("batch", "batches"),
+        ("box", "boxes"),
+        ("sites", "sites"),
+    ],
+)
+def test_unit_names_are_regular_english_plurals(singular: str, plural: str) -> None:
+    # Common practice (no source): regular English plural spelling.
+    from linter.profile.normalise import plural_noun
+
+    assert plural_noun(singular) == plural

@@ -238,6 +238,35 @@ STEP_CASES += [
     ),
 ]
 
+STEP_CASES += [
+    (
+        "spread-then-add_row_id-keeps-first-row-numbers",
+        [
+            ["site", "measure", "value"],
+            ["VB-014", "tmin", "4"],
+            ["VB-015", "tmin", "5"],
+            ["VB-014", "tmax", "9"],
+        ],
+        [
+            {"step": "spread", "names_from": "measure", "values_from": "value"},
+            {"step": "add_row_id", "name": "row"},
+        ],
+        [["row", "site", "tmin", "tmax"], ["2", "VB-014", "4", "9"], ["3", "VB-015", "5", None]],
+    ),
+]
+
+STEP_CASES += [
+    (
+        "header-row-renamed-to-contract-names",
+        [["Vell Basin pH survey", None], ["Site", "pH (field)"], ["VB-014", "7.1"]],
+        [
+            {"step": "drop_rows", "rows": [1], "reason": "title"},
+            {"step": "header", "rows": [2], "names": ["site_id", "ph"]},
+        ],
+        [["site_id", "ph"], ["VB-014", "7.1"]],
+    ),
+]
+
 # Each case: id, input grid, steps, a fragment of the one-line error the recipe must give.
 BAD_STEP_CASES: list[tuple[str, Grid, list[dict[str, Any]], str]] = [
     ("drop-missing-row", [["a"], ["1"]], [{"step": "drop_rows", "rows": [9], "reason": "blank"}], "row(s) 9"),

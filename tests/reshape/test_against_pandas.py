@@ -181,3 +181,41 @@ def test_explode_equals_pandas_explode_on_barley_varieties() -> None:
     assert rows_of(ours, ["site", "variety"]) == rows_of(
         barley.drop_duplicates(["site", "variety"]), ["site", "variety"]
     )
+
+
+def test_transpose_equals_pandas_transpose_on_iowa_electricity() -> None:
+    # Source: vega_datasets `iowa-electricity`, spread to one row per source and one column
+    # per year, then printed sideways; Weir's transpose must equal pandas.DataFrame.T.
+    frame = vega_datasets.data.iowa_electricity()
+    wide = frame.assign(year=frame["year"].dt.year.astype(str)).pivot(
+        index="source", columns="year", values="net_generation"
+    )
+    sideways = wide.T.reset_index()  # the provider's layout: years down, sources across
+    sideways.columns = [str(c) for c in sideways.columns]
+    ours = run(sideways, "iowa_sideways.csv", {"step": "transpose"})
+    theirs = as_text(sideways).set_index("year").T.reset_index().rename(columns={"index": "year"})
+    theirs.columns.name = None
+    assert list(ours.columns) == list(theirs.columns)
+    pd.testing.assert_frame_equal(as_text(ours), as_text(theirs).reset_index(drop=True), check_dtype=False)
+
+
+def test_split_column_agrees_with_pandas_date_parts_on_seattle_weather() -> None:
+    # Source: vega_datasets `seattle-weather` dates (ISO 8601 calendar dates, YYYY-MM-DD);
+    # the split parts must equal the year, month and day pandas.to_datetime finds.
+    weather = vega_datasets.data.seattle_weather()[["date", "temp_max"]]
+    text = weather.assign(date=weather["date"].dt.strftime("%Y-%m-%d"))
+    ours = run(
+        text,
+        "seattle.csv",
+        {
+            "step": "split_column",
+            "column": "date",
+            "pattern": r"^(?P<year>\d{4})-(?P<month>\d{2})-(?P<day>\d{2})$",
+            "into": ["year", "month", "day"],
+        },
+    )
+    parsed = pd.to_datetime(text["date"], format="ISO8601")
+    assert ours["year"].astype(int).tolist() == parsed.dt.year.tolist()
+    assert ours["month"].astype(int).tolist() == parsed.dt.month.tolist()
+    assert ours["day"].astype(int).tolist() == parsed.dt.day.tolist()
+    assert list(ours.columns) == ["year", "month", "day", "temp_max"]

@@ -120,9 +120,9 @@ def test_split_counts_unmatched_cells_and_keeps_their_text() -> None:
     assert result.kept["part"] == 1 and result.kept["value"] == 2
 
 
-def test_split_pattern_that_cuts_text_away_loses_nothing_it_can_name() -> None:
-    # "mg/L" is consumed by the pattern's literal part: the piece "12" still lies inside the
-    # input text, so the cell counts as kept in parts (the unit is constant in the pattern).
+def test_split_pattern_that_spells_out_a_unit_lists_the_left_out_text() -> None:
+    # "mg/L" is consumed by the pattern's literal part: the number lives on, the unit is
+    # listed as left out (trimmed) so the provider sees it, but no digit went missing.
     result = audit_of(
         [["result"], ["12 mg/L"]],
         {
@@ -132,7 +132,34 @@ def test_split_pattern_that_cuts_text_away_loses_nothing_it_can_name() -> None:
             "into": ["value"],
         },
     )
-    assert result.kept["part"] == 1
+    assert result.lossless and result.kept["part"] == 1
+    assert [(c.row, c.letter, c.why) for c in result.trimmed] == [(2, "A", "kept as '12'; left out 'mg/L'")]
+
+
+def test_split_pattern_that_cuts_a_number_short_is_loss() -> None:
+    # Deliberately lossy: the unanchored group takes one digit of "12", the rest is dropped.
+    result = audit_of(
+        [["result"], ["12 mg/L"], ["7 mg/L"]],
+        {"step": "split_column", "column": "result", "pattern": r"(?P<value>\d)", "into": ["value"]},
+    )
+    assert lost_places(result) == [(2, "A", "12 mg/L")]
+    assert result.lost[0].why == "kept as '1'; left out '2 mg/L'"
+    assert [c.text for c in result.trimmed] == ["7 mg/L"]
+
+
+def test_separators_left_out_by_explode_and_ranges_are_not_listed() -> None:
+    result = audit_of(
+        [["taxa", "depth"], ["mayfly; stonefly", "3 to 5"]],
+        {"step": "explode", "column": "taxa", "separator": ";"},
+        {
+            "step": "split_column",
+            "column": "depth",
+            "pattern": r"^(?P<lo>\d+)\s*(?:-|to)\s*(?P<hi>\d+)$",
+            "into": ["lo", "hi"],
+        },
+    )
+    # " to " holds letters: a range word is listed as trimmed, the ";" of the list is not
+    assert result.lossless and [c.text for c in result.trimmed] == ["3 to 5"]
 
 
 def test_rename_is_kept_on_purpose_and_audit_json_is_ready() -> None:
@@ -162,7 +189,7 @@ def test_gather_dropping_empty_cells_lists_an_all_empty_column_header_as_dropped
     )
     assert result.lossless
     assert [(c.row, c.letter, c.text, c.why) for c in result.dropped] == [
-        (1, "C", "2020", "header of empty cells")
+        (1, "C", "2020", "header with no values")
     ]
 
 
@@ -172,3 +199,12 @@ def test_spread_merges_equal_identifying_cells_without_loss() -> None:
         {"step": "spread", "names_from": "measure", "values_from": "value"},
     )
     assert result.lossless and result.kept["value"] == 4  # both 'VB-014' cells and both values
+
+
+def test_gather_on_a_header_only_table_drops_the_gathered_headers_on_purpose() -> None:
+    # Found by the property test (twice: once again after a speed-up): no body row is left.
+    result = audit_of(
+        [["site", "2020"]], {"step": "gather", "columns": ["2020"], "names_to": "y", "values_to": "n"}
+    )
+    assert result.lossless
+    assert [(c.row, c.letter, c.why) for c in result.dropped] == [(1, "B", "header with no values")]

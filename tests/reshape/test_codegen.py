@@ -79,3 +79,33 @@ def test_generated_multi_step_script_runs_as_a_program(tmp_path: Path) -> None:
     ours = apply_recipe(table_of(grid, "counts.csv"), recipe).tables["counts"].fillna("")
     assert cells(theirs) == cells(ours)
     assert cells(ours)[1:3] == [["3", "VB-014", "2024", "3"], ["3", "VB-014", "2025", ""]]
+
+
+@pytest.mark.parametrize("suffix", [".tsv", ".xlsx"])
+def test_generated_code_reads_tsv_and_excel_sheets(suffix: str, tmp_path: Path) -> None:
+    grid: Grid = [[None, None, None], ["site", "2024", "2025"], ["VB-014", "3", None], ["VB-015", "5", "2"]]
+    if suffix == ".tsv":
+        with (tmp_path / "counts.tsv").open("w", newline="", encoding="utf-8") as handle:
+            csv.writer(handle, delimiter="\t").writerows([["" if v is None else v for v in r] for r in grid])
+    else:
+        openpyxl = pytest.importorskip("openpyxl")
+        book = openpyxl.Workbook()
+        sheet = book.active
+        sheet.title = "Counts 2025"
+        for r, row in enumerate(grid, start=1):
+            for c, value in enumerate(row, start=1):
+                if value is not None:
+                    sheet.cell(row=r, column=c, value=value)
+        book.save(tmp_path / "counts.xlsx")
+    recipe = Recipe.from_json(
+        recipe_json(
+            {"step": "drop_rows", "rows": [1], "reason": "blank"},
+            {"step": "gather", "columns": ["2024", "2025"], "names_to": "year", "values_to": "count"},
+        )
+    )
+    ours = apply_recipe(table_of(grid, f"counts{suffix}"), recipe).tables["counts"]
+    theirs = run_generated(
+        pandas_code(recipe, f"counts{suffix}", sheet="Counts 2025" if suffix == ".xlsx" else None)
+    )
+    assert cells(theirs) == cells(ours)
+    assert len(ours) == 4

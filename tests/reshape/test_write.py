@@ -79,3 +79,22 @@ def test_already_tidy_table_is_written_unchanged() -> None:
     reshaped, audit = tidy_with_recipe(table, Recipe())
     assert audit.lossless
     assert csv_text(reshaped.tables["vb_counts"]) == "site,n\r\nVB-014,3\r\nVB-015,\r\n"
+
+
+def test_origins_file_names_the_input_cell_of_every_output_cell(tmp_path: Path) -> None:
+    table = table_of([["site", "2024", "2025"], ["VB-014", "3", "4"]], rows=(3, 4))
+    recipe = Recipe.from_json(
+        recipe_json(
+            {"step": "add_row_id", "name": "line"},
+            {"step": "gather", "columns": ["2024", "2025"], "names_to": "year", "values_to": "n"},
+        )
+    )
+    reshaped, audit = tidy_with_recipe(table, recipe)
+    written = write_tidy(tmp_path / "out", table, reshaped, audit, recipe, with_origins=True)
+    with written.origins[0].open(newline="", encoding="utf-8") as handle:
+        rows = list(csv.reader(handle))
+    assert rows == [
+        ["line", "site", "year", "n"],
+        ["", "A4", "B3 (header)", "B4"],
+        ["", "A4", "C3 (header)", "C4"],
+    ]

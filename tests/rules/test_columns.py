@@ -51,6 +51,12 @@ CASES = (
         fix="to site_id",
     ),
     Case(
+        "a unit in the header is a misspelling of the bare name",
+        ("site_id", "sampled_on", "Result (mg/L)"),
+        (("columns.misspelt", ("Result (mg/L)",), ("C",)),),
+        fix="rename the column 'Result (mg/L)' to result",
+    ),
+    Case(
         "unexpected column, warned by default",
         ("site_id", "sampled_on", "result", "lab_notes"),
         (("columns.unexpected", ("lab_notes",), ("D",)),),

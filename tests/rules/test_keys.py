@@ -6,6 +6,8 @@ from collections.abc import Callable
 
 import pandas as pd
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from linter.contract.model import TableContract, Variable, VarType
 from linter.findings import Finding
@@ -82,3 +84,26 @@ def test_incomplete_grid(
     found = check_family(rows, contract, "keys")
     assert tuple(e for f in found for e in f.examples) == absent
     assert all(f.rule == "keys.incomplete-grid" and f.count == len(absent) for f in found)
+
+
+# check_family holds no state between examples, so reusing the function-scoped fixture is safe.
+@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(
+    pairs=st.lists(
+        st.tuples(st.sampled_from(["VB-001", "VB-002", ""]), st.sampled_from(["2026-01", "2026-02"])),
+        max_size=12,
+    )
+)
+def test_duplicate_groups_agree_with_pandas_on_random_tables(
+    pairs: list[tuple[str, str]], check_family: Callable[..., list[Finding]]
+) -> None:
+    # Source: pandas reference library, duplicated(keep=False); rows with an empty key cell excluded,
+    # as an empty key is keys.missing, never a duplicate.
+    rows = [["site_id", "month", "result"], *([site, month, "1"] for site, month in pairs)]
+    body = pd.DataFrame(rows[1:], columns=rows[0])
+    body["line"] = range(2, len(rows) + 1)
+    body = body[body["site_id"] != ""]
+    marked = body[body.duplicated(["site_id", "month"], keep=False)]
+    expected = sorted(sorted(g["line"].tolist()) for _, g in marked.groupby(["site_id", "month"]))
+    found = [f for f in check_family(rows, KEYED, "keys") if f.rule == "keys.duplicate"]
+    assert sorted(f.evidence["rows"] for f in found) == expected

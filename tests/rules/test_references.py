@@ -47,3 +47,17 @@ def test_absent_table_is_a_note(check_family: Callable[..., list[Finding]]) -> N
 def test_absent_column_of_the_referenced_table_is_a_note(check_family: Callable[..., list[Finding]]) -> None:
     (finding,) = check_family(CHEMISTRY, CONTRACT, "references", others={"sites": [["code"], ["VB-001"]]})
     assert finding.rule == "references.table-absent" and "column site_id" in finding.message
+
+
+def test_numeric_keys_are_compared_as_written(check_family: Callable[..., list[Finding]]) -> None:
+    contract = TableContract(
+        "visits",
+        "one visit",
+        (),
+        (Variable("station", VarType.INTEGER, references=Reference("stations", "code")),),
+    )
+    stations = [["code"], ["14"], ["15"]]
+    (finding,) = check_family(
+        [["station"], ["14"], ["014"], ["16"]], contract, "references", others={"stations": stations}
+    )
+    assert finding.place.rows == (3, 4) and finding.examples == ("014", "16")

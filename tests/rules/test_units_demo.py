@@ -1,28 +1,45 @@
-"""The units demo submission: each file earns exactly the units rules its manifest lists."""
+"""The units demo: each manifest run gives its exit code and exactly the units rules it promises."""
 
 from __future__ import annotations
 
-import shutil
 from pathlib import Path
+from typing import Any
 
+import pytest
 from ruamel.yaml import YAML
 
 from linter.check import check_paths
+from linter.contract.load import load_contract
+
+REPO = Path(__file__).resolve().parent.parent.parent
+FOLDER = REPO / "sample_submissions" / "units"
 
 
-def test_demo_submission_earns_the_listed_rules(repo: Path, tmp_path: Path) -> None:
-    demo = tmp_path / "units"
-    shutil.copytree(repo / "sample_submissions" / "units", demo)
-    expected = YAML(typ="safe").load((demo / "expected.yaml").read_text(encoding="utf-8"))
-    before = {p: p.read_bytes() for p in demo.rglob("*.csv")}
-    report = check_paths(["units"], [])
-    found: dict[str, set[str]] = {}
-    for finding in report.all_findings():
-        name = Path(finding.place.file).relative_to("units").as_posix()
-        found.setdefault(name, set()).add(finding.rule)
-    assert {r.file for r in report.results} == {f"units/{name}" for name in expected}
-    for name, rules in expected.items():
-        reported = found.get(name, set())
-        assert set(rules) <= reported, name
-        assert {r for r in reported if r.startswith("units.")} == set(rules), name  # no false alarm
-    assert {p: p.read_bytes() for p in demo.rglob("*.csv")} == before  # inputs untouched
+def entries() -> list[tuple[str, dict[str, Any]]]:
+    manifest = YAML(typ="safe", pure=True).load(FOLDER / "expected.yaml")
+    return list(manifest["files"].items())
+
+
+def test_manifest_lists_every_data_file() -> None:
+    present = {p.relative_to(FOLDER).as_posix() for p in FOLDER.rglob("*.csv")}
+    assert {name for name, _ in entries()} == present
+
+
+@pytest.mark.parametrize(("name", "entry"), entries(), ids=[n for n, _ in entries()])
+def test_demo_run_gives_the_promised_units_rules(name: str, entry: dict[str, Any]) -> None:
+    contracts = [load_contract(str(p)) for p in sorted((REPO / "contracts").glob("*.yaml"))]
+    paths = [str(FOLDER / name)] + [str(FOLDER / other) for other in entry["submitted_with"]]
+    before = {p: Path(p).read_bytes() for p in paths}
+    report = check_paths(paths, contracts)
+    mine = [r for r in report.results if Path(r.file) == FOLDER / name]
+    assert len(mine) == 1
+    assert mine[0].contract == (
+        load_contract(str(REPO / entry["contract"])).id if entry["contract"] else None
+    )
+    reported = {f.rule for f in report.all_findings() if Path(f.place.file) == FOLDER / name}
+    assert (1 if report.failed else 0) == entry["exit"], sorted(reported)
+    assert set(entry["must_report"]) <= reported
+    assert {r for r in reported if r.startswith("units.")} == {
+        r for r in entry["must_report"] if r.startswith("units.")
+    }  # no contract-free false alarm in this family
+    assert {p: Path(p).read_bytes() for p in paths} == before  # inputs untouched

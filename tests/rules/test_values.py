@@ -11,6 +11,7 @@ from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.findings import Finding, Severity
 
 NITRATE_CODES = CodeList(("NITRATE", "PHOSPHATE", "AMMONIUM"))
+COUNTIES = CodeList(("ALD", "BRK"), labels={"ALD": "Aldermoor", "BRK": "Brookfold"})
 
 
 @dataclass(frozen=True)
@@ -85,6 +86,18 @@ CASES = (
         (Expect("values.wrong-type", (3,), "whole number", ("3.5",)),),
     ),
     Case(
+        "integer range",
+        Variable("count", VarType.INTEGER, minimum=1, maximum=10),
+        ("1", "11", "NA", "0"),
+        (Expect("values.out-of-range", (3, 5), "at least 1 and at most 10", ("11", "0")),),
+    ),
+    Case(
+        "date-time range",
+        Variable("taken_at", VarType.DATETIME, maximum="2026-12-31T23:59:59"),
+        ("2026-03-02T10:15:00", "2027-01-01T00:00:00"),
+        (Expect("values.out-of-range", (3,), "at most 2026-12-31T23:59:59", ("2027-01-01T00:00:00",)),),
+    ),
+    Case(
         "boolean words",
         Variable("filtered", VarType.BOOLEAN),
         ("true", "FALSE", "1", "yes"),
@@ -116,7 +129,7 @@ CASES = (
             Expect(
                 "values.code-variant",
                 (3, 4),
-                "use the code NITRATE (found 'Nitrate ')",
+                "use the code NITRATE (found 'Nitrate ', 'nitrate')",
                 ("Nitrate ", "nitrate"),
             ),
         ),
@@ -124,14 +137,54 @@ CASES = (
     Case(
         "unknown code with a near miss",
         Variable("analyte", VarType.CATEGORY, codes=NITRATE_CODES),
-        ("NITRATE", "AMONIUM", "LEAD"),
-        (Expect("values.not-in-code-list", (3, 4), "did you mean AMMONIUM", ("AMONIUM", "LEAD")),),
+        ("NITRATE", "AMONIUM", "LEAD", "PHOSPHTE"),
+        (
+            Expect(
+                "values.not-in-code-list",
+                (3, 4, 5),
+                "'AMONIUM' looks like AMMONIUM: write AMMONIUM if that is meant; 'PHOSPHTE' looks like "
+                "PHOSPHATE: write PHOSPHATE if that is meant; otherwise use one of the allowed codes: "
+                "NITRATE, PHOSPHATE, AMMONIUM",
+                ("AMONIUM", "LEAD", "PHOSPHTE"),
+            ),
+        ),
+    ),
+    Case(
+        "a label written instead of its code",
+        Variable("county", VarType.CATEGORY, codes=COUNTIES),
+        ("ALD", "Aldermoor", "brookfold"),
+        (
+            Expect(
+                "values.not-in-code-list",
+                (3, 4),
+                "write ALD instead of its label 'Aldermoor'; write BRK instead of its label 'brookfold'",
+            ),
+        ),
+    ),
+    Case(
+        "bounds read as the contract wrote them",
+        Variable("result", VarType.NUMBER, minimum=0.0, maximum=2000.0),
+        ("2500",),
+        (Expect("values.out-of-range", (2,), "at least 0 and at most 2000"),),
     ),
     Case(
         "pattern must match the whole text",
         Variable("site_id", pattern=r"VB-\d{3}"),
         ("VB-014", "VB-0145", "vb-014"),
-        (Expect("values.pattern-mismatch", (3, 4), "VB-\\d{3}", ("VB-0145", "vb-014")),),
+        (
+            Expect(
+                "values.pattern-mismatch",
+                (3, 4),
+                "like 'VB-014' (found 'VB-0145', 'vb-014'); write 'vb-014' in capital letters",
+                ("VB-0145", "vb-014"),
+            ),
+        ),
+    ),
+    Case(
+        "surrounding spaces are named as the only problem",
+        Variable("site_id", pattern=r"VB-\d{3}"),
+        ("VB-014 ", "VB-14"),
+        (Expect("values.pattern-mismatch", (2, 3), "remove the surrounding spaces from 'VB-014 '"),),
     ),
     Case(
         "empty cells and missing codes in a non-nullable variable",

@@ -7,14 +7,14 @@ from scale_lab_data import csv_text, lab_rows
 
 pytest.importorskip("distributed")
 
-from distributed import Client, LocalCluster  # noqa: E402
-from typer.testing import CliRunner  # noqa: E402
+from distributed import Client, LocalCluster
+from typer.testing import CliRunner
 
-from linter.check import check_paths  # noqa: E402
-from linter.cli import app  # noqa: E402
-from linter.contract.load import load_contract  # noqa: E402
-from linter.scale import dask_engine  # noqa: E402
-from linter.scale.dask_engine import screen_with_dask  # noqa: E402
+from linter.check import check_paths
+from linter.cli import app
+from linter.contract.load import load_contract
+from linter.scale import dask_engine
+from linter.scale.dask_engine import screen_with_dask
 
 
 @pytest.fixture(scope="module")
@@ -53,7 +53,16 @@ def test_cli_engine_dask_refuses_an_unreachable_scheduler_in_one_line(tmp_path, 
     path.write_text(csv_text(lab_rows(20, seed=1)), encoding="utf-8")
     outcome = CliRunner().invoke(
         app,
-        ["check", str(path), "-c", str(contract_file), "--engine", "dask", "--scheduler", "tcp://127.0.0.1:9"],
+        [
+            "check",
+            str(path),
+            "-c",
+            str(contract_file),
+            "--engine",
+            "dask",
+            "--scheduler",
+            "tcp://127.0.0.1:9",
+        ],
     )
     assert outcome.exit_code == 2
     assert "Traceback" not in outcome.output and "Dask scheduler" in outcome.output

@@ -70,6 +70,8 @@ def values_in_headers(rng: random.Random) -> None:
         messy, tidy = wide(rng, ranges, 5)
         tidy = [["site_id", "from", "to", "value"]] + [[r[0], *r[1].split("-"), r[2]] for r in tidy[1:]]
         case(f"depth-bands-{i}", "values-in-headers", messy, tidy)
+    for i, months in enumerate([["Jan 2026", "Feb 2026", "Mar 2026"], ["2025 Oct", "2025 Nov", "2025 Dec"]]):
+        case(f"month-year-headers-{i}", "values-in-headers", *wide(rng, months, 4, blank_share=0.1))
     for i, prefix in enumerate(["wk", "visit_", "d"]):
         headers = [f"{prefix}{k}" for k in range(1, 5 + i)]
         messy, tidy = wide(rng, headers, 5, blank_share=0.15)
@@ -151,6 +153,13 @@ def variables_in_rows(rng: random.Random) -> None:
                 messy += [[site, day, n, v] for n, v in zip(names, values, strict=True)]
                 tidy.append([site, day, *values])
         case(f"variables-in-rows-{i}", "variables-in-rows", messy, tidy)
+    messy = [["site_id", "visited_on", "measure", "value"]]
+    tidy = [["site_id", "visited_on", "water_temp_c", "ph", "dissolved_oxygen"]]
+    for site in rng.sample(SITES, 3):
+        values = [num(rng, 4, 12), num(rng, 6, 8), num(rng, 8, 11)]
+        messy += [[site, "2026-03-04", n, v] for n, v in zip(tidy[0][2:], values, strict=True)]
+        tidy.append([site, "2026-03-04", *values])
+    case("variables-in-rows-generic-measure", "variables-in-rows", messy, tidy)
     messy = [["site_id", "field", "entry"]]
     tidy = [["site_id", "sampled_on", "ph", "observer"]]
     for site in rng.sample(SITES, 4):
@@ -273,6 +282,64 @@ def multi_step(rng: random.Random) -> None:
     case("multi-years-units", "multi-step", messy, tidy)
 
 
+XLSX: dict[str, list[str]] = {}
+"""Cases written as workbooks: case name -> merged ranges of its sheet."""
+
+
+def workbooks(rng: random.Random) -> None:
+    """Spreadsheet forms: merged group labels over a two-row header, merged site cells, a title."""
+    top = ["site_id", "nitrate", "", "phosphate", ""]
+    second = ["", "min", "max", "min", "max"]
+    body = [
+        [s, num(rng, 0, 1), num(rng, 1, 2), num(rng, 0, 0.05, 3), num(rng, 0.05, 0.1, 3)]
+        for s in rng.sample(SITES, 4)
+    ]
+    case(
+        "xlsx-merged-two-row-header",
+        "multi-row-header",
+        [top, second, *body],
+        [["site_id", "a", "b", "c", "d"], *body],
+    )
+    XLSX["xlsx-merged-two-row-header"] = ["B1:C1", "D1:E1"]
+    messy: Rows = [["site_id", "sampled_on", "ph"]]
+    tidy: Rows = [["site_id", "sampled_on", "ph"]]
+    merged = []
+    for site in rng.sample(SITES, 3):
+        start = len(messy) + 1
+        for k in range(3):
+            day, ph = f"2025-07-{k * 7 + 1:02d}", num(rng, 6, 8)
+            messy.append([site if k == 0 else "", day, ph])
+            tidy.append([site, day, ph])
+        merged.append(f"A{start}:A{start + 2}")
+    case("xlsx-merged-site-cells", "same-as-above", messy, tidy)
+    XLSX["xlsx-merged-site-cells"] = merged
+    messy, tidy = wide(rng, ["2022", "2023", "2024"], 4)
+    case("xlsx-title-and-years", "multi-step", [["Exceedances per year", "", "", ""], *messy], tidy)
+    XLSX["xlsx-title-and-years"] = ["A1:D1"]
+
+
+def write_workbook(path: Path, rows: Rows, merged: list[str]) -> None:
+    from openpyxl import Workbook
+
+    book = Workbook()
+    sheet = book.active
+    assert sheet is not None
+    sheet.title = "Results"
+    for row in rows:
+        sheet.append([None if v == "" else (float(v) if _is_number(v) else v) for v in row])
+    for cells in merged:
+        sheet.merge_cells(cells)
+    book.save(path)
+
+
+def _is_number(text: str) -> bool:
+    try:
+        float(text)
+    except ValueError:
+        return False
+    return True
+
+
 BUILDERS: list[Callable[[random.Random], None]] = [
     values_in_headers,
     repeated_groups,
@@ -286,27 +353,34 @@ BUILDERS: list[Callable[[random.Random], None]] = [
     no_header,
     margins,
     multi_step,
+    workbooks,
 ]
 
 
 def main() -> None:
+    from fresh_cases import fresh_tables
     from tidy_cases import tidy_tables
     from wickham_cases import wickham_tables
 
-    rng = random.Random(20260402)
+    # One generator per builder, so that adding cases to one family leaves the others as they were.
     for build in BUILDERS:
-        build(rng)
-    for name, rows in tidy_tables(rng).items():
+        build(random.Random(f"weir-layout-{build.__name__}"))
+    for name, rows in tidy_tables(random.Random("weir-layout-tidy")).items():
         case(name, "tidy", rows, rows)
     for name, (messy, tidy) in wickham_tables().items():
         case(name, "tidy-data-paper", messy, tidy)
+    for name, (family, messy, tidy) in fresh_tables().items():
+        case(name, family, messy, tidy)
     for folder in HERE.iterdir():
         if folder.is_dir() and (folder / "case.yaml").exists():
             shutil.rmtree(folder)
     for name, (family, messy, tidy) in CASES.items():
         folder = HERE / name
         folder.mkdir()
-        write(folder / "input.csv", messy)
+        if name in XLSX:
+            write_workbook(folder / "input.xlsx", messy, XLSX[name])
+        else:
+            write(folder / "input.csv", messy)
         write(folder / "expected.csv", tidy)
         (folder / "case.yaml").write_text(f"family: {family}\n", encoding="utf-8")
     print(f"{len(CASES)} cases written")

@@ -1,0 +1,137 @@
+"""Tiny layout cases: the CSV a provider might send, and the one finding (and step) it must draw.
+
+Each failing case names the rule and the recipe step; each passing case is a tidy table that
+must draw no layout finding at all. Sources for the structural problems: Wickham, "Tidy Data",
+Journal of Statistical Software 59(10), 2014, section 3 (five common problems); the rest are
+common practice in survey and monitoring spreadsheets (no source).
+"""
+
+from __future__ import annotations
+
+FAILING: dict[str, tuple[str, str, str]] = {
+    # Source: Wickham 2014 §3.1 "column headers are values, not variable names" (years as headers).
+    "years-as-headers": (
+        "site_id,2023,2024,2025\nVB-014,3,5,4\nVB-015,1,0,2\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
+    # Common practice (no source): month columns in a volunteer count sheet.
+    "months-as-headers": (
+        "station,Jan,Feb,Mar\nVB-001,4,6,2\nVB-002,1,3,3\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
+    # Source: Wickham 2014 Table 7 (billboard): wk1, wk2, wk3 differ only by a number.
+    "numbered-headers": (
+        "site_id,wk1,wk2,wk3\nVB-014,87,82,72\nVB-015,91,87,92\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
+    # Common practice (no source): replicate groups laid out side by side.
+    "repeated-groups": (
+        "site_id,Sample 1 Depth,Sample 1 Result,Sample 2 Depth,Sample 2 Result\n"
+        "VB-014,0.5,1.2,2.0,1.4\nVB-015,0.4,1.0,1.8,1.1\n",
+        "layout.repeated-column-groups",
+        "gather_groups",
+    ),
+    # Source: Wickham 2014 §3.2 "multiple variables stored in one column" (value with its unit).
+    "value-and-unit": (
+        "site_id,nitrate\nVB-014,1.2 mg/L\nVB-015,0.8 mg/L\nVB-016,2.1 mg/L\n",
+        "layout.packed-column",
+        "split_column",
+    ),
+    # Common practice (no source): a depth band written as a range.
+    "range": (
+        "site_id,depth_m,temp_c\nVB-014,0-5,8.1\nVB-015,5-10,7.2\nVB-016,0-5,8.4\n",
+        "layout.packed-column",
+        "split_column",
+    ),
+    # Common practice (no source): a taxa list in one cell.
+    "list-cells": (
+        "site_id,taxa\nVB-014,mayfly; stonefly\nVB-015,mayfly\n"
+        "VB-016,caddisfly; mayfly; midge\nVB-017,midge\n",
+        "layout.list-cells",
+        "explode",
+    ),
+    # Source: Wickham 2014 §3.3 "variables stored in both rows and columns" (tmin/tmax in rows).
+    "variables-in-rows": (
+        "site_id,day,measure,value\nVB-014,2025-06-01,temp_min,4.1\nVB-014,2025-06-01,temp_max,9.8\n"
+        "VB-015,2025-06-01,temp_min,3.9\nVB-015,2025-06-01,temp_max,10.2\n",
+        "layout.variables-in-rows",
+        "spread",
+    ),
+    # Common practice (no source): a field sheet typed in sideways.
+    "transposed": (
+        "site_id,VB-014,VB-015,VB-016\nsampled_on,2025-03-02,2025-03-03,2025-03-04\n"
+        "ph,7.1,6.8,7.3\nobserver,Ana,Bo,Cy\n",
+        "layout.transposed",
+        "transpose",
+    ),
+    # Common practice (no source): reach names as section titles.
+    "section-titles": (
+        "site_id,ph,nitrate\nUpper Vell,,\nVB-014,7.1,1.2\nVB-015,7.0,1.1\nLower Vell,,\nVB-031,6.9,0.8\n",
+        "layout.section-titles",
+        "lift_titles",
+    ),
+    # Common practice (no source): a merged site cell exported as blanks below it.
+    "same-as-above": (
+        "site_id,sampled_on,ph\nVB-014,2025-03-02,7.1\n,2025-03-09,7.0\n,2025-03-16,7.2\n"
+        "VB-015,2025-03-02,6.8\n,2025-03-09,6.9\n",
+        "layout.same-as-above",
+        "fill_down",
+    ),
+    # Common practice (no source): a group label over two sub-columns.
+    "multi-row-header": (
+        "site_id,nitrate,,phosphate,\n,min,max,min,max\nVB-014,0.4,1.1,0.02,0.05\nVB-015,0.3,0.9,0.01,0.04\n",
+        "layout.multi-row-header",
+        "header",
+    ),
+    # Common practice (no source): an export without its header line.
+    "no-header": (
+        "VB-014,2025-03-02,7.1\nVB-015,2025-03-02,6.8\nVB-016,2025-03-03,7.4\n",
+        "layout.no-header",
+        "header",
+    ),
+    # Common practice (no source): a total under the data.
+    "total-row": (
+        "site_id,count\nVB-014,3\nVB-015,5\nTotal,8\n",
+        "layout.totals-and-notes",
+        "drop_rows",
+    ),
+    # Common practice (no source): a footnote under the data.
+    "footnote": (
+        "site_id,count\nVB-014,3\nVB-015,5\n* counts from the spring survey,\n",
+        "layout.totals-and-notes",
+        "drop_rows",
+    ),
+    # Common practice (no source): a spacer column left empty.
+    "blank-column": (
+        "site_id,,ph\nVB-014,,7.1\nVB-015,,6.8\n",
+        "layout.blank-rows-columns",
+        "drop_columns",
+    ),
+}
+
+PASSING: dict[str, str] = {
+    # Common practice (no source): the tidy-but-wide lab table the brief names.
+    "wide-lab-table": "site_id,sampled_on,ph,nitrate_mg_l,temp_c\nVB-014,2025-03-02,7.1,1.2,8.5\n"
+    "VB-015,2025-03-02,6.8,0.9,8.1\nVB-016,2025-03-03,7.4,1.5,7.9\n",
+    # Source: Wickham 2014 §2.3: a long table of one analyte per row is tidy (unit beside result).
+    "long-chemistry": "site_id,sampled_on,analyte,result,unit\nVB-014,2025-03-02,nitrate,1.2,mg/L\n"
+    "VB-014,2025-03-02,chloride,31,mg/L\nVB-015,2025-03-02,nitrate,0.9,mg/L\nVB-015,2025-03-02,chloride,28,mg/L\n",
+    # Common practice (no source): chemical formulas carry digits but are variable names.
+    "formula-headers": "site_id,po4,no3,nh4\nVB-014,0.02,1.2,0.1\nVB-015,0.03,0.9,0.2\nVB-016,0.01,1.4,0.1\n",
+    # Common practice (no source): a year is a value in a column, not a header.
+    "year-column": "site_id,year,count\nVB-014,2024,3\nVB-014,2025,5\nVB-015,2024,1\n",
+    # Common practice (no source): an optional qualifier column is mostly blank, not "same as above".
+    "optional-qualifier": "site_id,analyte,result,qualifier\nVB-014,nitrate,1.2,\nVB-015,nitrate,0.05,U\n"
+    "VB-016,nitrate,0.9,\nVB-017,nitrate,0.04,U\n",
+    # Common practice (no source): free-text notes with commas are not lists.
+    "notes-with-commas": 'site_id,notes\nVB-014,"bank eroded, sampled upstream"\nVB-015,clear\n'
+    'VB-016,"cattle in stream, turbid"\nVB-017,\n',
+    # Common practice (no source): short identifiers with a number are identifiers.
+    "short-ids": "site,depth_m\nS1,0.5\nS2,1.5\nS3,2.5\n",
+    # Common practice (no source): min and max as two columns is already tidy.
+    "min-max-columns": "site_id,day,temp_min,temp_max\n"
+    "VB-014,2025-06-01,4.1,9.8\nVB-015,2025-06-01,3.9,10.2\n",
+}
