@@ -8,6 +8,7 @@ from dataclasses import dataclass
 from datetime import UTC, datetime
 from fnmatch import fnmatch
 from pathlib import PurePath
+from typing import Protocol
 
 from linter import __version__
 from linter.contract.model import Contract, TableContract
@@ -20,10 +21,19 @@ from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
+from linter.scale.fast_path import read_screened
 from linter.table import Frame, Table, first_row_header
 from linter.template.returned import sheet_owner, template_parts_removed
 
 INTERNAL_RULE = "weir.inspector-failed"
+
+
+class FileProgress(Protocol):
+    """Told how far the check has got through each submitted file (see `linter.scale.progress`)."""
+
+    def part(self, path: str, fraction: float) -> None: ...
+
+    def done(self, path: str) -> None: ...
 
 
 @dataclass(frozen=True)
@@ -34,6 +44,8 @@ class Governed:
     contract: Contract | None
     rules: TableContract | None
     sha256: str
+    rows: int | None = None
+    """Body rows in the file when `table` holds only the rows a pre-screen kept (large files)."""
 
 
 def submitted_files(paths: Iterable[str], max_depth: int = MAX_FOLDER_DEPTH) -> list[str]:
@@ -140,72 +152,134 @@ def timed_out(seconds: float) -> UnreadableFile:
     )
 
 
+@dataclass(frozen=True)
+class FileOutcome:
+    """One submitted file read (and, when it needs no other table, already inspected)."""
+
+    governed: tuple[Governed, ...]
+    unreadable: TableResult | None = None
+    results: tuple[TableResult | None, ...] = ()
+    """Per governed table, its result when inspected where it was read; None to inspect later."""
+
+
+def read_governed(
+    path: str,
+    contracts: Sequence[Contract],
+    bounds: Limits,
+    progress: FileProgress | None = None,
+    engine: str = "local",
+) -> FileOutcome:
+    """Read one file under its contract: large plain CSV files through the pre-screen.
+
+    With engine "dask" every plain delimited file is pre-screened on the current Dask cluster.
+    The pre-screen reads in bounded memory and linear time, so it is not under the time limit.
+    """
+    sha = file_sha256(path)
+    contract, rules = governing(path, contracts)
+    if rules is not None:
+        if engine == "dask":
+            from linter.scale.dask_engine import screen_with_dask
+
+            screened = screen_with_dask(path, rules)
+        else:
+            share = None if progress is None else (lambda fraction: progress.part(path, fraction))
+            screened = read_screened(path, rules, progress=share)
+        if screened is not None:
+            return FileOutcome((Governed(screened.table, contract, rules, sha, screened.rows),))
+    try:
+        with time_limit(bounds.seconds_per_file):
+            tables = read_path(path, bounds.read)
+    except UnreadableFile as error:
+        return FileOutcome((), unreadable_result(path, sha, error))
+    except TimedOut:
+        return FileOutcome((), unreadable_result(path, sha, timed_out(bounds.seconds_per_file)))
+    # A returned Weir template: its help sheets and untouched example rows are not data, and
+    # each sheet named after a table of the contract is governed by that table.
+    owner = contract or sheet_owner(tables, contracts)
+    return FileOutcome(
+        tuple(
+            Governed(table, owner if table_rules else contract, table_rules, sha)
+            for table, table_rules in template_parts_removed(tables, owner, rules)
+        )
+    )
+
+
+def needs_other_tables(rules: TableContract | None) -> bool:
+    return rules is not None and any(v.references is not None for v in rules.variables)
+
+
+def table_result(g: Governed, subject: Subject, bounds: Limits) -> TableResult:
+    frame = subject.frame
+    try:
+        with time_limit(bounds.seconds_per_file):
+            findings = attach_excerpts(
+                run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
+            )
+    except TimedOut:
+        stopped = timed_out(bounds.seconds_per_file)
+        place = Place(file=g.table.source, sheet=g.table.sheet)
+        findings = (Finding(stopped.rule, Severity.ERROR, stopped.message, place, fix=stopped.fix),)
+    return TableResult(
+        file=g.table.source,
+        sheet=g.table.sheet,
+        sha256=g.sha256,
+        format=g.table.format,
+        rows=len(frame.rows) if g.rows is None else g.rows,
+        columns=len(frame.names),
+        contract=g.contract.id if g.contract else None,
+        contract_version=g.contract.version if g.contract else None,
+        table=g.rules.name if g.rules else None,
+        findings=tuple(findings),
+        encoding=g.table.encoding,
+    )
+
+
 def check_paths(
     paths: Sequence[str],
     contracts: Sequence[Contract],
     fail_on: Severity = Severity.ERROR,
     limits: Limits | None = None,
+    jobs: int = 1,
+    progress: FileProgress | None = None,
+    engine: str = "local",
 ) -> Report:
-    """Check every named file (folders expanded) and return the whole report."""
+    """Check every named file (folders expanded) and return the whole report.
+
+    With `jobs` above 1, files are read and inspected in that many worker processes (started
+    once for the whole run); tables that reference another table are inspected here afterwards.
+    """
     import linter.rules.catalogue  # noqa: F401  (registers every rule family)
 
     bounds = limits or Limits()
-    governed: list[Governed] = []
-    results: list[TableResult] = []
     expansion = expand_paths(paths, SUPPORTED_SUFFIXES, bounds.folder_depth)
     not_followed = not_followed_findings(expansion.skipped)
-    for path in expansion.files:
-        sha = file_sha256(path)
-        contract, rules = governing(path, contracts)
-        try:
-            with time_limit(bounds.seconds_per_file):
-                tables = read_path(path, bounds.read)
-        except UnreadableFile as error:
-            results.append(unreadable_result(path, sha, error))
-            continue
-        except TimedOut:
-            results.append(unreadable_result(path, sha, timed_out(bounds.seconds_per_file)))
-            continue
-        # A returned Weir template: its help sheets and untouched example rows are not data, and
-        # each sheet named after a table of the contract is governed by that table.
-        owner = contract or sheet_owner(tables, contracts)
-        for table, table_rules in template_parts_removed(tables, owner, rules):
-            governed.append(Governed(table, owner if table_rules else contract, table_rules, sha))
+    files = list(expansion.files)
+    if jobs > 1 and len(files) > 1 and engine == "local":
+        from linter.scale.parallel import outcomes_in_parallel
 
-    frames = {id(g): first_row_header(g.table) for g in governed}
+        outcomes = outcomes_in_parallel(files, contracts, bounds, jobs, progress)
+    else:
+        outcomes = []
+        for path in files:
+            outcomes.append(read_governed(path, contracts, bounds, progress, engine))
+            if progress is not None:
+                progress.done(path)
+    results: list[TableResult] = [o.unreadable for o in outcomes if o.unreadable is not None]
+    governed = [
+        (g, r)
+        for o in outcomes
+        for g, r in zip(o.governed, o.results or (None,) * len(o.governed), strict=True)
+    ]
+    frames = {id(g): first_row_header(g.table) for g, _ in governed}
     by_name: dict[str, Frame] = {}
-    for g in governed:
+    for g, _ in governed:
         if g.rules is not None:
             by_name.setdefault(g.rules.name, frames[id(g)])
     subjects: list[Subject] = []
-    for g in governed:
-        frame = frames[id(g)]
-        subject = Subject(g.table, frame, g.rules, by_name)
+    for g, done in governed:
+        subject = Subject(g.table, frames[id(g)], g.rules, by_name)
         subjects.append(subject)
-        try:
-            with time_limit(bounds.seconds_per_file):
-                findings = attach_excerpts(
-                    run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
-                )
-        except TimedOut:
-            stopped = timed_out(bounds.seconds_per_file)
-            place = Place(file=g.table.source, sheet=g.table.sheet)
-            findings = (Finding(stopped.rule, Severity.ERROR, stopped.message, place, fix=stopped.fix),)
-        results.append(
-            TableResult(
-                file=g.table.source,
-                sheet=g.table.sheet,
-                sha256=g.sha256,
-                format=g.table.format,
-                rows=len(frame.rows),
-                columns=len(frame.names),
-                contract=g.contract.id if g.contract else None,
-                contract_version=g.contract.version if g.contract else None,
-                table=g.rules.name if g.rules else None,
-                findings=tuple(findings),
-                encoding=g.table.encoding,
-            )
-        )
+        results.append(done if done is not None else table_result(g, subject, bounds))
     whole = tuple(sorted([*not_followed, *run_submission_inspectors(subjects)], key=sort_key))
     return Report(
         __version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results), whole

@@ -2,7 +2,10 @@
 
 from __future__ import annotations
 
+import os
 from collections.abc import Callable
+from contextlib import ExitStack
+from enum import StrEnum
 from pathlib import Path
 
 import typer
@@ -12,6 +15,12 @@ from linter.errors import WeirError
 from linter.findings import Severity
 from linter.output import write_bytes_atomic
 from linter.report.model import Report
+
+
+class Engine(StrEnum):
+    LOCAL = "local"
+    DASK = "dask"
+
 
 OUTPUTS_HELP = """Check files against their contract; exit 0 if accepted, 1 if returned, 2 if Weir could not.
 
@@ -71,6 +80,17 @@ def check(
     ),
     fail_on: Severity | None = typer.Option(None, "--fail-on", help="Lowest severity that fails."),
     verbose: bool = typer.Option(False, "--verbose", "-v", help="Show every finding in the summary."),
+    jobs: int = typer.Option(
+        1, "--jobs", "-j", min=0, help="Check files in N worker processes (0: one per CPU core)."
+    ),
+    engine: Engine = typer.Option(
+        Engine.LOCAL, "--engine", help="local: this process (and --jobs); dask: pre-screen on a Dask cluster."
+    ),
+    scheduler: str | None = typer.Option(
+        None,
+        "--scheduler",
+        help="Address of the Dask scheduler for --engine dask (default: a local cluster).",
+    ),
 ) -> int:
     from rich.console import Console
 
@@ -100,7 +120,19 @@ def check(
     settings = find_settings(Path.cwd())
     threshold = fail_on or (settings.fail_on if settings else Severity.ERROR)
     governance = load_governance(settings, contract)
-    result = check_governed([str(p) for p in paths], governance, threshold)
+    from linter.check import submitted_files
+    from linter.scale.progress import bytes_meter
+
+    workers = jobs or os.cpu_count() or 1
+    with ExitStack() as stack:
+        if engine is Engine.DASK:
+            from linter.scale.dask_engine import cluster
+
+            stack.enter_context(cluster(scheduler))
+        meter = stack.enter_context(
+            bytes_meter(submitted_files([str(p) for p in paths]), Console(stderr=True))
+        )
+        result = check_governed([str(p) for p in paths], governance, threshold, workers, meter, engine.value)
     if redact or examples is not None:
         result = redacted(result, hide_values=redact, examples=examples)
     console_report.render(result, Console(), verbose=verbose)

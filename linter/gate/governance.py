@@ -5,12 +5,16 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from linter.config import Settings, bundle_members, bundle_of, contract_paths, mapped_contract
 from linter.contract.model import Contract
 from linter.findings import Severity
 from linter.limits import Limits
 from linter.report.model import Report
+
+if TYPE_CHECKING:
+    from linter.check import FileProgress
 
 
 @dataclass(frozen=True)
@@ -58,7 +62,14 @@ def load_governance(settings: Settings | None, named: Sequence[Path] = ()) -> Go
     return Governance(None if named else settings, loaded, bounds)
 
 
-def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severity) -> Report:
+def check_governed(
+    paths: Sequence[str],
+    governance: Governance,
+    fail_on: Severity,
+    jobs: int = 1,
+    progress: FileProgress | None = None,
+    engine: str = "local",
+) -> Report:
     """`weir check`: all files in one run, except that files a `[[map]]` assigns get their own run."""
     from linter import __version__
     from linter.check import check_paths, not_followed_findings
@@ -66,7 +77,15 @@ def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severi
     from linter.read.folders import expand_paths
 
     if governance.settings is None or not governance.settings.maps:
-        return check_paths(paths, list(governance.contracts.values()), fail_on, governance.limits)
+        return check_paths(
+            paths,
+            list(governance.contracts.values()),
+            fail_on,
+            governance.limits,
+            jobs=jobs,
+            progress=progress,
+            engine=engine,
+        )
     runs: dict[tuple[int, ...], list[str]] = {}
     chosen: dict[tuple[int, ...], tuple[Contract, ...]] = {}
     expansion = expand_paths(paths, SUPPORTED_SUFFIXES, governance.limits.folder_depth)
@@ -76,7 +95,10 @@ def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severi
         runs.setdefault(key, []).append(name)
         chosen[key] = contracts
     reports = [
-        check_paths(files, list(chosen[key]), fail_on, governance.limits) for key, files in runs.items()
+        check_paths(
+            files, list(chosen[key]), fail_on, governance.limits, jobs=jobs, progress=progress, engine=engine
+        )
+        for key, files in runs.items()
     ]
     if expansion.skipped:  # the per-map runs see only files, so report what the walk left out here
         skipped = tuple(not_followed_findings(expansion.skipped))

@@ -1,0 +1,1 @@
+"""Checking large submissions fast: Arrow pre-screening, streaming reads, parallel files, Dask."""

@@ -1,0 +1,188 @@
+"""Read a large, plain CSV file with Arrow, pre-screen it, and keep only the rows the engine must judge.
+
+The result is an ordinary `Table` (header, a sample of the first rows for the layout heuristics,
+and every row the screen could not pass) with the provider's exact line numbers, so the whole
+inspector catalogue — pandera included — runs on it unchanged. Any doubt about the file (a byte
+order mark, blank lines, quoted line breaks, ragged rows, NUL bytes, bare carriage returns,
+bytes that are not UTF-8) returns None and the file takes the ordinary reader instead.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import os
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import PurePath
+
+import pandas as pd
+import pyarrow as pa
+import pyarrow.csv as pacsv
+
+from linter.contract.model import TableContract
+from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
+from linter.scale.screen import unscreenable
+from linter.scale.stream import KEYS_IN_MEMORY_BYTES, StreamResult, screen_stream
+from linter.table import Table
+
+FAST_PATH_BYTES = 8 * 1024 * 1024
+"""Files at least this large are pre-screened; smaller ones are quick on the ordinary path."""
+SAMPLE_ROWS = 2000
+"""Leading body rows always kept, so layout and unit heuristics see the file as it starts."""
+SCAN_BLOCK = 16 * 1024 * 1024
+
+
+@dataclass(frozen=True)
+class ScreenedFile:
+    """A large file reduced to what needs judging, and what it was reduced from."""
+
+    table: Table
+    """Header row, leading sample and suspect rows, with the provider's line numbers."""
+    rows: int
+    """Body rows in the whole file."""
+    suspect: int
+    """Body rows the screen sent to the engine (the sample not counted)."""
+
+
+@dataclass(frozen=True)
+class LineCounts:
+    """Byte counts over the whole file that tell whether Arrow's rows are the provider's lines."""
+
+    newlines: int
+    carriage_returns: int
+    nuls: int
+    ends_with_newline: bool
+
+
+def count_lines(path: str) -> LineCounts:
+    newlines = returns = nuls = 0
+    last = b""
+    with open(path, "rb") as handle:
+        for block in iter(lambda: handle.read(SCAN_BLOCK), b""):
+            newlines += block.count(b"\n")
+            returns += block.count(b"\r")
+            nuls += block.count(b"\x00")
+            last = block[-1:]
+    return LineCounts(newlines, returns, nuls, last == b"\n")
+
+
+def plain_head(path: str) -> tuple[str, str] | None:
+    """(delimiter, header line) when the file starts as plain UTF-8 delimited text, else None."""
+    with open(path, "rb") as handle:
+        head = handle.read(SAMPLE_CHARS)
+    if head[:3] == b"\xef\xbb\xbf" or head[:2] in (b"\xff\xfe", b"\xfe\xff") or b"\x00" in head:
+        return None
+    cut = head.rfind(b"\n")
+    if cut < 0:
+        return None
+    try:
+        sample = head[: cut + 1].decode("utf-8")
+    except UnicodeDecodeError:
+        return None
+    if SEPARATOR_HINT.match(sample):
+        return None
+    delimiter = choose_delimiter(sample, complete=False, prefer_tab=PurePath(path).suffix.lower() == ".tsv")
+    return delimiter, sample.split("\n", 1)[0]
+
+
+def read_text_columns(path: str, delimiter: str, width: int) -> pa.Table | None:
+    """Every cell as text (empty -> null), header row included as row 0; None if Arrow refuses."""
+    names = [f"c{i}" for i in range(width)]
+    try:
+        return pacsv.read_csv(
+            path,
+            read_options=pacsv.ReadOptions(column_names=names, block_size=8 << 20),
+            parse_options=pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
+            convert_options=pacsv.ConvertOptions(
+                column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
+            ),
+        )
+    except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
+        return None
+
+
+def grid_of(columns: pa.Table) -> pd.DataFrame:
+    """Arrow text columns as the reader's grid: object cells, None where empty, positional labels."""
+    return pd.DataFrame(
+        {i: pd.Series(columns.column(i).to_pylist(), dtype=object) for i in range(columns.num_columns)}
+    )
+
+
+@dataclass(frozen=True)
+class PlainFile:
+    """A delimited file whose every physical line is one record: safe to cut into pieces anywhere."""
+
+    path: str
+    delimiter: str
+    width: int
+    counts: LineCounts
+
+    def rows_agree(self, body_rows: int) -> bool:
+        """One parsed row per physical line proves every row number exact (no blank or split lines)."""
+        lines = self.counts.newlines + (0 if self.counts.ends_with_newline else 1)
+        return body_rows >= 1 and lines == body_rows + 1
+
+
+def plain_file(path: str) -> PlainFile | None:
+    head = plain_head(path)
+    if head is None:
+        return None
+    delimiter, header_line = head
+    header = next(csv.reader(io.StringIO(header_line.rstrip("\r")), delimiter=delimiter), [])
+    if not header:
+        return None
+    counts = count_lines(path)
+    if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
+        return None
+    return PlainFile(path, delimiter, len(header), counts)
+
+
+def screened_table(plain: PlainFile, found: StreamResult) -> ScreenedFile:
+    """The header, the kept rows and their line numbers as an ordinary `Table`."""
+    header_grid = pd.DataFrame({i: pd.Series([n or None], dtype=object) for i, n in enumerate(found.names)})
+    grid = pd.concat([header_grid, grid_of(found.kept)], ignore_index=True)
+    grid.columns = pd.RangeIndex(grid.shape[1])
+    table = Table(
+        source=plain.path,
+        sheet=None,
+        grid=grid,
+        row_numbers=(1, *(p + 2 for p in found.positions)),
+        format="tsv" if plain.delimiter == "\t" else "csv",
+        encoding="utf-8",
+        delimiter=plain.delimiter,
+    )
+    return ScreenedFile(table, found.rows, found.suspect)
+
+
+def read_screened(
+    path: str,
+    contract: TableContract,
+    min_bytes: int | None = None,
+    sample_rows: int | None = None,
+    progress: Callable[[float], None] | None = None,
+) -> ScreenedFile | None:
+    """The file reduced to the rows the engine must see, or None when it takes the ordinary path."""
+    min_bytes = FAST_PATH_BYTES if min_bytes is None else min_bytes
+    sample_rows = SAMPLE_ROWS if sample_rows is None else sample_rows
+    size = os.stat(path).st_size
+    if size < min_bytes or unscreenable(contract) is not None:
+        return None
+    plain = plain_file(path)
+    if plain is None:
+        return None
+    lines = max(1, plain.counts.newlines)
+    seen = [0]
+
+    def rows_read(rows: int) -> None:
+        seen[0] += rows
+        if progress is not None:
+            progress(seen[0] / lines)
+
+    try:
+        found = screen_stream(
+            path, contract, plain.delimiter, plain.width, sample_rows, rows_read, size <= KEYS_IN_MEMORY_BYTES
+        )
+    except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
+        return None  # ragged rows, quoted line breaks, bytes that are not UTF-8: the ordinary reader says
+    return screened_table(plain, found) if plain.rows_agree(found.rows) else None

@@ -1,0 +1,258 @@
+"""Screen a delimited file batch by batch in bounded memory, keys across batches included.
+
+Column checks run per batch (`screen.screen_batch`). Keys need the whole file: below
+`KEYS_IN_MEMORY_BYTES` the key columns are kept (a small share of the file) and compared exactly;
+above it each key is hashed to 64 bits, the hashes are spilled to partition files by their top
+bits, each partition is searched for repeated hashes on its own, and a second pass reads back the
+candidate rows so that only keys that are really equal are reported (a hash collision is dropped).
+"""
+
+from __future__ import annotations
+
+import tempfile
+from collections.abc import Callable, Iterator
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+import pyarrow as pa
+import pyarrow.compute as pc
+import pyarrow.csv as pacsv
+
+from linter.contract.model import TableContract
+from linter.read.limits import DEFAULT_LIMITS
+from linter.scale.screen import duplicated_rows, key_codes, screen_batch, shared_codes
+from linter.table import unique_labels
+
+BATCH_BYTES = 16 * 1024 * 1024
+KEYS_IN_MEMORY_BYTES = 512 * 1024 * 1024
+"""Files larger than this find duplicate keys through spilled 64-bit hashes instead of kept keys."""
+PARTITION_ROWS = 4_000_000
+"""Rows per hash partition, so one partition (16 bytes a row) stays near 64 MB."""
+LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
+"""UTF-8 needs at most 4 bytes a character."""
+NULL_HASH = np.uint64(0x9E3779B97F4A7C15)
+
+Progress = Callable[[int], None]
+"""Told the number of body rows just screened."""
+
+
+@dataclass(frozen=True)
+class StreamResult:
+    """What a pass over the file found: the header, the kept rows with their positions, the row count."""
+
+    names: tuple[str, ...]
+    kept: pa.Table
+    """Header-less rows to show the engine (sample, suspects, duplicate keys), in file order."""
+    positions: tuple[int, ...]
+    """0-based body position of each kept row."""
+    rows: int
+    suspect: int
+
+
+def text_batches(path: str, delimiter: str, width: int, block: int | None = None) -> Iterator[pa.Table]:
+    """Batches of text cells (empty -> null), the header line included as the first row.
+
+    The file is cut at line ends and each piece parsed on its own: with line breaks inside cells
+    refused (`newlines_in_values=False`) that is exactly how Arrow splits records anyway, and only
+    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound).
+    """
+    block = BATCH_BYTES if block is None else block
+    names = [f"c{i}" for i in range(width)]
+    read_options = pacsv.ReadOptions(column_names=names)
+    parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False)
+    convert_options = pacsv.ConvertOptions(
+        column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
+    )
+    rest = b""
+    with open(path, "rb") as handle:
+        while True:
+            more = handle.read(block)
+            data = rest + more
+            cut = len(data) if not more else data.rfind(b"\n") + 1
+            piece, rest = data[:cut], data[cut:]
+            if len(rest) > LONGEST_LINE_BYTES:
+                # The ordinary reader refuses such a line with a finding; let it.
+                raise pa.ArrowInvalid("a line longer than the reader's limit")
+            if piece:
+                yield pacsv.read_csv(pa.BufferReader(piece), read_options, parse_options, convert_options)
+            if not more:
+                return
+
+
+def _mix(values: np.ndarray) -> np.ndarray:
+    """splitmix64's finaliser: spreads every input bit over the 64-bit hash."""
+    with np.errstate(over="ignore"):
+        values = (values ^ (values >> np.uint64(30))) * np.uint64(0xBF58476D1CE4E5B9)
+        values = (values ^ (values >> np.uint64(27))) * np.uint64(0x94D049BB133111EB)
+        return values ^ (values >> np.uint64(31))
+
+
+def key_hashes(keys: pa.Table) -> np.ndarray:
+    """A 64-bit hash per row of the whole key; equal keys hash equal, unequal ones almost never."""
+    combined = np.zeros(keys.num_rows, np.uint64)
+    for name in keys.column_names:
+        column = keys.column(name)
+        if pa.types.is_floating(column.type):
+            column = pc.add(column, 0.0)
+        encoded = pc.dictionary_encode(column.combine_chunks(), null_encoding="encode")
+        words = encoded.dictionary.to_numpy(zero_copy_only=False)
+        values = pd.util.hash_array(np.asarray(words, dtype=object), categorize=False)
+        values = np.where(pd.isna(words), NULL_HASH, values).astype(np.uint64)
+        raw = np.frombuffer(encoded.indices.buffers()[1], dtype=encoded.indices.type.to_pandas_dtype())
+        codes = raw[encoded.indices.offset : encoded.indices.offset + len(encoded.indices)]
+        with np.errstate(over="ignore"):
+            combined = _mix(combined * np.uint64(0x100000001B3) + values[codes])
+    return combined
+
+
+class HashSpill:
+    """64-bit key hashes and row positions written to partition files by the hash's top bits."""
+
+    def __init__(self, folder: Path, partitions: int) -> None:
+        self.bits = max(0, int(np.ceil(np.log2(max(partitions, 1)))))
+        # Closed in `candidates`, which every caller reaches (the folder is temporary anyway).
+        self.files = [open(folder / f"keys-{i}.bin", "ab") for i in range(1 << self.bits)]  # noqa: SIM115
+
+    def add(self, hashes: np.ndarray, start: int) -> None:
+        pairs = np.empty((len(hashes), 2), np.uint64)
+        pairs[:, 0] = hashes
+        pairs[:, 1] = np.arange(start, start + len(hashes), dtype=np.uint64)
+        part = (
+            (hashes >> np.uint64(64 - self.bits)).astype(np.int64)
+            if self.bits
+            else np.zeros(len(hashes), int)
+        )
+        for index in np.unique(part):
+            pairs[part == index].tofile(self.files[index])
+
+    def candidates(self) -> np.ndarray:
+        """Positions whose hash occurs more than once (true duplicates and the rare collision)."""
+        found: list[np.ndarray] = []
+        for handle in self.files:
+            handle.close()
+            pairs = np.fromfile(handle.name, np.uint64).reshape(-1, 2)
+            hashes = np.sort(pairs[:, 0])
+            repeated = np.unique(hashes[1:][hashes[1:] == hashes[:-1]])
+            if len(repeated):
+                found.append(pairs[np.isin(pairs[:, 0], repeated), 1].astype(np.int64))
+        return np.sort(np.concatenate(found)) if found else np.array([], np.int64)
+
+
+def _take(table: pa.Table, positions: np.ndarray) -> pa.Table:
+    return table.take(pa.array(positions, pa.int64()))
+
+
+def screen_stream(
+    path: str,
+    contract: TableContract,
+    delimiter: str,
+    width: int,
+    sample_rows: int,
+    progress: Progress | None = None,
+    keys_in_memory: bool = True,
+) -> StreamResult:
+    """One pass screening every batch; a second pass only when spilled hashes name candidates."""
+    names: tuple[str, ...] = ()
+    labels: list[str] = []
+    kept: list[pa.Table] = []
+    kept_positions: list[np.ndarray] = []
+    key_parts: list[pa.Table] = []
+    suspect_count = 0
+    start = 0
+    with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
+        spill: HashSpill | None = None
+        for batch in text_batches(path, delimiter, width):
+            if not names:
+                names = tuple("" if v is None else str(v) for v in batch.slice(0, 1).to_pylist()[0].values())
+                labels = unique_labels(list(names))
+                batch = batch.slice(1)
+                if not keys_in_memory:
+                    spill = HashSpill(Path(spill_folder), 64)
+            body = batch.rename_columns(labels)
+            screened = screen_batch(body, contract)
+            suspect = np.flatnonzero(screened.suspect.to_numpy(zero_copy_only=False))
+            suspect_count += len(suspect)
+            sample = np.arange(max(0, min(sample_rows - start, body.num_rows)))
+            chosen = np.union1d(sample, suspect).astype(np.int64)
+            if len(chosen):
+                kept.append(_take(body, chosen))
+                kept_positions.append(chosen + start)
+            if screened.keys.num_columns:
+                if spill is None:
+                    key_parts.append(screened.keys)
+                else:
+                    spill.add(key_hashes(screened.keys), start)
+            start += body.num_rows
+            if progress is not None:
+                progress(body.num_rows)
+        duplicate = _exact_duplicates(key_parts, spill, path, contract, delimiter, width, labels)
+    positions = np.concatenate([*kept_positions, np.array([], np.int64)])
+    extra = np.setdiff1d(duplicate.positions, positions)
+    tables = [
+        *kept,
+        *([duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra)))] if len(extra) else []),
+    ]
+    every = np.concatenate([positions, extra]).astype(np.int64)
+    order = np.argsort(every, kind="stable")
+    merged = (
+        pa.concat_tables(tables)
+        if tables
+        else pa.table({label: pa.array([], pa.string()) for label in labels})
+    )
+    return StreamResult(
+        names, _take(merged, order), tuple(int(p) for p in every[order]), start, suspect_count
+    )
+
+
+@dataclass(frozen=True)
+class Duplicates:
+    positions: np.ndarray
+    """Sorted body positions of rows whose whole key another row shares."""
+    rows: pa.Table
+    """Those rows (all columns; empty when the first pass already kept every column needed)."""
+
+
+def _exact_duplicates(
+    key_parts: list[pa.Table],
+    spill: HashSpill | None,
+    path: str,
+    contract: TableContract,
+    delimiter: str,
+    width: int,
+    labels: list[str],
+) -> Duplicates:
+    """Rows sharing a key: exactly from kept keys, or from spilled hashes verified on the rows."""
+    empty = Duplicates(
+        np.array([], np.int64), pa.table({label: pa.array([], pa.string()) for label in labels})
+    )
+    if spill is None:
+        if not key_parts:
+            return empty
+        candidates = duplicated_rows(pa.concat_tables(key_parts)).to_numpy()
+    else:
+        candidates = spill.candidates()
+    if not len(candidates):
+        return empty
+    rows = _rows_at(path, delimiter, width, labels, candidates)
+    if spill is not None:
+        # Verify: only candidates whose keys are really equal (as the engine compares them) stay.
+        keys = screen_batch(rows, contract).keys
+        codes = key_codes(keys)
+        real = shared_codes(codes)
+        return Duplicates(candidates[real], rows.filter(pa.array(real)))
+    return Duplicates(candidates, rows)
+
+
+def _rows_at(path: str, delimiter: str, width: int, labels: list[str], positions: np.ndarray) -> pa.Table:
+    """The whole body rows at sorted `positions`, read in a second streaming pass."""
+    found: list[pa.Table] = []
+    start = -1  # the header is row -1 of the body
+    for batch in text_batches(path, delimiter, width):
+        lower = np.searchsorted(positions, start)
+        upper = np.searchsorted(positions, start + batch.num_rows)
+        if upper > lower:
+            found.append(_take(batch, positions[lower:upper] - start).rename_columns(labels))
+        start += batch.num_rows
+    return pa.concat_tables(found)

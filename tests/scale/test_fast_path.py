@@ -1,0 +1,130 @@
+"""The pre-screened fast path gives exactly the engine's findings, on data built to break every check."""
+
+from __future__ import annotations
+
+import csv
+from pathlib import Path
+
+import pyarrow as pa
+import pytest
+from scale_lab_data import csv_text, lab_rows
+
+from linter.check import check_paths
+from linter.contract.load import load_contract
+from linter.findings import Finding
+from linter.report.model import Report
+from linter.scale import fast_path
+from linter.scale.fast_path import read_screened, read_text_columns
+from linter.scale.screen import duplicated_rows
+
+# Rules that judge cells and keys row by row: the fast path must reproduce them exactly.
+ROW_RULES = ("values.", "keys.", "columns.", "header.")
+
+
+def row_findings(report: Report) -> list[Finding]:
+    """Whole findings (message, place, count, examples, fix, evidence, excerpt) of the row rules."""
+    return [f for r in report.results for f in r.findings if f.rule.startswith(ROW_RULES)]
+
+
+def both_paths(path: Path, contract: Path, monkeypatch: pytest.MonkeyPatch, sample: int = 5):
+    contracts = [load_contract(str(contract))]
+    ordinary = check_paths([str(path)], contracts)
+    monkeypatch.setattr(fast_path, "FAST_PATH_BYTES", 0)
+    monkeypatch.setattr(fast_path, "SAMPLE_ROWS", sample)
+    fast = check_paths([str(path)], contracts)
+    return ordinary, fast
+
+
+def test_fast_path_finds_exactly_what_the_engine_finds(tmp_path, contract_file, monkeypatch):
+    path = tmp_path / "results-2026-03.csv"
+    path.write_text(csv_text(lab_rows(600, seed=7, broken_every=13)), encoding="utf-8")
+    screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
+    assert screened is not None and screened.rows == 600
+    # The screen really skipped rows, so identity below is not just the same table twice.
+    assert len(screened.table.row_numbers) < 200
+    ordinary, fast = both_paths(path, contract_file, monkeypatch)
+    expected = row_findings(ordinary)
+    assert len({f.rule for f in expected}) >= 8  # the planted breaks reach many rules
+    assert row_findings(fast) == expected
+    assert [r.rows for r in fast.results] == [r.rows for r in ordinary.results] == [600]
+    assert fast.failed == ordinary.failed
+
+
+def test_clean_file_keeps_only_the_sample(tmp_path, contract_file, monkeypatch):
+    path = tmp_path / "results-clean.csv"
+    path.write_text(csv_text(lab_rows(300, seed=3)), encoding="utf-8")
+    screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
+    assert screened is not None
+    assert screened.suspect == 0 and screened.table.row_numbers == (1, 2, 3, 4, 5, 6)
+    ordinary, fast = both_paths(path, contract_file, monkeypatch)
+    assert row_findings(fast) == row_findings(ordinary) == []
+
+
+@pytest.mark.parametrize(
+    "text",
+    [
+        "\ufeff" + "sample_id,lab\nS0000001,HERON\n",  # byte order mark: the reader must report it
+        "sample_id,lab\nS0000001,HERON\n\nS0000002,HERON\n",  # blank line: Arrow would skip it
+        'sample_id,lab\n"S0000001\nS0000002",HERON\n',  # a line break inside a quoted cell
+        "sample_id,lab\rS0000001,HERON\r",  # old Mac line endings
+        "sample_id,lab\nS0000001,HERON,extra\n",  # ragged row
+        "sep=;\nsample_id;lab\nS0000001;HERON\n",  # delimiter instruction line
+    ],
+)
+def test_doubtful_files_take_the_ordinary_path(tmp_path, contract_file, text):
+    path = tmp_path / "results-odd.csv"
+    path.write_bytes(text.encode("utf-8"))
+    assert read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5) is None
+
+
+def test_arrow_cells_equal_python_csv_on_rfc4180_examples(tmp_path):
+    # Source: RFC 4180 §2 rules 5-7 (quoted fields, commas and doubled quotes inside quotes);
+    # Python's csv module is the reference reader the ordinary path is built on.
+    text = 'aaa,"b,bb",ccc\nzzz,"y""yy",xxx\n"",plain,"q"\n'
+    path = tmp_path / "rfc.csv"
+    path.write_text(text, encoding="utf-8")
+    arrow = read_text_columns(str(path), ",", 3)
+    assert arrow is not None
+    expected = [[c if c != "" else None for c in row] for row in csv.reader(text.splitlines())]
+    assert [list(r.values()) for r in arrow.to_pylist()] == expected
+
+
+def test_duplicates_count_empty_keys_as_equal_like_pandas():
+    keys = pa.table({"a": ["x", None, "x", None, "y"], "b": [1.0, 2.0, 1.0, 2.0, 1.0]})
+    # Reference: pandas.DataFrame.duplicated(keep=False), which the engine's unique check uses.
+    import pandas as pd
+
+    frame = pd.DataFrame({"a": ["x", None, "x", None, "y"], "b": [1.0, 2.0, 1.0, 2.0, 1.0]})
+    expected = [i for i, d in enumerate(frame.duplicated(keep=False)) if d]
+    assert duplicated_rows(keys).to_pylist() == expected == [0, 1, 2, 3]
+
+
+def test_duplicates_found_across_arrow_chunks():
+    # Arrow's CSV reader hands columns over in chunks; a key repeated in another chunk must count.
+    keys = pa.table(
+        {
+            "sample_id": pa.chunked_array([["S1", "S2"], ["S3", "S1"], ["S2", "S4"]]),
+            "analyte": pa.chunked_array(
+                [["NITRATE", "NITRATE"], ["NITRATE", "NITRATE"], ["CHLORIDE", "NITRATE"]]
+            ),
+        }
+    )
+    assert duplicated_rows(keys).to_pylist() == [0, 3]
+
+
+def test_typed_keys_compare_as_the_engine_compares_them(tmp_path, monkeypatch):
+    # 1 and true are one boolean, 1.50 and 1.5 one number: the engine sees duplicate keys there.
+    contract = tmp_path / "readings.yaml"
+    contract.write_text(
+        "contract: readings\nversion: 1\ntitle: Vell Basin sonde readings (invented)\n"
+        "observational_unit: one reading\nkeys: [site_id, depth_m, surface]\n"
+        "variables:\n  site_id: {type: string}\n  depth_m: {type: number}\n  surface: {type: boolean}\n",
+        encoding="utf-8",
+    )
+    path = tmp_path / "readings.csv"
+    rows = ["VB-001,1.50,true", "VB-001,1.5,1", "VB-002,2,false", "VB-003,2,0", "VB-003,2.0,false"]
+    path.write_text("site_id,depth_m,surface\n" + "\n".join(rows) + "\n", encoding="utf-8")
+    ordinary, fast = both_paths(path, contract, monkeypatch, sample=1)  # only line 2 kept as sample
+    expected = row_findings(ordinary)
+    assert [f.place.rows for f in expected if f.rule == "keys.duplicate"] == [(2, 3), (5, 6)]
+    assert row_findings(fast) == expected

@@ -1,0 +1,76 @@
+"""Batch-by-batch screening: same findings with small batches, spilled key hashes and forced collisions."""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+from scale_lab_data import csv_text, lab_rows
+
+from linter.check import check_paths
+from linter.contract.load import load_contract
+from linter.scale import fast_path, stream
+from linter.scale.stream import HashSpill, key_hashes, screen_stream
+
+
+@pytest.fixture
+def broken_file(tmp_path):
+    path = tmp_path / "results-2026-04.csv"
+    path.write_text(csv_text(lab_rows(900, seed=11, broken_every=17)), encoding="utf-8")
+    return path
+
+
+def findings_of(path, contract_file):
+    report = check_paths([str(path)], [load_contract(str(contract_file))])
+    return [f for r in report.results for f in r.findings if f.rule.startswith(("values.", "keys."))]
+
+
+def fast_findings(path, contract_file, monkeypatch, spill: bool):
+    monkeypatch.setattr(fast_path, "FAST_PATH_BYTES", 0)
+    monkeypatch.setattr(fast_path, "SAMPLE_ROWS", 3)
+    monkeypatch.setattr(stream, "BATCH_BYTES", 4096)  # many batches, keys repeated across them
+    if spill:
+        monkeypatch.setattr(fast_path, "KEYS_IN_MEMORY_BYTES", 0)
+    return findings_of(path, contract_file)
+
+
+@pytest.mark.parametrize("spill", [False, True])
+def test_small_batches_give_the_ordinary_findings(broken_file, contract_file, monkeypatch, spill):
+    expected = findings_of(broken_file, contract_file)
+    assert any(f.rule == "keys.duplicate" for f in expected)
+    assert fast_findings(broken_file, contract_file, monkeypatch, spill) == expected
+
+
+def test_hash_collisions_are_verified_away(broken_file, contract_file, monkeypatch):
+    expected = findings_of(broken_file, contract_file)
+    # Every key hashes alike, so every row is a candidate: only really equal keys may survive.
+    monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
+    assert fast_findings(broken_file, contract_file, monkeypatch, spill=True) == expected
+
+
+def test_progress_is_told_every_row_once(broken_file, contract_file, monkeypatch):
+    monkeypatch.setattr(stream, "BATCH_BYTES", 4096)
+    told: list[int] = []
+    contract = load_contract(str(contract_file)).tables[0]
+    found = screen_stream(str(broken_file), contract, ",", 8, 3, told.append)
+    assert len(told) > 3 and sum(told) == found.rows == 900
+
+
+def test_equal_keys_hash_equal_and_spill_finds_them(tmp_path):
+    import pyarrow as pa
+
+    keys = pa.table({"a": ["x", "y", "x", None, None], "b": [1.0, 2.0, 1.0, -0.0, 0.0]})
+    hashes = key_hashes(keys)
+    assert hashes[0] == hashes[2] and hashes[3] == hashes[4] and len(set(hashes.tolist())) == 3
+    spill = HashSpill(tmp_path, 4)
+    spill.add(hashes[:2], 0)
+    spill.add(hashes[2:], 2)
+    assert spill.candidates().tolist() == [0, 2, 3, 4]
+
+
+def test_a_runaway_line_goes_to_the_ordinary_reader(tmp_path, contract_file, monkeypatch):
+    monkeypatch.setattr(stream, "BATCH_BYTES", 1024)
+    monkeypatch.setattr(stream, "LONGEST_LINE_BYTES", 4096)
+    path = tmp_path / "results-runaway.csv"
+    path.write_text("sample_id,lab\n" + "S" * 10_000 + ",HERON\n", encoding="utf-8")
+    contract = load_contract(str(contract_file)).tables[0]
+    assert fast_path.read_screened(str(path), contract, 0, 3) is None
