@@ -88,6 +88,10 @@ def main() -> None:
         raise SystemExit(f"only {free:.0f} GB free in the temporary folder; choose smaller --gb")
     contract = folder / "lab-results.yaml"
     contract.write_text(STREAM_CONTRACT, encoding="utf-8")
+    # Files this large are over the default size limit (512 MB): raise it, as a data manager would.
+    (folder / "weir.toml").write_text(
+        f"[limits]\nmax_file_bytes = {int(max(options.gb) * 2e9)}\n", encoding="utf-8"
+    )
     template = block_template(folder)
     lines = []
     try:
@@ -95,7 +99,10 @@ def main() -> None:
             path = folder / f"results-{size:g}gb.csv"
             rows = write_big(path, size, template)
             done = subprocess.run(
-                [sys.executable, "-c", MEASURE, str(path), str(contract)], capture_output=True, text=True
+                [sys.executable, "-c", MEASURE, str(path), str(contract)],
+                capture_output=True,
+                text=True,
+                cwd=folder,  # so that weir finds the weir.toml above
             )
             if done.returncode != 0:
                 raise SystemExit(f"weir check failed: {done.stderr.strip().splitlines()[-1:]}")

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import hashlib
+import os
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
@@ -176,7 +177,10 @@ def read_governed(
     """
     sha = file_sha256(path)
     contract, rules = governing(path, contracts)
-    if rules is not None:
+    # The size limit holds on every path: a larger file goes to the reader, which refuses it
+    # with file.too-large (a data manager raises max_file_bytes to check bigger files).
+    within_size = os.path.getsize(path) <= bounds.read.max_file_bytes
+    if rules is not None and within_size:
         if engine == "dask":
             from linter.scale.dask_engine import screen_with_dask
 
