@@ -149,13 +149,14 @@ def tidy_submission(
     from linter.reshape.recipe import load_recipe
     from linter.reshape.tidy_run import write_outputs
 
+    saved = load_recipe(recipe_path) if recipe_path is not None else None  # a bad recipe writes nothing
     lines: list[str] = []
     tables: list[Table] = []
     for source, results in tidied:
         lines += write_outputs(results, source, out / "files" / (source.stem or "table"))
         tables += [as_table(r, str(source)) for r in results]
-    if recipe_path is not None:
-        recipe = load_recipe(recipe_path)
+    if saved is not None:
+        recipe = saved
     else:
         step = combining_step(tables)
         if step is None:
