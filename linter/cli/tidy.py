@@ -40,6 +40,7 @@ def tidy(
     """
     from linter.check import governing
     from linter.config import find_settings
+    from linter.contract.model import TableContract
     from linter.deadline import TimedOut, time_limit
     from linter.limits import Limits
     from linter.read import UnreadableFile, read_path
@@ -70,7 +71,7 @@ def tidy(
 
         loaded = [load_contract(str(contract), bounds)]
 
-    def tidied(path: Path) -> list[TidyResult]:
+    def tidied(path: Path) -> tuple[Path, list[TidyResult], TableContract | None]:
         try:
             with time_limit(bounds.seconds_per_file):
                 tables = read_path(str(path), bounds.read)
@@ -82,14 +83,14 @@ def tidy(
             raise WeirError(f"{path}: no table found in the file")
         own = recipe if len(files) == 1 else None
         rules = governing(str(path), loaded)[1] if loaded else None
-        return tidy_tables(tables, rules, recipe_path=own, keep_empty=not drop_empty)
+        return path, tidy_tables(tables, rules, recipe_path=own, keep_empty=not drop_empty), rules
 
     if len(files) > 1:
         from linter.reshape.tidy_files import tidy_submission
 
-        lines = tidy_submission([(f, tidied(f)) for f in files], out, recipe)
+        lines = tidy_submission([tidied(f) for f in files], out, recipe)
     else:
-        lines = write_outputs(tidied(input), input, out)
+        lines = write_outputs(tidied(input)[1], input, out)
     for line in lines:
         typer.echo(line)
     return 0

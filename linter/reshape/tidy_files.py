@@ -11,6 +11,7 @@ from typing import Any
 
 import pandas as pd
 
+from linter.contract.model import TableContract
 from linter.output import write_text_atomic
 from linter.reshape.apply import Reshaped
 from linter.reshape.audit import Audit, audit
@@ -49,9 +50,15 @@ def as_table(result: TidyResult, source: str) -> Table:
     return Table(source, None, grid, tuple(range(1, len(grid) + 1)))
 
 
-def combining_step(tables: Sequence[Table]) -> StepParams | None:
-    """The stack or join the submission rules suggest for these tables, None when they suggest neither."""
-    subjects = [Subject(t, first_row_header(t)) for t in tables]
+def combining_step(
+    tables: Sequence[Table], contracts: Sequence[TableContract | None] = ()
+) -> StepParams | None:
+    """The stack or join the submission rules suggest for these tables, None when they suggest neither.
+
+    `contracts` (one per table, if given) matter as in `weir check`: governed files are the agreed
+    delivery and are not stacked, and two different table contracts are a bundle, not a split."""
+    governed = list(contracts) or [None] * len(tables)
+    subjects = [Subject(t, first_row_header(t), c) for t, c in zip(tables, governed, strict=True)]
     everyone = {t.label for t in tables}
     for finding in stacked_files(subjects):
         if set(finding.evidence["files"]) == everyone and finding.step is not None:
@@ -143,7 +150,7 @@ def submitted_files(paths: Sequence[Path]) -> list[Path]:
 
 
 def tidy_submission(
-    tidied: Sequence[tuple[Path, list[TidyResult]]], out: Path, recipe_path: Path | None
+    tidied: Sequence[tuple[Path, list[TidyResult], TableContract | None]], out: Path, recipe_path: Path | None
 ) -> list[str]:
     """Write each file's own tidy output to DIR/files/<stem>/, then the combined table (if any)."""
     from linter.reshape.recipe import load_recipe
@@ -152,17 +159,19 @@ def tidy_submission(
     saved = load_recipe(recipe_path) if recipe_path is not None else None  # a bad recipe writes nothing
     lines: list[str] = []
     tables: list[Table] = []
-    for source, results in tidied:
+    contracts: list[TableContract | None] = []
+    for source, results, contract in tidied:
         lines += write_outputs(results, source, out / "files" / (source.stem or "table"))
         tables += [as_table(r, str(source)) for r in results]
+        contracts += [contract] * len(results)
     if saved is not None:
         recipe = saved
     else:
-        step = combining_step(tables)
+        step = combining_step(tables, contracts)
         if step is None:
             lines.append(
                 "the files do not hold one observational unit between them; each was tidied on its own"
             )
             return lines
         recipe = Recipe.of([step])
-    return lines + write_combined(combine(tables, recipe), out, [str(s) for s, _ in tidied])
+    return lines + write_combined(combine(tables, recipe), out, [str(s) for s, _, _ in tidied])

@@ -91,3 +91,21 @@ def test_bad_arguments_exit_2_with_one_line() -> None:
         assert code == 2, (args, output)
         assert len(output.strip().splitlines()) == 1 and "Traceback" not in output, output
     assert not Path("out").exists()  # nothing half-written for a refused run
+
+
+WIDE = "site_id,2023,2024\nVB-014,3,\nVB-015,1,0\n"
+
+
+def test_files_reshaped_on_their_own_are_then_stacked() -> None:
+    Path("in").mkdir()
+    Path("in/counts_north.csv").write_text(WIDE, encoding="utf-8")
+    Path("in/counts_south.csv").write_text(WIDE.replace("VB-01", "VB-02"), encoding="utf-8")
+    code, output = run("in", "-o", "out")
+    assert code == 0, output
+    own = json.loads(Path("out/files/counts_north/recipe.json").read_text(encoding="utf-8"))
+    assert [s["step"] for s in own["steps"]] == ["gather"]
+    header, *rows = Path("out/counts.csv").read_text(encoding="utf-8").splitlines()
+    assert header == "site_id,year,count,source"
+    # Two sites x two years per file, the empty 2024 cell kept as an explicit missing value.
+    assert len(rows) == 8 and "VB-014,2024,,north" in rows and "VB-025,2023,1,south" in rows
+    assert json.loads(Path("out/audit.json").read_text(encoding="utf-8"))["lossless"] is True

@@ -172,3 +172,45 @@ def test_unrelated_files_get_no_combining_step(tmp_path: Path) -> None:
     a = write(tmp_path / "sites.csv", "site_id,river\nVB-014,Vell\nVB-021,Marrow Beck\nVB-030,Tilly Brook\n")
     b = write(tmp_path / "gauges.csv", "gauge,model\nG1,float\nG2,radar\nG3,float\n")
     assert combining_step(tables_of(a, b)) is None
+
+
+def test_columns_shared_beyond_the_key_merge_where_they_agree(tmp_path: Path) -> None:
+    a = write(tmp_path / "field.csv", "sample_id,site_id,temp\nS1,VB-014,7.1\nS2,VB-021,8.0\nS3,VB-030,6.2\n")
+    b = write(
+        tmp_path / "lab.csv", "sample_id,site_id,nitrate\nS1,VB-014,1.2\nS2,VB-022,0.9\nS3,VB-030,0.4\n"
+    )
+    tables = tables_of(a, b)
+    step = combining_step(tables)
+    assert step == JoinFiles(("sample_id", "site_id"))
+    combined = combine(tables, Recipe.of([step]))
+    # Source: pandas DataFrame.merge(how="outer") on the same columns.
+    expected = as_text(a).merge(as_text(b), on=["sample_id", "site_id"], how="outer")
+    same_rows(combined.output, expected, ["sample_id", "site_id"])
+    # S2's two site ids disagree: both rows stay, and both are listed as in one file only.
+    assert sorted(c["text"] for c in combined.one_file_only) == ["S2", "S2", "VB-021", "VB-022"]
+    assert combined.audit.lossless and combined.audit.input_cells == filled_cells(a, b)
+
+
+def test_join_code_gives_the_same_table_as_the_step(tmp_path: Path) -> None:
+    from linter.reshape.steps import STEPS
+
+    a = write(tmp_path / "field.csv", "sample_id,temp\nS1,7.1\nS2,8.0\n")
+    b = write(tmp_path / "lab.csv", "sample_id,nitrate\nS1,1.2\nS3,0.4\n")
+    step = JoinFiles(("sample_id",))
+    combined = combine(tables_of(a, b), Recipe.of([step]))
+    scope: dict[str, object] = {"pd": pd, "parts": [as_text(a), as_text(b)]}
+    exec("\n".join(STEPS["join_files"].code(step)), scope)  # the pandas code Weir shows the provider
+    same_rows(combined.output, scope["df"], ["sample_id"])  # type: ignore[arg-type]
+
+
+def test_files_a_contract_governs_are_not_stacked() -> None:
+    from linter.contract.model import TableContract, Variable
+
+    tables = tables_of(*MONTHS)
+    columns = ("site_id", "read_on", "water_temp_c", "clarity")
+    readings = TableContract(
+        "readings", "one reading", ("site_id", "read_on"), tuple(Variable(c) for c in columns)
+    )
+    assert isinstance(combining_step(tables), StackFiles)
+    # As in `weir check`: one file per month is then the agreed delivery, not a layout problem.
+    assert combining_step(tables, [readings, readings]) is None
