@@ -68,13 +68,14 @@ def combining_step(
         return None
     key = tuple(joins[0].evidence["key"])
     linked = {label for f in joins if tuple(f.evidence["key"]) == key for label in f.evidence["files"]}
-    if linked != everyone:
+    if linked != everyone or joins[0].step is None:
         return None  # some file holds another unit: combining all of them would mislead
-    frames = [first_row_header(t).body for t in tables]
-    shared = [c for c in frames[0].columns if all(c in f.columns for f in frames[1:])]
-    # Columns every file has beyond the key join too: where they agree they merge, where they
-    # disagree the units stay apart and are reported as present in one file only (nothing lost).
-    return JoinFiles(tuple(dict.fromkeys([*key, *shared])))
+    if len(tables) > 2:
+        # The pair's step names the columns two files share; a join of more needs those in all.
+        frames = [first_row_header(t).body for t in tables]
+        shared = [c for c in frames[0].columns if all(c in f.columns for f in frames[1:])]
+        return JoinFiles(tuple(dict.fromkeys([*key, *shared])))
+    return JoinFiles.from_json(joins[0].step)
 
 
 def combine(tables: Sequence[Table], recipe: Recipe) -> Combined:
@@ -156,22 +157,23 @@ def tidy_submission(
     from linter.reshape.recipe import load_recipe
     from linter.reshape.tidy_run import write_outputs
 
-    saved = load_recipe(recipe_path) if recipe_path is not None else None  # a bad recipe writes nothing
-    lines: list[str] = []
     tables: list[Table] = []
     contracts: list[TableContract | None] = []
     for source, results, contract in tidied:
-        lines += write_outputs(results, source, out / "files" / (source.stem or "table"))
         tables += [as_table(r, str(source)) for r in results]
         contracts += [contract] * len(results)
-    if saved is not None:
-        recipe = saved
-    else:
-        step = combining_step(tables, contracts)
-        if step is None:
-            lines.append(
-                "the files do not hold one observational unit between them; each was tidied on its own"
-            )
-            return lines
-        recipe = Recipe.of([step])
-    return lines + write_combined(combine(tables, recipe), out, [str(s) for s, _, _ in tidied])
+    combined: Combined | None = None
+    why = "the files do not hold one observational unit between them"
+    if recipe_path is not None:  # a saved recipe that does not fit stops the run before anything is written
+        combined = combine(tables, load_recipe(recipe_path))
+    elif (step := combining_step(tables, contracts)) is not None:
+        try:
+            combined = combine(tables, Recipe.of([step]))
+        except RecipeError as err:  # a suggestion that does not fit is reported, not fatal
+            why = f"the files were not combined ({err})"
+    lines: list[str] = []
+    for source, results, _ in tidied:
+        lines += write_outputs(results, source, out / "files" / (source.stem or "table"))
+    if combined is None:
+        return [*lines, f"{why}; each was tidied on its own"]
+    return lines + write_combined(combined, out, [str(s) for s, _, _ in tidied])

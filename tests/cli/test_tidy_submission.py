@@ -109,3 +109,14 @@ def test_files_reshaped_on_their_own_are_then_stacked() -> None:
     # Two sites x two years per file, the empty 2024 cell kept as an explicit missing value.
     assert len(rows) == 8 and "VB-014,2024,,north" in rows and "VB-025,2023,1,south" in rows
     assert json.loads(Path("out/audit.json").read_text(encoding="utf-8"))["lossless"] is True
+
+
+def test_a_saved_recipe_that_does_not_fit_writes_nothing() -> None:
+    units = demo_copy()
+    Path("join.json").write_text(
+        '{"weir_recipe": 1, "steps": [{"step": "join_files", "on": ["no_such_column"]}]}', encoding="utf-8"
+    )
+    field, lab = str(units / "field/vb_field_readings.csv"), str(units / "lab/vb_lab_results.csv")
+    code, output = run(field, lab, "-o", "out", "--recipe", "join.json")
+    assert code == 2 and "no_such_column" in output and len(output.strip().splitlines()) == 1, output
+    assert not Path("out").exists()

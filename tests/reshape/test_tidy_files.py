@@ -214,3 +214,37 @@ def test_files_a_contract_governs_are_not_stacked() -> None:
     assert isinstance(combining_step(tables), StackFiles)
     # As in `weir check`: one file per month is then the agreed delivery, not a layout problem.
     assert combining_step(tables, [readings, readings]) is None
+
+
+def test_three_files_about_the_same_samples_join_into_one(tmp_path: Path) -> None:
+    a = write(tmp_path / "field.csv", "sample_id,temp\nS1,7.1\nS2,8.0\nS3,6.2\nS4,5.5\n")
+    b = write(tmp_path / "lab.csv", "sample_id,nitrate\nS1,1.2\nS2,0.9\nS3,0.4\nS4,0.3\n")
+    c = write(tmp_path / "bugs.csv", "sample_id,mayflies\nS1,12\nS2,3\nS3,0\n")
+    tables = tables_of(a, b, c)
+    step = combining_step(tables)
+    assert step == JoinFiles(("sample_id",))
+    combined = combine(tables, Recipe.of([step]))
+    # Source: pandas DataFrame.merge(how="outer"), applied pairwise as the reference.
+    expected = (
+        as_text(a)
+        .merge(as_text(b), on="sample_id", how="outer")
+        .merge(as_text(c), on="sample_id", how="outer")
+    )
+    same_rows(combined.output, expected, ["sample_id"])
+    assert [c["text"] for c in combined.one_file_only] == ["S4"]
+    assert combined.audit.lossless and combined.audit.input_cells == filled_cells(a, b, c)
+
+
+def test_check_finding_carries_the_join_tidy_applies() -> None:
+    from linter.rules.subject import Subject
+    from linter.rules.submission_units import split_over_files
+    from linter.table import first_row_header
+
+    tables = tables_of(FIELD, LAB)
+    (finding,) = [
+        f
+        for f in split_over_files([Subject(t, first_row_header(t)) for t in tables])
+        if f.rule == "units.split-over-files"
+    ]
+    assert finding.step == {"step": "join_files", "on": ["sample_id"]}
+    assert JoinFiles.from_json(finding.step) == combining_step(tables)
