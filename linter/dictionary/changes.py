@@ -6,11 +6,10 @@ from collections.abc import Iterable
 from typing import Protocol
 
 from linter.contract.model import Contract
-from linter.errors import WeirError
 
 
 class ContractChange(Protocol):
-    """The part of a change record (from `weir diff`) the dictionary shows (read-only: records are frozen)."""
+    """The part of a change record (from `weir diff`) the dictionary shows, read-only like a frozen record."""
 
     @property
     def table(self) -> str: ...
@@ -33,11 +32,7 @@ def change_sentences(changes: Iterable[ContractChange]) -> tuple[str, ...]:
 
 
 def changes_since(previous: Contract, current: Contract) -> tuple[str, ...]:
-    """Compare with the comparison behind `weir diff`; a one-line error where this build lacks it."""
-    try:
-        from linter.draft.diff import contract_changes  # type: ignore[import-not-found,unused-ignore]
-    except ImportError:
-        raise WeirError(
-            "--since needs the contract comparison of `weir diff`, which this build of Weir does not have"
-        ) from None
+    """What changed from `previous` to `current`, as the comparison behind `weir diff` judges it."""
+    from linter.draft.diff import contract_changes
+
     return change_sentences(contract_changes(previous, current))

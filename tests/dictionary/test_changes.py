@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import importlib.util
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -35,17 +34,20 @@ def test_breaking_changes_come_first_and_say_so() -> None:
     )
 
 
-def test_since_lists_changes_or_says_the_comparison_is_missing(tmp_path: Path) -> None:
+def test_since_lists_what_changed(tmp_path: Path) -> None:
     old = (REPO / "contracts" / "field-sheets.yaml").read_text(encoding="utf-8")
     (tmp_path / "old.yaml").write_text(old, encoding="utf-8")
     (tmp_path / "new.yaml").write_text(
         old.replace("max: 14,", "max: 13,").replace('version: "1.3"', 'version: "1.4"'), encoding="utf-8"
     )
     result = CliRunner().invoke(app, ["dictionary", "new.yaml", "--since", "old.yaml", "--out", "spec.md"])
-    if importlib.util.find_spec("linter.draft") is None:
-        # This build has no `weir diff` yet: one line, exit 2, nothing written.
-        assert result.exit_code == 2 and "weir diff" in result.stderr and not (tmp_path / "spec.md").exists()
-    else:
-        assert result.exit_code == 0, result.output
-        text = (tmp_path / "spec.md").read_text(encoding="utf-8")
-        assert "What changed since the previous version" in text and "ph" in text
+    assert result.exit_code == 0, result.output
+    text = (tmp_path / "spec.md").read_text(encoding="utf-8")
+    assert "What changed since the previous version" in text
+    assert "field-sheets.ph: ph: max is now 13" in text and "may make a file that passed fail" in text
+
+
+def test_since_a_missing_file_is_one_line_and_exit_2(tmp_path: Path) -> None:
+    contract = str(REPO / "contracts" / "sites.yaml")
+    result = CliRunner().invoke(app, ["dictionary", contract, "--since", "gone.yaml"])
+    assert result.exit_code == 2 and result.stderr.strip() == "weir: no such contract file: gone.yaml"

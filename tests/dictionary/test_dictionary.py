@@ -15,7 +15,7 @@ from linter.dictionary import html, markdown
 from linter.dictionary.facts import contract_facts
 
 REPO = Path(__file__).resolve().parents[2]
-DEMO = ("sites", "stream-chemistry", "field-sheets")
+DEMO = ("sites", "stream-chemistry", "field-sheets", "volunteer-bundle")
 HOSTILE = r"""
 contract: hostile
 version: "2.10"
@@ -54,12 +54,14 @@ def test_every_variable_and_every_code_is_in_the_page(name: str) -> None:
     for outside in ("http:", "https:", "src=", "url(", "@import", "<link", "<script"):
         assert outside not in document  # self-contained: nothing is fetched or run when the page opens
     text = page_text(document)
-    table = contract.tables[0]
-    assert table.observational_unit in text and f"version {contract.version}" in text
-    for variable in table.variables:
-        assert variable.name in text
-        for code in variable.codes.values if variable.codes else ():
-            assert code in text and variable.codes.labels.get(code, "") in text
+    assert f"version {contract.version}" in text
+    for table in contract.tables:
+        assert table.observational_unit in text
+        assert len(contract.tables) == 1 or f"Table {table.name}" in text
+        for variable in table.variables:
+            assert variable.name in text
+            for code in variable.codes.values if variable.codes else ():
+                assert code in text and variable.codes.labels.get(code, "") in text
 
 
 def test_plain_words_for_keys_rules_dates_and_censoring(hostile: Path) -> None:

@@ -46,7 +46,7 @@ def browser(tmp_path_factory: pytest.TempPathFactory) -> Iterator[BrowserContext
             context.close()
 
 
-@pytest.mark.parametrize("name", ["sites", "stream-chemistry", "field-sheets"])
+@pytest.mark.parametrize("name", ["sites", "stream-chemistry", "field-sheets", "volunteer-bundle"])
 def test_a_reader_sees_every_variable_and_every_code(
     browser: BrowserContext, tmp_path: Path, name: str
 ) -> None:
@@ -57,17 +57,18 @@ def test_a_reader_sees_every_variable_and_every_code(
     errors: list[str] = []
     page.on("pageerror", lambda error: errors.append(str(error)))
     page.goto(path.as_uri())
-    table = contract.tables[0]
-    shown = [n.strip() for n in page.locator("section.variable h3 code.name").all_inner_texts()]
-    assert shown == list(table.names)  # every variable, in the declared order
-    for variable in table.variables:
-        section = page.locator(f'section.variable[data-variable="{variable.name}"]')
-        assert section.is_visible()
-        if variable.codes is not None:
-            codes = [c.strip() for c in section.locator("code.code").all_inner_texts()]
-            assert codes == list(variable.codes.values)  # the list is complete, nothing hidden
-            for label in variable.codes.labels.values():
-                assert label in section.inner_text()
+    for table in contract.tables:
+        within = page.locator(f'section.table[data-table="{table.name}"]')
+        shown = [n.strip() for n in within.locator("section.variable h3 code.name").all_inner_texts()]
+        assert shown == list(table.names)  # every variable of every table, in the declared order
+        for variable in table.variables:
+            section = within.locator(f'section.variable[data-variable="{variable.name}"]')
+            assert section.is_visible()
+            if variable.codes is not None:
+                codes = [c.strip() for c in section.locator("code.code").all_inner_texts()]
+                assert codes == list(variable.codes.values)  # the list is complete, nothing hidden
+                for label in variable.codes.labels.values():
+                    assert label in section.inner_text()
     assert page.locator("strong.version").inner_text() == contract.version
     assert page.evaluate("document.scripts.length") == 0 and errors == []
     pdf = page.pdf(format="A4")  # printable: Chromium's own print pipeline lays it out

@@ -9,7 +9,7 @@ import pytest
 
 sys.path.insert(0, str(Path(__file__).parent))  # the helper modules beside these tests
 
-from template_files import DEMO, REPO, make_template
+from template_files import BUNDLE, DEMO, REPO, make_template
 
 
 @pytest.fixture(scope="module")
@@ -18,10 +18,10 @@ def templates(tmp_path_factory: pytest.TempPathFactory) -> dict[str, Path]:
     folder = tmp_path_factory.mktemp("templates")
     return {
         name: make_template(REPO / "contracts" / f"{name}.yaml", folder / f"{name}-template.xlsx")
-        for name in DEMO
+        for name in (*DEMO, BUNDLE)
     }
 
 
 @pytest.fixture()
 def demo_contracts() -> list[Path]:
-    return [REPO / "contracts" / f"{name}.yaml" for name in DEMO]
+    return [REPO / "contracts" / f"{name}.yaml" for name in (*DEMO, BUNDLE)]

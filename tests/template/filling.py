@@ -22,6 +22,15 @@ FIELD_SHEETS = [
     ["VB-027", "2026-01", date(2026, 1, 18), 2.9, 3.6, 6.8, 11.0, "MJ", "ice at the bank"],
 ]
 FILLS = {"sites": SITES, "stream-chemistry": CHEMISTRY, "field-sheets": FIELD_SHEETS}
+BUNDLE_FILLS = {
+    "visited_sites": [["VB-014", "Vell", 52.11], ["VB-031", "Tarn Beck", 51.62]],
+    "samples": [
+        ["VB-014", date(2026, 4, 2), 2.45],
+        ["VB-031", date(2026, 4, 2), 0.8],
+        ["VB-031", date(2026, 4, 9), 1],
+    ],
+}
+"""The demo bundle, one list of rows per sheet of the same workbook."""
 FIRST_DATA_ROW = 4
 """Row 1 is the header, rows 2-3 the examples; data follows them."""
 
@@ -34,6 +43,17 @@ def fill(
     for r, values in enumerate(rows, start=start):
         for c, value in enumerate(values, start=1):
             ws.cell(row=r, column=c, value=value)
+    workbook.save(out)
+    return out
+
+
+def fill_sheets(template: Path, out: Path, sheets: dict[str, list[list[object]]]) -> Path:
+    """Fill several sheets of one workbook (a bundle) below their examples."""
+    workbook = load_workbook(template)
+    for sheet, rows in sheets.items():
+        for r, values in enumerate(rows, start=FIRST_DATA_ROW):
+            for c, value in enumerate(values, start=1):
+                workbook[sheet].cell(row=r, column=c, value=value)
     workbook.save(out)
     return out
 

@@ -10,6 +10,9 @@ from linter.cli import app
 
 REPO = Path(__file__).resolve().parents[2]
 DEMO = ("sites", "stream-chemistry", "field-sheets")
+"""The one-table demo contracts (each sheet is named after its contract)."""
+BUNDLE = "volunteer-bundle"
+"""The demo bundle: one sheet per table."""
 
 
 def make_template(contract: Path, out: Path, *options: str) -> Path:

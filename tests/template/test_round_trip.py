@@ -5,7 +5,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from filling import FILLS, fill, plant
+from filling import BUNDLE_FILLS, FILLS, fill, fill_sheets, plant
 from openpyxl import load_workbook
 
 from linter.check import check_paths
@@ -19,9 +19,10 @@ def check(files: list[Path], contracts: list[Path]) -> Report:
 
 
 def filled_all(templates: dict[str, Path], folder: Path) -> dict[str, Path]:
+    """The one-table demo templates filled with their valid rows."""
     return {
-        name: fill(path, folder / f"{name}-filled.xlsx", name, FILLS[name])
-        for name, path in templates.items()
+        name: fill(templates[name], folder / f"{name}-filled.xlsx", name, rows)
+        for name, rows in FILLS.items()
     }
 
 
@@ -126,3 +127,37 @@ def test_one_planted_bad_value_fails_on_exactly_that_cell(
     ]
     assert found[0].severity is Severity.ERROR
     assert all(2 not in f.place.rows and 3 not in f.place.rows for f in found)  # examples never reported
+
+
+@pytest.fixture(scope="module")
+def bundle(templates: dict[str, Path], tmp_path_factory: pytest.TempPathFactory) -> Path:
+    return fill_sheets(
+        templates["volunteer-bundle"], tmp_path_factory.mktemp("bundle") / "group.xlsx", BUNDLE_FILLS
+    )
+
+
+def test_the_filled_demo_bundle_passes_in_one_workbook(bundle: Path, demo_contracts: list[Path]) -> None:
+    report = check([bundle], demo_contracts)
+    assert every_finding(report) == []
+    assert sorted((r.table, r.rows) for r in report.results) == sorted(
+        (n, len(r)) for n, r in BUNDLE_FILLS.items()
+    )
+
+
+BUNDLE_PLANTED = [
+    ("visited_sites", "C5", 50.9, "values.out-of-range"),  # decimal range
+    ("visited_sites", "B4", None, "values.missing"),  # a required cell left empty
+    ("samples", "B6", "09/04/2026", "values.date-format"),  # date rule refuses text
+    ("samples", "C4", -0.5, "values.out-of-range"),  # decimal with a minimum only
+]
+
+
+@pytest.mark.parametrize(("sheet", "cell", "value", "rule"), BUNDLE_PLANTED)
+def test_one_planted_bad_value_in_the_bundle_fails_on_that_cell(
+    bundle: Path, demo_contracts: list[Path], tmp_path: Path, sheet: str, cell: str, value: object, rule: str
+) -> None:
+    planted = plant(bundle, tmp_path / "planted.xlsx", sheet, cell, value)
+    found = every_finding(check([planted], demo_contracts))
+    assert [(f.rule, f.place.rows, f.place.letters, f.place.sheet) for f in found] == [
+        (rule, (int(cell[1:]),), (cell[0],), sheet)
+    ]

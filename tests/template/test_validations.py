@@ -19,11 +19,23 @@ from template_files import REPO
 from linter.contract.load import load_contract
 from linter.contract.model import VarType
 
+SHEETS = [
+    ("sites", "sites"),
+    ("stream-chemistry", "stream-chemistry"),
+    ("field-sheets", "field-sheets"),
+    ("volunteer-bundle", "visited_sites"),
+    ("volunteer-bundle", "samples"),
+]
+"""(demo contract, table): every table of every demo contract, the bundle's two included."""
 
-@pytest.mark.parametrize("name", ["sites", "stream-chemistry", "field-sheets"])
-def test_every_column_has_the_rule_its_variable_declares(templates: dict[str, Path], name: str) -> None:
-    table = load_contract(str(REPO / "contracts" / f"{name}.yaml")).tables[0]
-    workbook = load_workbook(templates[name])
+
+@pytest.mark.parametrize(("contract", "name"), SHEETS)
+def test_every_column_has_the_rule_its_variable_declares(
+    templates: dict[str, Path], contract: str, name: str
+) -> None:
+    table = load_contract(str(REPO / "contracts" / f"{contract}.yaml")).table(name)
+    assert table is not None
+    workbook = load_workbook(templates[contract])
     ws = workbook[name]
     assert [c.value for c in ws[1]] == list(table.names)  # one header row, declared order
     assert ws.freeze_panes == "A2"
@@ -94,10 +106,13 @@ def assert_bounds(dv: object, low: object, high: object, date_rule: bool = False
             assert first <= -1e300 and second >= 1e300
 
 
-@pytest.mark.parametrize("name", ["sites", "stream-chemistry", "field-sheets"])
-def test_cell_formats_keep_ids_as_text_and_dates_as_iso(templates: dict[str, Path], name: str) -> None:
-    table = load_contract(str(REPO / "contracts" / f"{name}.yaml")).tables[0]
-    ws = load_workbook(templates[name])[name]
+@pytest.mark.parametrize(("contract", "name"), SHEETS)
+def test_cell_formats_keep_ids_as_text_and_dates_as_iso(
+    templates: dict[str, Path], contract: str, name: str
+) -> None:
+    table = load_contract(str(REPO / "contracts" / f"{contract}.yaml")).table(name)
+    assert table is not None
+    ws = load_workbook(templates[contract])[name]
     for index, variable in enumerate(table.variables, start=1):
         fmt = ws.column_dimensions[get_column_letter(index)].number_format
         if variable.type is VarType.DATE:
