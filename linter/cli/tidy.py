@@ -17,7 +17,7 @@ def tidy(
         ...,
         help="The submitted file (CSV, TSV, xlsx or Parquet), or several files or a folder of one "
         "submission; never modified.",
-        metavar="INPUT...",
+        metavar="INPUT",
     ),
     out: Path = typer.Option(..., "--out", "-o", help="Folder for the tidy CSV, recipe.json and audit.json."),
     contract: Path | None = typer.Option(
@@ -33,10 +33,10 @@ def tidy(
 ) -> int:
     """Reshape a table into tidy form; exit 0 when written, 2 if Weir could not.
 
-    Several files (or a folder) of one submission: each is tidied on its own into OUT/files/,
-    then files with the same columns and a value in their names are stacked, and files with
-    different variables about the same keys are outer-joined, into OUT/<name>.csv with
-    recipe.json and audit.json (keys found in one file only are kept and listed).
+    Several files (or a folder) of one submission: each is tidied on its own into OUT/files/.
+    Files with the same columns and a value in their names are then stacked into OUT/<name>.csv.
+    Files with different variables about the same keys are outer-joined into OUT/<name>.csv.
+    recipe.json and audit.json go beside it; keys found in one file only are kept and listed.
     """
     from linter.check import governing
     from linter.config import find_settings
