@@ -57,8 +57,9 @@ def _check_unique(name: str, sheet: Sheet, on: list[str]) -> None:
         raise RecipeError(f"{name!r}: rows {rows} share a {'+'.join(on)}; a join needs one row per key")
 
 
-def join_two(left: Sheet, right: Sheet, on: list[str]) -> tuple[Sheet, tuple[int, ...]]:
-    """The outer join of two sheets and the origin codes of key cells of units only one has."""
+def join_two(left: Sheet, right: Sheet, on: list[str]) -> tuple[Sheet, tuple[int, ...], Carried]:
+    """The outer join of two sheets, the origin codes of key cells of units only one has, and the
+    right sheet's matched key cells with the output key text each lives on in."""
     others = [c for c in right.cells.columns if c not in on]
     clash = [c for c in others if c in left.cells.columns]
     if clash:
@@ -94,8 +95,12 @@ def join_two(left: Sheet, right: Sheet, on: list[str]) -> tuple[Sheet, tuple[int
             right.origin[on].to_numpy()[np.setdiff1d(np.arange(len(right.cells)), ri[li >= 0])].ravel(),
         ]
     )
+    both = (li >= 0) & (ri >= 0)
+    codes = right_codes.loc[both, on].to_numpy().ravel()
+    texts = cells.loc[both, on].to_numpy(dtype=object).ravel()
+    merged = Carried(codes[codes >= 0].astype(np.int64), texts[codes >= 0])
     joined = replace(left.with_frames(cells, origin, rows), header=header)
-    return joined, tuple(int(c) for c in lone if c >= 0)
+    return joined, tuple(int(c) for c in lone if c >= 0), merged
 
 
 @register_bench_step(JoinFiles, grid_level=False, code=_join_code)
@@ -110,17 +115,13 @@ def join_files(p: JoinFiles, bench: Bench) -> Bench:
             raise RecipeError(f"{name!r} has no column(s) {', '.join(map(repr, missing))}")
         _check_unique(name, sheet, on)
     (first, joined), *rest = bench.sheets.items()
-    right_keys: list[int] = []
     lone: list[int] = []
+    # A matched key cell of a later file lives on in the key cell of the output row it joined.
+    carried: list[Carried] = []
     for _, sheet in rest:
-        right_keys += [int(c) for c in sheet.origin[on].to_numpy().ravel() if c >= 0]
-        joined, alone = join_two(joined, sheet, on)
+        joined, alone, merged = join_two(joined, sheet, on)
         lone += alone
-    # A matched key cell of a later file is the same text as the key cell kept in the output row.
-    kept = set(joined.origin[on].to_numpy().ravel().tolist())
-    merged = [c for c in right_keys if c not in kept]
-    texts = texts_of(bench.index, merged)
-    carried = Carried(np.asarray(merged, dtype=np.int64), np.asarray(texts, dtype=object))
+        carried.append(merged)
     note = StepNote(
         bench.step,
         ONE_FILE_ONLY,
@@ -132,7 +133,7 @@ def join_files(p: JoinFiles, bench: Bench) -> Bench:
         bench,
         sheets={first: joined},
         notes=(*bench.notes, note) if lone else bench.notes,
-        carried=(*bench.carried, carried) if merged else bench.carried,
+        carried=(*bench.carried, *(c for c in carried if len(c.codes))),
     )
 
 

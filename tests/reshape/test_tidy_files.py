@@ -248,3 +248,21 @@ def test_check_finding_carries_the_join_tidy_applies() -> None:
     ]
     assert finding.step == {"step": "join_files", "on": ["sample_id"]}
     assert JoinFiles.from_json(finding.step) == combining_step(tables)
+
+
+def test_the_audit_catches_a_join_that_loses_a_row(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    import linter.reshape.join_files as join_module
+
+    honest = join_module.join_two
+
+    def inner_only(left, right, on):  # type: ignore[no-untyped-def]
+        sheet, lone, merged = honest(left, right, on)
+        keep = sheet.origin[on[0]].to_numpy() >= 0
+        keep &= sheet.cells.notna().all(axis=1).to_numpy()  # as an inner join would: drop the lone units
+        return sheet.with_frames(sheet.cells[keep], sheet.origin[keep], sheet.rows[keep]), lone, merged
+
+    monkeypatch.setattr(join_module, "join_two", inner_only)
+    a = write(tmp_path / "field.csv", "sample_id,temp\nS1,7.1\nS2,8.0\n")
+    b = write(tmp_path / "lab.csv", "sample_id,nitrate\nS1,1.2\nS3,0.4\n")
+    with pytest.raises(RecipeError, match=r"would lose 4 cell"):  # S2, 8.0, S3, 0.4
+        combine(tables_of(a, b), Recipe.of([JoinFiles(("sample_id",))]))
