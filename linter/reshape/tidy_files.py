@@ -47,7 +47,7 @@ def as_table(result: TidyResult, source: str) -> Table:
     grid = pd.DataFrame([list(map(str, frame.columns)), *frame.astype(object).values.tolist()], dtype=object)
     grid.columns = pd.RangeIndex(grid.shape[1])
     grid = grid.where(grid.notna(), None)
-    return Table(source, None, grid, tuple(range(1, len(grid) + 1)))
+    return Table(source, result.table.sheet, grid, tuple(range(1, len(grid) + 1)))
 
 
 def combining_step(
@@ -157,6 +157,12 @@ def tidy_submission(
     from linter.reshape.recipe import load_recipe
     from linter.reshape.tidy_run import write_outputs
 
+    stems = [source.stem or "table" for source, _, _ in tidied]
+    repeated = sorted({s for s in stems if stems.count(s) > 1})
+    if repeated:  # each file's own output goes to files/<stem>/: two of them would overwrite each other
+        raise RecipeError(
+            f"two files are named {repeated[0]!r}; give the files of a submission different names"
+        )
     tables: list[Table] = []
     contracts: list[TableContract | None] = []
     for source, results, contract in tidied:

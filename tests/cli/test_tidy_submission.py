@@ -120,3 +120,23 @@ def test_a_saved_recipe_that_does_not_fit_writes_nothing() -> None:
     code, output = run(field, lab, "-o", "out", "--recipe", "join.json")
     assert code == 2 and "no_such_column" in output and len(output.strip().splitlines()) == 1, output
     assert not Path("out").exists()
+
+
+def test_files_with_the_same_name_in_two_folders_exit_2() -> None:
+    for folder in ("north", "south"):
+        Path(folder).mkdir()
+        Path(folder, "readings.csv").write_text("site_id,temp\nVB-014,7.1\nVB-021,8.0\n", encoding="utf-8")
+    code, output = run("north/readings.csv", "south/readings.csv", "-o", "out")
+    assert code == 2 and "readings" in output and len(output.strip().splitlines()) == 1, output
+    assert not Path("out").exists()
+
+
+def test_a_folder_of_unrelated_files_is_tidied_file_by_file() -> None:
+    Path("in").mkdir()
+    Path("in/sites.csv").write_text("site_id,river\nVB-014,Vell\nVB-021,Marrow Beck\n", encoding="utf-8")
+    Path("in/gauges.csv").write_text("gauge,model\nG1,float\nG2,radar\n", encoding="utf-8")
+    code, output = run("in", "-o", "out")
+    assert code == 0, output
+    assert "each was tidied on its own" in output
+    assert sorted(p.name for p in Path("out/files").iterdir()) == ["gauges", "sites"]
+    assert not Path("out/recipe.json").exists()
