@@ -138,6 +138,12 @@ def sketch_for(step: Mapping[str, Any]) -> Sketch:
             f"Files of the same kind are stacked into one table; a column {_names(s, 'column')} "
             "keeps what each file's name said.",
         ),
+        "join_files": lambda: Sketch(
+            (("kh", "vd", "vd"), ("kh", "vd", "vd")),
+            (("khh", "vdd", "vdd"),),
+            f"Files about the same units are joined on {_names(s, 'on')}; a unit in one file only "
+            "keeps its row, with empty cells for the other file's columns.",
+        ),
     }
     if name in sketches:
         return sketches[name]()

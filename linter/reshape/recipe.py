@@ -9,6 +9,7 @@ from pathlib import Path
 from typing import Any
 
 import linter.reshape.grid_steps
+import linter.reshape.join_files
 import linter.reshape.melt_steps
 import linter.reshape.normalise
 import linter.reshape.table_steps  # noqa: F401  (these modules register their steps on import)

@@ -178,6 +178,13 @@ def _shared_key(left: Subject, right: Subject) -> tuple[str, ...] | None:
     return None
 
 
+def join_columns(left: Subject, right: Subject, key: Sequence[str]) -> list[str]:
+    """The key, then every other column both files have: where such a column agrees it merges,
+    where it disagrees the two rows stay apart (an outer join keeps both, nothing is lost)."""
+    shared = [c for c in left.frame.labels if c in set(right.frame.labels)]
+    return list(dict.fromkeys([*key, *shared]))
+
+
 def _keys_of(subject: Subject, key: Sequence[str]) -> pd.Series:
     body = subject.frame.body[list(key)].fillna("")
     return body.astype(str).agg(" | ".join, axis=1).set_axis(list(subject.frame.rows))
@@ -229,6 +236,7 @@ def _split_findings(
         count=len(common),
         examples=tuple(sorted(common)[:5]),
         fix=f"join the two files on {joined} and send one table",
+        step={"step": "join_files", "on": join_columns(left, right, key)},
         evidence={
             "files": [left.table.label, right.table.label],
             "key": list(key),
