@@ -120,6 +120,18 @@ def main(samples: Path = Path("sample_submissions"), out: Path = Path("demo-out"
     for name, code, summary in tidy_layouts(samples / "layout", out):
         print(f"   {name:34} exit {code}  {summary}")
 
+    print("\n   The same unit sent as several files, combined by `weir tidy` into one table:")
+    units = samples / "units"
+    for label, files in (
+        ("joined", [units / "field" / "vb_field_readings.csv", units / "lab" / "vb_lab_results.csv"]),
+        ("stacked", sorted((units / "monthly").glob("*.csv"))),
+    ):
+        code, printed = weir("tidy", *map(str, files), "--out", str(out / "tidy" / f"units-{label}"))
+        summary = printed.strip().splitlines()[-1] if printed.strip() else ""
+        print(f"   {label:34} exit {code}  {summary}")
+        if code != 0:
+            surprises.append(f"weir tidy of the {label} units files: exit {code}, expected 0")
+
     print("\n5. Before they send: a data dictionary (.html) and a fill-in workbook (.xlsx) per contract:")
     for name, spec, form in provider_forms(samples, out):
         print(f"   {name:34} -> {out}/forms/{name}.html, {out}/forms/{name}.xlsx")
