@@ -35,7 +35,8 @@ def test_demo_runs_and_writes_a_letter_for_every_returned_file(
         assert "Returned:" in text and str(repo) not in text  # files named as submitted, no machine path
     assert (out / "clean.json").is_file()
     assert sorted(p.name for p in (out / "tidy").iterdir()) == sorted(
-        p.stem for p in (repo / "sample_submissions" / "layout").glob("*.csv")
+        [p.stem for p in (repo / "sample_submissions" / "layout").glob("*.csv")]
+        + ["units-joined", "units-stacked"]
     )
 
 
