@@ -11,6 +11,7 @@ from linter.contract.engine import CheckedTable, checked
 from linter.findings import Finding, Place, Severity, listed_rows
 from linter.rules.registry import RULES
 from linter.rules.subject import Subject
+from linter.table import column_letter
 
 MAX_EXAMPLES = 5
 
@@ -32,6 +33,18 @@ def place_of(subject: Subject, columns: Sequence[str], rows: Iterable[int] = ())
         rows=listed_rows(list(rows)),
         columns=tuple(present),
         letters=tuple(subject.frame.letter(c) for c in present),
+    )
+
+
+def header_place(subject: Subject, indexes: Sequence[int]) -> Place:
+    """The header row, with the columns at these 0-based positions (names as written) and letters."""
+    names = subject.frame.names
+    return Place(
+        file=subject.table.source,
+        sheet=subject.table.sheet,
+        rows=subject.table.row_numbers[:1],
+        columns=tuple(names[i] for i in indexes),
+        letters=tuple(column_letter(i) for i in indexes),
     )
 
 

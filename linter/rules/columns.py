@@ -9,6 +9,7 @@ from dataclasses import dataclass
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Place, Severity
+from linter.rules.cell_findings import header_place
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import column_letter
@@ -111,17 +112,6 @@ def match_header(names: tuple[str, ...], contract: TableContract) -> HeaderMatch
     )
 
 
-def _header_place(subject: Subject, indexes: list[int]) -> Place:
-    names = subject.frame.names
-    return Place(
-        file=subject.table.source,
-        sheet=subject.table.sheet,
-        rows=subject.table.row_numbers[:1],
-        columns=tuple(names[i] for i in indexes),
-        letters=tuple(column_letter(i) for i in indexes),
-    )
-
-
 @inspector(needs_contract=True)
 def missing_columns(subject: Subject) -> Iterator[Finding]:
     if subject.contract is None or not subject.frame.names:
@@ -154,7 +144,7 @@ def misspelt_columns(subject: Subject) -> Iterator[Finding]:
             rule="columns.misspelt",
             severity=Severity.ERROR,
             message=f"The column {header!r} is not declared; did you mean {target}?",
-            place=_header_place(subject, [index]),
+            place=header_place(subject, [index]),
             examples=(header,),
             fix=f"rename the column {header!r} to {target}",
             evidence={"found": header, "expected": target},
@@ -173,7 +163,7 @@ def unexpected_columns(subject: Subject) -> Iterator[Finding]:
             rule="columns.unexpected",
             severity=SEVERITY_OF_EXTRA[contract.extra_columns],
             message=f"{len(extra)} column(s) are not in the contract: {', '.join(n for _, n in extra)}.",
-            place=_header_place(subject, indexes),
+            place=header_place(subject, indexes),
             count=len(extra),
             examples=tuple(n for _, n in extra[:5]),
             fix="remove these columns, or ask the data manager to add them to the contract",
@@ -194,7 +184,7 @@ def column_order(subject: Subject) -> Iterator[Finding]:
             rule="columns.order",
             severity=Severity.WARNING,
             message=f"Columns are in the order {', '.join(seen)}; the contract lists {', '.join(declared)}.",
-            place=_header_place(subject, moved),
+            place=header_place(subject, moved),
             count=len(moved),
             fix=f"put the columns in this order: {', '.join(declared)}",
             evidence={"found": seen, "expected": declared},

@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterable
 
 from linter.findings import Finding, Place, Severity
+from linter.rules.cell_findings import header_place
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import column_letter
@@ -58,17 +59,6 @@ WHITESPACE = define_rule(
 )
 
 
-def place(subject: Subject, indexes: list[int]) -> Place:
-    names = subject.frame.names
-    return Place(
-        file=subject.table.source,
-        sheet=subject.table.sheet,
-        rows=subject.table.row_numbers[:1],
-        columns=tuple(names[i] for i in indexes),
-        letters=tuple(column_letter(i) for i in indexes),
-    )
-
-
 def looks_like_title(names: tuple[str, ...]) -> bool:
     """One filled cell over a wide table is a title row, which the layout rules judge, not these."""
     return len(names) >= 3 and sum(1 for n in names if n.strip()) == 1
@@ -103,7 +93,7 @@ def blank_names(subject: Subject) -> Iterable[Finding]:
             rule=BLANK.id,
             severity=BLANK.severity,
             message=f"{len(blank)} column(s) with data have no name in the header: column(s) {letters}.",
-            place=place(subject, blank),
+            place=header_place(subject, blank),
             count=len(blank),
             fix="Write the variable's agreed name in the header cell of each of these columns.",
         )
@@ -126,7 +116,7 @@ def repeated_names(subject: Subject) -> Iterable[Finding]:
                 severity=DUPLICATE.severity,
                 message=f"The column name {names[indexes[0]].strip()!r} appears {len(indexes)} times "
                 f"(columns {letters}).",
-                place=place(subject, indexes),
+                place=header_place(subject, indexes),
                 count=len(indexes),
                 examples=tuple(names[i] for i in indexes),
                 fix="Give each column its own agreed name, or put repeated measurements in rows.",
@@ -145,7 +135,7 @@ def padded_names(subject: Subject) -> Iterable[Finding]:
             severity=WHITESPACE.severity,
             message=f"{len(padded)} column name(s) have spaces before or after them: "
             + ", ".join(repr(names[i]) for i in padded[:5]),
-            place=place(subject, padded),
+            place=header_place(subject, padded),
             count=len(padded),
             examples=tuple(names[i] for i in padded[:5]),
             fix="Remove the spaces around the column names.",
