@@ -10,7 +10,8 @@ from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import layout_finding
-from linter.rules.layout_signals import blank, cell_kind, frame_of, header_value_kind, sample, slug
+from linter.rules.layout_signals import YEAR, blank, cell_kind, frame_of, header_value_kind, sample, slug
+from linter.rules.layout_units import is_unit
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import Frame, Table
@@ -62,6 +63,8 @@ YEAR_MONTH = re.compile(r"^\d{4}-\d{2}$")
 SEPARATORS = ("/", "|", "_", ":", " - ")
 LIST_SEPARATORS = (";", "|", ",")
 MATCH_SHARE = 0.9
+UNIT_VARIETY = 0.3
+"""Share of distinct numbers that marks a column of measurements (class codes repeat a few)."""
 
 
 def _texts(frame: Frame, label: str) -> list[str]:
@@ -75,6 +78,15 @@ def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
     hits = [m for m in matches if m]
     if len(hits) < MATCH_SHARE * len(texts) or len(hits) < 2:
         return None
+    # A number glued to a letter is also how class codes (`10B`) and grid squares are written.
+    # Accept it as value and unit only when the tokens are known units, or when the numbers
+    # vary like measurements and every token is longer than one letter.
+    tokens = {m.group(2) for m in hits}
+    numbers = {m.group(1) for m in hits}
+    known = len(numbers) >= 2 and all(is_unit(t) for t in tokens)
+    measured = len(numbers) >= max(2, UNIT_VARIETY * len(hits)) and all(len(t) > 1 for t in tokens)
+    if not (known or measured):
+        return None
     name = slug(label)
     pattern = rf"^\s*(?P<{name}>{NUM})\s*(?P<{name}_unit>\S.*?)\s*$"
     return {"pattern": pattern, "into": [name, f"{name}_unit"], "kind": "value and unit"}
@@ -86,9 +98,19 @@ def _range(label: str, texts: list[str]) -> dict[str, object] | None:
     hits = [RANGE_CELL.match(t) for t in texts]
     if sum(bool(h) for h in hits) < MATCH_SHARE * len(texts) or len(texts) < 2:
         return None
+    matched = [h for h in hits if h]
+    ends = [(float(h.group(1)), float(h.group(2))) for h in matched]
+    if all(
+        YEAR.match(h[1]) and YEAR.match(h[2]) and high - low == 1
+        for h, (low, high) in zip(matched, ends, strict=True)
+    ):
+        return None  # `2019-2020` is one season or school year, a single value
     name = slug(label)
-    pattern = rf"^\s*(?P<{name}_from>-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(?P<{name}_to>-?\d+(?:\.\d+)?)\s*$"
-    return {"pattern": pattern, "into": [f"{name}_from", f"{name}_to"], "kind": "range"}
+    # Only `from < to` on every row makes a range; otherwise two counts joined by a dash (`3-1`).
+    ordered = all(low < high for low, high in ends)
+    into = [f"{name}_from", f"{name}_to"] if ordered else [f"{name}_1", f"{name}_2"]
+    pattern = rf"^\s*(?P<{into[0]}>-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(?P<{into[1]}>-?\d+(?:\.\d+)?)\s*$"
+    return {"pattern": pattern, "into": into, "kind": "range" if ordered else "two numbers"}
 
 
 NUMBER_PAIR = re.compile(r"^\s*\d+(?:\.\d+)?\s*/\s*\d+(?:\.\d+)?\s*$")
@@ -105,6 +127,8 @@ def _number_pair(label: str, texts: list[str]) -> dict[str, object] | None:
 
 def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
     """Two codes joined by one separator whose parts cross like two variables (m/014, f/014, ...)."""
+    if all(is_unit(t) for t in set(texts)):
+        return None  # `mg/L` is one unit, not the codes `mg` and `L`
     for sep in SEPARATORS:
         parts = [t.split(sep) for t in texts]
         if not all(len(p) == 2 and p[0].strip() and p[1].strip() for p in parts):

@@ -9,6 +9,7 @@ from linter.contract.model import TableContract, VarType
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
+from linter.rules.layout_scale import one_scale
 from linter.rules.layout_signals import (
     blank,
     dominant_kind,
@@ -153,7 +154,7 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
             assert stem is not None
             rests = [label[len(stem[0]) : len(label) - len(stem[1])] for label in run]
             kinds = {_body_kind(frame, c) for c in run} - {"empty"}
-            if all(ID_RUN.match(r) for r in rests) and len(kinds) <= 1:
+            if all(ID_RUN.match(r) for r in rests) and len(kinds) <= 1 and one_scale(frame, run):
                 runs.append((run, slug(stem[0] + stem[1]) if (stem[0] + stem[1]).strip("_ ") else "item"))
             i = best + 1
         else:

@@ -9,6 +9,18 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): a match score `3-1` is two counts even though 3 > 1.
+    "score-pair": (
+        "home,away,score\nKell Town,Ardle United,3-1\nArdle United,Kell Town,0-0\nFenwick,Dunmore,1-4\n",
+        "layout.packed-column",
+        "split_column",
+    ),
+    # Common practice (no source): replicate counts on one scale are values of one variable.
+    "replicates-one-scale": (
+        "site_id,rep1,rep2,rep3\nVB-014,12,15,11\nVB-015,3,5,2\nVB-016,21,19,25\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
     # Source: Wickham 2014 §3.1 "column headers are values, not variable names" (years as headers).
     "years-as-headers": (
         "site_id,2023,2024,2025\nVB-014,3,5,4\nVB-015,1,0,2\n",
@@ -134,4 +146,15 @@ PASSING: dict[str, str] = {
     # Common practice (no source): min and max as two columns is already tidy.
     "min-max-columns": "site_id,day,temp_min,temp_max\n"
     "VB-014,2025-06-01,4.1,9.8\nVB-015,2025-06-01,3.9,10.2\n",
+    # Common practice (no source): school class codes (`10B`) are codes, not a number with a unit.
+    "class-codes": "pupil,class,mark\nP-01,10B,64\nP-02,10B,71\nP-03,10C,58\nP-04,10C,60\n",
+    # Source: SI Brochure 9th ed. (BIPM 2019) table 4: `mg/L` is one unit (a quotient), not two codes.
+    "unit-column-quotients": "sample,analyte,result,unit\nLS-01,nitrate,4.1,mg/L\n"
+    "LS-01,chloride,22,mg/L\nLS-02,nitrate,3.8,mg/L\nLS-02,ecoli,120,cfu/100mL\n",
+    # Common practice (no source): regressors x1..x3 on different scales are separate variables.
+    "regressor-columns": "obs,x1,x2,x3,y\n1,0.5,1.2,3,10.1\n"
+    "2,0.7,1.1,2,9.8\n3,0.2,1.9,5,12.4\n4,0.9,0.8,1,8.7\n",
+    # Common practice (no source): a season `2019-2020` spans consecutive years: one value.
+    "seasons": "season,club,titles\n2019-2020,Kell Town,1\n"
+    "2020-2021,Dunmore Rovers,1\n2021-2022,Kell Town,2\n",
 }
