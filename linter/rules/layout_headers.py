@@ -9,7 +9,7 @@ from linter.contract.model import TableContract, VarType
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
-from linter.rules.layout_scale import one_scale
+from linter.rules.layout_scale import one_scale, sideways_by_ids
 from linter.rules.layout_signals import (
     blank,
     dominant_kind,
@@ -17,7 +17,6 @@ from linter.rules.layout_signals import (
     header_value_kind,
     sample,
     shared_stem,
-    sideways_by_names,
     slug,
 )
 from linter.rules.registry import define_rule, inspector
@@ -194,7 +193,7 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
     grouped = {c for found in find_repeated_groups(table) for c in found.place.columns}
     runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
     taken = grouped | {c for r, _ in runs for c in r}
-    if not sideways_by_names(table):  # ids across the top of a sideways table are observations
+    if not sideways_by_ids(table):  # ids across the top of a sideways table are observations
         runs += _code_runs(frame, taken)
         runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []

@@ -2,12 +2,13 @@
 
 from __future__ import annotations
 
+import re
 from itertools import combinations
 
 import pandas as pd
 
-from linter.rules.layout_signals import sample
-from linter.table import Frame
+from linter.rules.layout_signals import sample, sideways_by_names
+from linter.table import Frame, Table
 
 MIN_ROWS = 3
 """Fewer numbers than this in a column say nothing about its scale."""
@@ -34,3 +35,61 @@ def one_scale(frame: Frame, labels: list[str]) -> bool:
         return False
     ranges = [(float(c.min()), float(c.max())) for c in columns]
     return all(a_lo <= b_hi and b_lo <= a_hi for (a_lo, a_hi), (b_lo, b_hi) in combinations(ranges, 2))
+
+
+SCALE_GAP = 10.0
+"""Row medians this many times apart, with each row tighter than that, mean different quantities."""
+
+
+def _row_numbers(grid: pd.DataFrame) -> list[pd.Series] | None:
+    rows = []
+    for index in range(1, grid.shape[0]):
+        texts = pd.Series(grid.iloc[index, 1:].tolist(), dtype=object)
+        texts = texts[texts.notna() & (texts.astype(str).str.strip() != "")]
+        numbers = pd.to_numeric(texts.astype(str).str.replace(",", "", regex=False), errors="coerce")
+        if numbers.isna().any() or numbers.empty:
+            return None
+        rows.append(numbers)
+    return rows if len(rows) >= 2 else None
+
+
+def rows_differ_in_format(grid: pd.DataFrame) -> bool:
+    """True when some numeric rows hold only whole numbers and others decimals: different variables."""
+    rows = _row_numbers(grid)
+    return rows is not None and len({bool((r == r.round()).all()) for r in rows}) > 1
+
+
+def rows_differ_in_scale(grid: pd.DataFrame) -> bool:
+    """True when the rows are different quantities: their medians lie SCALE_GAP or more apart
+    while every row, read across, stays within a narrower spread (games 9-14, minutes 702-1204).
+
+    The rows of a one-variable matrix (votes by district and candidate) vary across as much
+    as they differ from each other, so they do not pass.
+    """
+    rows = _row_numbers(grid)
+    if rows is None:
+        return False
+    medians = [float(r.abs().median()) for r in rows]
+    if min(medians) <= 0:
+        return False
+    between = max(medians) / min(medians)
+    within = max(float(r.abs().max()) / max(float(r.abs().min()), 1e-9) for r in rows)
+    return between >= SCALE_GAP and within < between
+
+
+GENERIC_CORNER = re.compile(r"^(measure|measurement|variable|var|field|attribute|property|metric)s?$", re.I)
+"""A top-left cell that says "the first column names variables"."""
+
+
+def sideways_by_ids(table: Table) -> bool:
+    """Ids across the top and variable names down the side, read as a sideways table.
+
+    The shape alone is not enough: a one-variable matrix (counts of species by site) looks the
+    same and is better gathered. The rows must also read as different variables: a generic
+    corner cell, another number format or another scale per row.
+    """
+    grid = table.grid
+    if not sideways_by_names(table):
+        return False
+    generic = bool(GENERIC_CORNER.match(str(grid.iat[0, 0] or "").strip()))
+    return generic or rows_differ_in_format(grid) or rows_differ_in_scale(grid)

@@ -9,6 +9,31 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Source: Wickham 2014 §3.1 (column headers are values); quarters are periods, not variables.
+    "quarters-as-headers": (
+        "product,Q1 2023,Q2 2023,Q3 2023\nkettle,10400,11250,9800\nchair,6200,7400,8100\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
+    # Common practice (no source): weekday columns in a timesheet are values of one `day`.
+    "weekdays-as-headers": (
+        "employee,Mon,Tue,Wed\nTamsin,7.5,7.5,8\nBram,8,8,8\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
+    # Source: Likert (1932), five-point agreement scale: the levels are values of one answer.
+    "scale-levels-as-headers": (
+        "question,Strongly agree,Agree,Neutral,Disagree,Strongly disagree\n"
+        "Q-1,41,88,30,12,4\nQ-2,10,52,61,40,12\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
+    # Common practice (no source): players across, stats down: rows on different scales.
+    "sideways-player-stats": (
+        "Player,Dace,Orrin,Pell\nGames,12,14,9\nGoals,7,3,5\nAssists,2,6,1\nMinutes,980,1204,702\n",
+        "layout.transposed",
+        "transpose",
+    ),
     # Common practice (no source): a match score `3-1` is two counts even though 3 > 1.
     "score-pair": (
         "home,away,score\nKell Town,Ardle United,3-1\nArdle United,Kell Town,0-0\nFenwick,Dunmore,1-4\n",

@@ -42,3 +42,32 @@ def test_regressors_on_disjoint_scales_are_separate_variables() -> None:
 def test_too_few_rows_give_the_benefit_of_the_doubt() -> None:
     frame = _frame({"a1": ["0.5", "0.7"], "a2": ["100", "900"]})
     assert one_scale(frame, ["a1", "a2"])
+
+
+def test_species_matrix_is_not_sideways_but_stats_are() -> None:
+    from linter.rules.layout_rows import find_transposed
+
+    # Common practice (no source): counts of species by site share one scale in every row.
+    Path("m.csv").write_text("species,VB-014,VB-021,VB-033\nwagtail,3,0,1\nheron,1,1,0\n", encoding="utf-8")
+    assert find_transposed(read_path("m.csv")[0]) == []
+    # Common practice (no source): a generic `variable` corner cell says the rows are variables.
+    Path("s.csv").write_text("variable,VB-014,VB-015\nph,7.1,6.9\ntemp_c,8.5,9.0\n", encoding="utf-8")
+    assert [f.rule for f in find_transposed(read_path("s.csv")[0])] == ["layout.transposed"]
+
+
+@pytest.mark.parametrize(
+    ("label", "kind"),
+    [
+        ("Q1 2023", "quarter"),
+        ("2024-W05", "week"),  # Source: ISO 8601-1:2019 §5.2.3 week dates
+        ("1 Mar", "date"),
+        ("Tue", "day"),
+        ("Strongly disagree", "answer"),  # Source: Likert (1932) agreement scale
+        ("Sales", None),
+        ("Quay", None),
+    ],
+)
+def test_period_and_scale_headers(label: str, kind: str | None) -> None:
+    from linter.rules.layout_signals import header_value_kind
+
+    assert header_value_kind(label) == kind
