@@ -59,7 +59,7 @@ class DropColumns(StepParams):
 
     step = "drop_columns"
     columns: tuple[str, ...]
-    reason: Literal["blank", "notes", "total"]
+    reason: Literal["blank", "notes", "total", "index"]
 
 
 def _drop_columns_code(p: DropColumns) -> list[str]:

@@ -71,6 +71,7 @@ def layout_detectors() -> list[Detector]:
         layout_groups,
         layout_header_rows,
         layout_headers,
+        layout_index,
         layout_margins,
         layout_rows,
     )
@@ -78,6 +79,7 @@ def layout_detectors() -> list[Detector]:
     return [
         layout_margins.find_blank_rows_columns,
         layout_margins.find_totals_and_notes,
+        layout_index.find_index_column,
         layout_header_rows.find_multi_row_header,
         layout_header_rows.find_no_header,
         layout_rows.find_transposed,

@@ -10,6 +10,7 @@ from linter.rules import (  # noqa: F401
     layout_groups,
     layout_header_rows,
     layout_headers,
+    layout_index,
     layout_margins,
     layout_rows,
     reading,

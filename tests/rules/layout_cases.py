@@ -9,6 +9,12 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # From memory of pandas: to_csv writes the RangeIndex 0..n-1 under a blank header cell.
+    "index-column": (
+        ",site,ph\n0,VB-014,7.1\n1,VB-015,6.8\n2,VB-016,7.0\n",
+        "layout.index-column",
+        "drop_columns",
+    ),
     # Source: Wickham 2014 §3.1 (column headers are values); quarters are periods, not variables.
     "quarters-as-headers": (
         "product,Q1 2023,Q2 2023,Q3 2023\nkettle,10400,11250,9800\nchair,6200,7400,8100\n",
@@ -182,4 +188,6 @@ PASSING: dict[str, str] = {
     # Common practice (no source): a season `2019-2020` spans consecutive years: one value.
     "seasons": "season,club,titles\n2019-2020,Kell Town,1\n"
     "2020-2021,Dunmore Rovers,1\n2021-2022,Kell Town,2\n",
+    # Common practice (no source): a named running number starting at 1 is the provider's own id.
+    "numbered-rows-named": "row,site,ph\n1,VB-014,7.1\n2,VB-015,6.8\n3,VB-016,7.0\n",
 }

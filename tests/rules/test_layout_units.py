@@ -71,3 +71,16 @@ def test_period_and_scale_headers(label: str, kind: str | None) -> None:
     from linter.rules.layout_signals import header_value_kind
 
     assert header_value_kind(label) == kind
+
+
+def test_index_column_is_dropped_only_when_it_counts_from_zero() -> None:
+    from linter.rules.layout_index import find_index_column
+
+    # Source: pandas.DataFrame.to_csv (pandas reference library) writes the default index.
+    frame = pd.DataFrame({"site": ["VB-014", "VB-015", "VB-016"], "ph": ["7.1", "6.8", "7.0"]})
+    Path("a.csv").write_text(frame.to_csv(), encoding="utf-8")
+    found = find_index_column(read_path("a.csv")[0])
+    assert [f.step for f in found] == [{"step": "drop_columns", "columns": ["A"], "reason": "index"}]
+    shuffled = frame.iloc[[2, 0, 1]]  # a filtered or sorted index is no longer 0..n-1 in order
+    Path("b.csv").write_text(shuffled.to_csv(), encoding="utf-8")
+    assert find_index_column(read_path("b.csv")[0]) == []
