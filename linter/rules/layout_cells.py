@@ -61,7 +61,8 @@ VALUE_UNIT = re.compile(rf"^\s*({NUM})\s*([A-Za-zµμ°%][A-Za-z0-9µμ°%/.²³
 RANGE_CELL = re.compile(r"^\s*(-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(-?\d+(?:\.\d+)?)\s*$")
 YEAR_MONTH = re.compile(r"^\d{4}-\d{2}$")
 SEPARATORS = ("/", "|", "_", ":", " - ")
-LIST_SEPARATORS = (";", "|", ",")
+LIST_SEPARATORS = (";", "|", ",", " / ")
+ONE_WORD = re.compile(r"^[A-Za-z][A-Za-z'-]{0,19}$")
 MATCH_SHARE = 0.9
 UNIT_VARIETY = 0.3
 """Share of distinct numbers that marks a column of measurements (class codes repeat a few)."""
@@ -190,6 +191,36 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
     return findings
 
 
+def _items_recur(texts: list[str], sep: str, items: list[str]) -> bool:
+    """Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
+    the parts of "Surname, Given" always come together in the same one cell."""
+    if len(set(items)) > 0.8 * len(items):
+        return False
+    cells_of: dict[str, set[str]] = {}
+    for text in set(texts):
+        for item in text.split(sep):
+            cells_of.setdefault(item.strip(), set()).add(text)
+    multi = [t for t in set(texts) if sep in t]
+    shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
+    return len(shared) >= 0.5 * len(multi)
+
+
+def _one_word_items(sizes: Counter[int], items: list[str]) -> bool:
+    """On a table too small for items to recur: every item one word (`billing`, `gluten`), and
+    some cells hold a single item while others hold several. Free text splits into phrases."""
+    return sizes[1] > 0 and all(_one_word_or_list(item) for item in items)
+
+
+def _one_word_or_list(item: str) -> bool:
+    """One word, or a list of one-word items under another separator (`red, green; blue`)."""
+    if ONE_WORD.match(item):
+        return True
+    return any(
+        sep in item and all(ONE_WORD.match(part.strip()) for part in item.split(sep))
+        for sep in LIST_SEPARATORS
+    )
+
+
 def find_list_cells(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = frame_of(table)
     findings: list[Finding] = []
@@ -205,18 +236,9 @@ def find_list_cells(table: Table, contract: TableContract | None = None) -> list
             if any(not item or len(item) > 40 or len(item.split()) > 4 for item in items):
                 continue
             sizes = Counter(len(t.split(sep)) for t in texts)
-            vocabulary = set(items)
-            if len(sizes) < 2 or len(vocabulary) > 0.8 * len(items):
+            if len(sizes) < 2:
                 continue
-            # Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
-            # the parts of "Surname, Given" always come together in the same one cell.
-            cells_of: dict[str, set[str]] = {}
-            for text in set(texts):
-                for item in text.split(sep):
-                    cells_of.setdefault(item.strip(), set()).add(text)
-            multi = [t for t in set(texts) if sep in t]
-            shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
-            if len(shared) < 0.5 * len(multi):
+            if not (_items_recur(texts, sep, items) or _one_word_items(sizes, items)):
                 continue
             findings.append(
                 layout_finding(

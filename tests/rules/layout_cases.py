@@ -9,6 +9,18 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): a short tag list, too few rows for tags to recur.
+    "short-tag-list": (
+        'ticket,tags\nT-1,"billing, urgent"\nT-2,login\nT-3,"billing, refund, vip"\n',
+        "layout.list-cells",
+        "explode",
+    ),
+    # Common practice (no source): spaced slashes between one-word items.
+    "slash-list": (
+        "volunteer,languages\nIlse,English / Welsh\nBram,English\nMaud,English / Polish / German\n",
+        "layout.list-cells",
+        "explode",
+    ),
     # From memory of pandas: to_csv writes the RangeIndex 0..n-1 under a blank header cell.
     "index-column": (
         ",site,ph\n0,VB-014,7.1\n1,VB-015,6.8\n2,VB-016,7.0\n",
@@ -190,4 +202,9 @@ PASSING: dict[str, str] = {
     "2020-2021,Dunmore Rovers,1\n2021-2022,Kell Town,2\n",
     # Common practice (no source): a named running number starting at 1 is the provider's own id.
     "numbered-rows-named": "row,site,ph\n1,VB-014,7.1\n2,VB-015,6.8\n3,VB-016,7.0\n",
+    # Common practice (no source): free-text remarks split into phrases, not one-word items.
+    "free-text-remarks": 'visit,comment\nV-1,"Water clear; banks eroded, fence down"\n'
+    'V-2,"Algae present, light bloom; sample taken"\nV-3,"No access, gate locked"\nV-4,Fine\n',
+    # Common practice (no source): "Surname, Given" always has two parts: a name, not a list.
+    "surname-given": 'id,name\nP-1,"Varnham, Ilse"\nP-2,"Fenner, Maud"\nP-3,"Orrow, Tamsin"\n',
 }
