@@ -74,12 +74,14 @@ def layout_detectors() -> list[Detector]:
         layout_index,
         layout_margins,
         layout_rows,
+        layout_totals,
     )
 
     return [
         layout_margins.find_blank_rows_columns,
         layout_margins.find_totals_and_notes,
         layout_index.find_index_column,
+        layout_totals.find_recomputed_totals,
         layout_header_rows.find_multi_row_header,
         layout_header_rows.find_no_header,
         layout_rows.find_transposed,

@@ -13,6 +13,7 @@ from linter.rules import (  # noqa: F401
     layout_index,
     layout_margins,
     layout_rows,
+    layout_totals,
     reading,
     references,
     submission_units,

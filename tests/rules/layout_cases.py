@@ -9,6 +9,19 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): an `All ...` footer row that adds up the rows above.
+    "all-row-sums": (
+        "district,registered,voted\nKessel,6710,4102\nBrannoch,3755,2210\nAll districts,10465,6312\n",
+        "layout.totals-and-notes",
+        "drop_rows",
+    ),
+    # Common practice (no source): a Total column that is the row sum of the age bands.
+    "total-column-sums": (
+        "district,0-14,15-64,65+,Total\nKessel,1820,7385,1940,11145\nBrannoch,960,4117,1322,6399\n"
+        "Oldfold,2210,8942,2011,13163\n",
+        "layout.totals-and-notes",
+        "drop_columns",
+    ),
     # Common practice (no source): a short tag list, too few rows for tags to recur.
     "short-tag-list": (
         'ticket,tags\nT-1,"billing, urgent"\nT-2,login\nT-3,"billing, refund, vip"\n',
@@ -207,4 +220,6 @@ PASSING: dict[str, str] = {
     'V-2,"Algae present, light bloom; sample taken"\nV-3,"No access, gate locked"\nV-4,Fine\n',
     # Common practice (no source): "Surname, Given" always has two parts: a name, not a list.
     "surname-given": 'id,name\nP-1,"Varnham, Ilse"\nP-2,"Fenner, Maud"\nP-3,"Orrow, Tamsin"\n',
+    # Common practice (no source): a row that starts with `All` but does not add up is data.
+    "all-saints-is-a-name": "parish,households,visits\nKell,120,14\nAll Saints,95,11\nOrrin,60,7\n",
 }
