@@ -137,7 +137,10 @@ Move = list[Step]
 
 
 def _proposals(
-    table: Table, contract: TableContract | None, derived: frozenset[str], columns: Sequence[str]
+    table: Table,
+    contract: TableContract | None,
+    derived: frozenset[str],
+    parts: frozenset[str] = frozenset(),
 ) -> tuple[list[Move], list[str]]:
     """Next moves (one or more steps) the detectors propose for `table`, and the rule ids they report."""
     steps: list[Step] = []
@@ -150,6 +153,8 @@ def _proposals(
     margins: list[Step] = []
     for detect in layout_detectors():
         for finding in detect(table, contract):
+            if finding.step and finding.step["step"] == "gather" and set(finding.place.columns) <= parts:
+                continue  # the parts of a split are different variables by construction
             rules.append(finding.rule)
             if finding.step is None:
                 continue
@@ -215,7 +220,8 @@ def _evaluate(
         max(header_rows) if header_rows and _grid_only(steps) else None,
     )
     derived = frozenset(d for d in derived if d in output.columns)
-    proposals, remaining = _proposals(view, contract, derived, list(output.columns))
+    parts = frozenset(str(c) for s in steps if s["step"] == "split_column" for c in s["into"])
+    proposals, remaining = _proposals(view, contract, derived, parts)
     lossless = audit(table, result).lossless
     candidate = Candidate(steps, output, tidiness(output, contract), lossless, tuple(remaining), derived)
     return candidate, proposals

@@ -10,7 +10,16 @@ from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import layout_finding
-from linter.rules.layout_signals import YEAR, blank, cell_kind, frame_of, header_value_kind, sample, slug
+from linter.rules.layout_signals import (
+    YEAR,
+    blank,
+    cell_kind,
+    frame_of,
+    header_value_kind,
+    is_date,
+    sample,
+    slug,
+)
 from linter.rules.layout_units import is_unit
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
@@ -126,6 +135,40 @@ def _number_pair(label: str, texts: list[str]) -> dict[str, object] | None:
     return {"pattern": pattern, "into": [f"{name}_1", f"{name}_2"], "kind": "two numbers"}
 
 
+NUMBER_RUN = re.compile(r"(?<![\d.])-?\d+(?:\.\d+)?")
+TUPLE_SEPARATOR = re.compile(r"^(\s*[,;/|]\s*|\s*-\s*|\s+\(|%?\)|\s+)$")
+
+
+def _number_tuple(label: str, texts: list[str]) -> dict[str, object] | None:
+    """Several numbers in one fixed frame on every row (`8-0-2`, `45 (12%)`, `54.5, -2.8`).
+
+    Dates, times and decimals are left alone: the frame must be the same on every row, hold
+    only list-like separators or a bracketed share, and the cells must not read as dates.
+    """
+    frames = {NUMBER_RUN.sub("#", t.strip()) for t in texts}
+    if len(frames) != 1 or len(texts) < 2:
+        return None
+    frame = next(iter(frames))
+    pieces = frame.split("#")
+    if frame.count("#") < 2 or pieces[0] or any(is_date(t) for t in texts):
+        return None
+    if frame.count("#") == 2 and pieces[1].strip() in ("-", "–", "/"):
+        return None  # two numbers by a dash or slash: the range and pair rules judge those
+    if not all(TUPLE_SEPARATOR.match(p) for p in pieces[1:-1]) or pieces[-1] not in ("", "%", "%)", ")"):
+        return None
+    name = slug(label)
+    into = [f"{name}_{i}" for i in range(1, frame.count("#") + 1)]
+    pattern = (
+        "^"
+        + "".join(
+            re.escape(p) + (f"(?P<{into[i]}>-?\\d+(?:\\.\\d+)?)" if i < len(into) else "")
+            for i, p in enumerate(pieces)
+        )
+        + "$"
+    )
+    return {"pattern": pattern.replace("\\\\", "\\"), "into": into, "kind": "several numbers"}
+
+
 def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
     """Two codes joined by one separator whose parts cross like two variables (m/014, f/014, ...)."""
     if all(is_unit(t) for t in set(texts)):
@@ -160,6 +203,7 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
             _value_unit(label, texts)
             or _range(label, texts)
             or _number_pair(label, texts)
+            or _number_tuple(label, texts)
             or _crossed_codes(label, texts)
         )
         if found is None:

@@ -9,6 +9,18 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): a count with its share in brackets, as survey tables print it.
+    "count-and-share": (
+        "answer,responses\nSatisfied,160 (43%)\nNeutral,98 (26%)\nDissatisfied,52 (14%)\n",
+        "layout.packed-column",
+        "split_column",
+    ),
+    # Common practice (no source): latitude and longitude pasted into one cell.
+    "lat-lon-cell": (
+        'station,coordinates\nKell,"54.512, -2.871"\nArdle,"54.601, -3.004"\nSennet,"54.388, -2.655"\n',
+        "layout.packed-column",
+        "split_column",
+    ),
     # Common practice (no source): an `All ...` footer row that adds up the rows above.
     "all-row-sums": (
         "district,registered,voted\nKessel,6710,4102\nBrannoch,3755,2210\nAll districts,10465,6312\n",
@@ -222,4 +234,6 @@ PASSING: dict[str, str] = {
     "surname-given": 'id,name\nP-1,"Varnham, Ilse"\nP-2,"Fenner, Maud"\nP-3,"Orrow, Tamsin"\n',
     # Common practice (no source): a row that starts with `All` but does not add up is data.
     "all-saints-is-a-name": "parish,households,visits\nKell,120,14\nAll Saints,95,11\nOrrin,60,7\n",
+    # Common practice (no source): clock times and decimals are single values, not number tuples.
+    "clock-times": "bus,departs,fare\nR1,09:30,1.20\nR7,10:15,1.50\nR9,11:45,2.25\n",
 }
