@@ -73,6 +73,7 @@ def layout_detectors() -> list[Detector]:
         layout_headers,
         layout_index,
         layout_margins,
+        layout_repeated_header,
         layout_rows,
         layout_totals,
     )
@@ -81,6 +82,7 @@ def layout_detectors() -> list[Detector]:
         layout_margins.find_blank_rows_columns,
         layout_margins.find_totals_and_notes,
         layout_index.find_index_column,
+        layout_repeated_header.find_repeated_header,
         layout_totals.find_recomputed_totals,
         layout_header_rows.find_multi_row_header,
         layout_header_rows.find_no_header,

@@ -9,6 +9,12 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): a paged web table repeats its header at each page break.
+    "repeated-header": (
+        "pos,team,points\n1,Dunmore,24\n2,Kell,21\npos,team,points\n3,Ardle,18\n",
+        "layout.repeated-header-rows",
+        "drop_rows",
+    ),
     # Common practice (no source): a count with its share in brackets, as survey tables print it.
     "count-and-share": (
         "answer,responses\nSatisfied,160 (43%)\nNeutral,98 (26%)\nDissatisfied,52 (14%)\n",
@@ -236,4 +242,6 @@ PASSING: dict[str, str] = {
     "all-saints-is-a-name": "parish,households,visits\nKell,120,14\nAll Saints,95,11\nOrrin,60,7\n",
     # Common practice (no source): clock times and decimals are single values, not number tuples.
     "clock-times": "bus,departs,fare\nR1,09:30,1.20\nR7,10:15,1.50\nR9,11:45,2.25\n",
+    # Common practice (no source): a row sharing some header words is data, not a header copy.
+    "row-like-header-in-part": "name,role,team\nPat,role,team A\nJo,coach,team B\nAl,captain,team C\n",
 }

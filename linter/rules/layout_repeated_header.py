@@ -1,0 +1,71 @@
+"""Layout rule about the header row printed again inside the data (paged web and report exports)."""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+
+from linter.contract.model import TableContract
+from linter.findings import Finding, Severity
+from linter.rules.layout_margins import below_titles
+from linter.rules.layout_place import layout_finding
+from linter.rules.layout_signals import blank
+from linter.rules.registry import define_rule, inspector
+from linter.rules.subject import Subject
+from linter.table import Table
+
+REPEATED_HEADER = define_rule(
+    "layout.repeated-header-rows",
+    "Header row repeated inside the data",
+    Severity.ERROR,
+    """
+    Finds body rows that repeat the header cell for cell, as paged web tables and printed
+    reports do at every page break. Read as data, each copy is a bogus observation and turns
+    every numeric column into text. Fix: keep the first header and delete the copies (their
+    text is the header's, so nothing is lost).
+
+    Bad:
+        pos,team,points
+        1,Dunmore,24
+        pos,team,points
+        2,Kell Town,21
+
+    Good:
+        pos,team,points
+        1,Dunmore,24
+        2,Kell Town,21
+    """,
+)
+
+
+def _cells(values: list[object]) -> tuple[str, ...]:
+    return tuple("" if blank(v) else str(v).strip() for v in values)
+
+
+def find_repeated_header(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    if grid.shape[0] < 3 or grid.shape[1] < 2:
+        return []
+    header = _cells(grid.iloc[0].tolist())
+    if sum(bool(c) for c in header) < 2:
+        return []
+    copies = [i for i in range(1, grid.shape[0]) if _cells(grid.iloc[i].tolist()) == header]
+    if not copies:
+        return []
+    rows = [table.row_numbers[i] for i in copies]
+    return [
+        layout_finding(
+            REPEATED_HEADER,
+            table,
+            f"The header row is repeated {len(rows)} time(s) inside the data (row {rows[0]}).",
+            "Delete the repeated header rows; keep only the first.",
+            {"step": "drop_rows", "rows": rows, "reason": "header"},
+            rows=rows,
+            count=len(rows),
+            examples=[", ".join(header[:4])],
+        )
+    ]
+
+
+@inspector()
+def repeated_header(subject: Subject) -> Iterable[Finding]:
+    return find_repeated_header(below_titles(subject.table), subject.contract)
