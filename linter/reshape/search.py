@@ -134,7 +134,8 @@ def _ordered(steps: Sequence[Step], new: Step) -> tuple[Step, ...]:
     return (*grid, new, *header, *rest)
 
 
-MARGIN_STEPS = frozenset({"drop_rows", "drop_columns"})
+MARGIN_STEPS = frozenset({"drop_rows", "drop_columns", "lift_titles"})
+"""Steps about rows and columns that are not observations: they go first, before any reshaping."""
 Move = list[Step]
 
 

@@ -100,3 +100,20 @@ def test_parts_of_a_split_are_not_gathered_back() -> None:
     best = search(read_path("league.csv")[0]).best
     assert [s["step"] for s in best.steps] == ["split_column"]
     assert best.output.shape == (3, 5)
+
+
+def test_section_titles_are_lifted_before_a_gather() -> None:
+    # Common practice (no source): section rows (`Urban`) inside a wide table of years label the
+    # rows below them; gathering first would turn each title into rows of empty values.
+    from pathlib import Path
+
+    from linter.read import read_path
+    from linter.reshape.search import search
+
+    Path("wide.csv").write_text(
+        "District,2021,2022\nUrban,,\nKessel,41,42\nOldfold,50,51\nRural,,\nBrannoch,22,23\nWenlow,9,8\n",
+        encoding="utf-8",
+    )
+    best = search(read_path("wide.csv")[0]).best
+    assert [s["step"] for s in best.steps] == ["lift_titles", "gather"]
+    assert len(best.output) == 8 and "section" in best.output.columns
