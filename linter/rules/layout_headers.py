@@ -257,6 +257,8 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
         sets = list(by_id.values())
         if len(by_id) < 2 or len(sets[0]) < 2 or any(s != sets[0] for s in sets):
             continue
+        if all(CODE_LABEL.match(label) for label, _, _ in members):
+            continue  # m014, f014: a short code crossed with a number is two values, not a group
         names_to = slug(stem) if stem.strip(" _.-") else "group"
         if order == "first":
             pattern = f"^{re.escape(stem)}(?P<{names_to}>\\d+){re.escape(sep)}(?P<member>.+)$"
