@@ -9,7 +9,7 @@ from linter.contract.model import TableContract, VarType
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
-from linter.rules.layout_scale import one_scale, sideways_by_ids
+from linter.rules.layout_scale import name_runs, one_scale, sideways_by_ids
 from linter.rules.layout_signals import (
     blank,
     dominant_kind,
@@ -196,6 +196,7 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
     if not sideways_by_ids(table):  # ids across the top of a sideways table are observations
         runs += _code_runs(frame, taken)
         runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
+        runs += name_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []
     present = set(frame.labels)
     for run, kind in runs:

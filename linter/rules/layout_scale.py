@@ -93,3 +93,36 @@ def sideways_by_ids(table: Table) -> bool:
         return False
     generic = bool(GENERIC_CORNER.match(str(grid.iat[0, 0] or "").strip()))
     return generic or rows_differ_in_format(grid) or rows_differ_in_scale(grid)
+
+
+PROPER_NAME = re.compile(r"^[A-Z][a-z]+( [A-Z][a-z]+)*$")
+"""`Corran St`, `Alder Quinn`, `Depot`: capitalised words only, as names of people and places."""
+MIN_NAMES = 3
+
+
+def name_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
+    """Runs of 3+ headers that are proper names (stores, candidates) over numbers on one scale.
+
+    Variable names carry units, underscores or lower case (`temp_c`, `Flow (m3/s)`); a run of
+    capitalised, mostly two-word names over columns of whole numbers, right of a text column
+    that names each row, is one count (stock, votes) spread over its levels.
+    """
+    labels = list(frame.labels)
+    if len(labels) < MIN_NAMES + 1 or labels[0] in taken:
+        return []
+    first = [v for v in sample(frame.body[labels[0]]) if v is not None and str(v).strip()]
+    if not first or any(str(v).replace(",", "").replace(".", "").strip().isdigit() for v in first):
+        return []
+    run = [label for label in labels[1:] if label not in taken and PROPER_NAME.match(label)]
+    if len(run) < MIN_NAMES or len(run) != len(labels) - 1:
+        return []
+    if 2 * sum(" " in label for label in run) < len(run):
+        return []  # `Games, Goals, Assists` are single-word variable names; names of places and
+        # people mostly take two words (`Corran St`, `Alder Quinn`)
+    columns = [_numbers(frame, label) for label in run]
+    filled = sum(
+        sum(1 for v in sample(frame.body[label]) if v is not None and str(v).strip()) for label in run
+    )
+    if sum(len(c) for c in columns) < filled or not all((c == c.round()).all() for c in columns):
+        return []
+    return [(run, "name")]  # every filled cell a whole number: counts of one thing per name

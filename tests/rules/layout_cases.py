@@ -9,6 +9,12 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): stock counts with one column per store (two-word place names).
+    "stores-as-headers": (
+        "SKU,Corran St,Mill Yard,Harbour Row,Depot\nTK-100,14,3,22,140\nTK-110,0,0,5,60\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
     # Source: Wickham 2014 §3.2, tuberculosis table: m014, f014 cross sex with an age band, so
     # the headers are values of two variables (gathered, then split), not repeated groups.
     "sex-age-codes": (
@@ -251,4 +257,9 @@ PASSING: dict[str, str] = {
     "clock-times": "bus,departs,fare\nR1,09:30,1.20\nR7,10:15,1.50\nR9,11:45,2.25\n",
     # Common practice (no source): a row sharing some header words is data, not a header copy.
     "row-like-header-in-part": "name,role,team\nPat,role,team A\nJo,coach,team B\nAl,captain,team C\n",
+    # Common practice (no source): single-word capitalised stats are variables (a tidy table).
+    "capitalised-stats": "Player,Games,Goals,Assists\nDace,12,7,2\nOrrin,14,3,6\nPell,9,5,1\n",
+    # Common practice (no source): two-word variable names over decimals are measurements.
+    "capitalised-measures": "Site,Water Temp,Dissolved Oxygen,Total Phosphorus\n"
+    "VB-014,8.5,10.2,0.04\nVB-015,9.1,9.8,0.06\nVB-016,7.9,11.0,0.03\n",
 }
