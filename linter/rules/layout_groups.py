@@ -12,7 +12,7 @@ from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL, below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
-from linter.rules.layout_signals import blank, dominant_kind, filled_mask, frame_of, row_fill, sample
+from linter.rules.layout_signals import YEAR, blank, dominant_kind, filled_mask, frame_of, row_fill, sample
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import Table
@@ -125,8 +125,10 @@ def find_same_as_above(table: Table, contract: TableContract | None = None) -> l
         if not present[0] or empties < len(present) / 4 or present.sum() < 2:
             continue
         values = body[label][present]
-        if dominant_kind(sample(values))[0] == "number":
-            break
+        if dominant_kind(sample(values))[0] == "number" and not all(
+            YEAR.match(str(v).strip()) for v in values
+        ):
+            break  # measurements start here; a year written once per group is still a label
         if body[[*frame.labels[:position], label]][present].duplicated().any():
             continue  # a label written once per group appears once within its enclosing group
         empty_rows = [int(i) for i in np.flatnonzero(~present)]

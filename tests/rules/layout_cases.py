@@ -9,6 +9,13 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): a year written once per group above a term written once per group.
+    "two-level-fill-down": (
+        "year,term,subject,average\n2023,Autumn,Maths,61\n,,English,66\n,Spring,Maths,63\n"
+        ",,English,64\n2024,Autumn,Maths,65\n,,English,69\n",
+        "layout.same-as-above",
+        "fill_down",
+    ),
     # Common practice (no source): stock counts with one column per store (two-word place names).
     "stores-as-headers": (
         "SKU,Corran St,Mill Yard,Harbour Row,Depot\nTK-100,14,3,22,140\nTK-110,0,0,5,60\n",

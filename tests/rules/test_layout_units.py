@@ -84,3 +84,16 @@ def test_index_column_is_dropped_only_when_it_counts_from_zero() -> None:
     shuffled = frame.iloc[[2, 0, 1]]  # a filtered or sorted index is no longer 0..n-1 in order
     Path("b.csv").write_text(shuffled.to_csv(), encoding="utf-8")
     assert find_index_column(read_path("b.csv")[0]) == []
+
+
+def test_two_level_fill_down_names_both_levels() -> None:
+    from linter.rules.layout_groups import find_same_as_above
+
+    # Common practice (no source): hierarchical row labels, years above terms.
+    text = "year,term,subject,avg\n2023,Autumn,Maths,61\n,,English,66\n,Spring,Maths,63\n,,English,64\n"
+    Path("h.csv").write_text(text, encoding="utf-8")
+    found = find_same_as_above(read_path("h.csv")[0])
+    assert [f.step for f in found] == [{"step": "fill_down", "columns": ["year", "term"]}]
+    # A measured number column is never filled down, even with blanks in it.
+    Path("n.csv").write_text("site,depth\nVB-014,2.5\n,\nVB-015,1.5\n,3.0\n", encoding="utf-8")
+    assert all("depth" not in f.place.columns for f in find_same_as_above(read_path("n.csv")[0]))
