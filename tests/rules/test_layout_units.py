@@ -90,7 +90,10 @@ def test_two_level_fill_down_names_both_levels() -> None:
     from linter.rules.layout_groups import find_same_as_above
 
     # Common practice (no source): hierarchical row labels, years above terms.
-    text = "year,term,subject,avg\n2023,Autumn,Maths,61\n,,English,66\n,Spring,Maths,63\n,,English,64\n"
+    text = (
+        "year,term,subject,avg\n2023,Autumn,Maths,61\n,,English,66\n,Spring,Maths,63\n,,English,64\n"
+        "2024,Autumn,Maths,65\n,,English,69\n"
+    )
     Path("h.csv").write_text(text, encoding="utf-8")
     found = find_same_as_above(read_path("h.csv")[0])
     assert [f.step for f in found] == [{"step": "fill_down", "columns": ["year", "term"]}]
