@@ -11,6 +11,7 @@ from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_scale import name_runs, one_scale, sideways_by_ids
 from linter.rules.layout_signals import (
+    YEAR,
     blank,
     dominant_kind,
     frame_of,
@@ -148,7 +149,7 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
             best = j
             j += 1
         run = labels[i : best + 1]
-        if len(run) >= 3 and run[0] not in taken:
+        if len(run) >= _needed(run) and run[0] not in taken:
             stem = shared_stem(run)
             assert stem is not None
             rests = [label[len(stem[0]) : len(label) - len(stem[1])] for label in run]
@@ -159,6 +160,15 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
         else:
             i += 1
     return runs
+
+
+def _needed(run: list[str]) -> int:
+    """Three numbered headers make a run; two suffice when the numbers are years, as bare years do."""
+    stem = shared_stem(run) if len(run) >= 2 else None
+    if stem is None:
+        return 3
+    rests = [label[len(stem[0]) : len(label) - len(stem[1])] for label in run]
+    return 2 if all(YEAR.match(r.strip("_ -")) for r in rests) else 3
 
 
 CODE_LABEL = re.compile(r"^([a-z]{1,2})(\d+)$")

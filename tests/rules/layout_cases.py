@@ -9,6 +9,12 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Source: Wickham 2014 §3.1: a variable_year header pair is one variable over two years.
+    "variable-year-pair": (
+        "site,nitrate_2023,nitrate_2024\nVB-014,4.1,3.9\nVB-021,5.6,5.2\n",
+        "layout.values-in-headers",
+        "gather",
+    ),
     # Common practice (no source): a year written once per group above a term written once per group.
     "two-level-fill-down": (
         "year,term,subject,average\n2023,Autumn,Maths,61\n,,English,66\n,Spring,Maths,63\n"
@@ -269,4 +275,6 @@ PASSING: dict[str, str] = {
     # Common practice (no source): two-word variable names over decimals are measurements.
     "capitalised-measures": "Site,Water Temp,Dissolved Oxygen,Total Phosphorus\n"
     "VB-014,8.5,10.2,0.04\nVB-015,9.1,9.8,0.06\nVB-016,7.9,11.0,0.03\n",
+    # Common practice (no source): two numbered names that are not years stay two variables.
+    "two-numbered-columns": "site,ph_1,ph_2\nVB-014,7.1,7.0\nVB-015,6.8,6.9\n",
 }
