@@ -10,6 +10,7 @@ import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
+from linter.rules.layout_header_rows import index_name_row
 from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL, below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_signals import YEAR, blank, dominant_kind, filled_mask, frame_of, row_fill, sample
@@ -72,6 +73,8 @@ def find_section_titles(table: Table, contract: TableContract | None = None) -> 
         return []
     last = int(wide[-1])
     lone = [int(i) for i in np.flatnonzero((counts == 1) & (first_cell == 0)) if 0 < i < last]
+    if index_name_row(grid):
+        return []  # the lone row under a blank header cell names column A (a header row)
     titles = [
         i
         for i in lone

@@ -9,6 +9,12 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # From memory of pandas: a frame with a named index prints the index name on its own row.
+    "index-name-row": (
+        ",ph,nitrate\nsite,,\nVB-014,7.1,4.1\nVB-021,6.8,5.6\nVB-033,7.4,2.2\n",
+        "layout.multi-row-header",
+        "header",
+    ),
     # Source: Wickham 2014 §3.1: a variable_year header pair is one variable over two years.
     "variable-year-pair": (
         "site,nitrate_2023,nitrate_2024\nVB-014,4.1,3.9\nVB-021,5.6,5.2\n",

@@ -100,3 +100,13 @@ def test_two_level_fill_down_names_both_levels() -> None:
     # A measured number column is never filled down, even with blanks in it.
     Path("n.csv").write_text("site,depth\nVB-014,2.5\n,\nVB-015,1.5\n,3.0\n", encoding="utf-8")
     assert all("depth" not in f.place.columns for f in find_same_as_above(read_path("n.csv")[0]))
+
+
+def test_index_name_row_is_a_header_not_a_section() -> None:
+    from linter.rules.layout_groups import find_section_titles
+
+    # Common practice (no source): a section title sits under a header that names column A.
+    Path("s.csv").write_text("district,2021,2022\nUrban,,\nKessel,4,5\nOldfold,5,6\nRural,,\nWen,2,3\n")
+    assert [f.rule for f in find_section_titles(read_path("s.csv")[0])] == ["layout.section-titles"]
+    Path("i.csv").write_text(",ph,nitrate\nsite,,\nVB-014,7.1,4.1\nVB-021,6.8,5.6\nVB-033,7.4,2.2\n")
+    assert find_section_titles(read_path("i.csv")[0]) == []
