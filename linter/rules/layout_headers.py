@@ -250,6 +250,11 @@ GROUP_ID_FIRST = re.compile(r"^(?P<stem>.*?\D)?(?P<id>\d+)(?P<sep>[ _.:-]+)(?P<m
 GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]*)(?P<id>\d+)$")
 
 
+GROUP_WORD_LAST = re.compile(r"^(?P<member>.*?[^\s_.-])(?P<sep>[ _.-]+)(?P<id>[A-Za-z]+)$")
+WORD_IDS = ("month", "day", "quarter")
+"""Group ids written as words: `min_temp_jan, max_temp_jan, min_temp_feb, ...`."""
+
+
 def find_repeated_groups(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = frame_of(table)
     shapes: dict[tuple[str, str, str], list[tuple[str, str, str]]] = {}
@@ -260,6 +265,9 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
             shapes.setdefault(key, []).append((label, first["id"], first["member"]))
         elif last:
             shapes.setdefault(("last", "", last["sep"]), []).append((label, last["id"], last["member"]))
+        elif (word := GROUP_WORD_LAST.match(label)) and header_value_kind(word["id"]) in WORD_IDS:
+            key = ("word", "", word["sep"])
+            shapes.setdefault(key, []).append((label, word["id"], word["member"]))
     findings: list[Finding] = []
     for (order, stem, sep), members in shapes.items():
         by_id: dict[str, set[str]] = {}
@@ -271,7 +279,11 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
         if all(CODE_LABEL.match(label) for label, _, _ in members):
             continue  # m014, f014: a short code crossed with a number is two values, not a group
         names_to = slug(stem) if stem.strip(" _.-") else "group"
-        if order == "first":
+        if order == "word":
+            names_to = str(header_value_kind(members[0][1]))
+            words = "|".join(re.escape(w) for w in sorted(by_id, key=len, reverse=True))
+            pattern = f"^(?P<member>.+?){re.escape(sep)}(?P<{names_to}>{words})$"
+        elif order == "first":
             pattern = f"^{re.escape(stem)}(?P<{names_to}>\\d+){re.escape(sep)}(?P<member>.+)$"
         else:
             pattern = f"^(?P<member>.+?){re.escape(sep)}(?P<{names_to}>\\d+)$"

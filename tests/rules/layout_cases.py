@@ -9,6 +9,13 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): min/max pairs repeated per month, the month written as a word.
+    "groups-by-month-word": (
+        "station,min_temp_jan,max_temp_jan,min_temp_feb,max_temp_feb\nKell,-2.1,6.4,-1.5,7.9\n"
+        "Ardle,-4.0,4.2,-3.1,5.5\n",
+        "layout.repeated-column-groups",
+        "gather_groups",
+    ),
     # From memory of pandas: a frame with a named index prints the index name on its own row.
     "index-name-row": (
         ",ph,nitrate\nsite,,\nVB-014,7.1,4.1\nVB-021,6.8,5.6\nVB-033,7.4,2.2\n",
@@ -283,4 +290,7 @@ PASSING: dict[str, str] = {
     "VB-014,8.5,10.2,0.04\nVB-015,9.1,9.8,0.06\nVB-016,7.9,11.0,0.03\n",
     # Common practice (no source): two numbered names that are not years stay two variables.
     "two-numbered-columns": "site,ph_1,ph_2\nVB-014,7.1,7.0\nVB-015,6.8,6.9\n",
+    # Common practice (no source): words after an underscore that are not periods are plain names.
+    "word-suffixed-names": "site,depth_top,depth_bottom,temp_top,temp_bottom\nVB-014,0.5,2.0,8.1,7.2\n"
+    "VB-015,0.4,1.8,8.3,7.5\n",
 }
