@@ -83,6 +83,7 @@ def layout_detectors() -> list[Detector]:
         layout_margins.find_totals_and_notes,
         layout_index.find_index_column,
         layout_repeated_header.find_repeated_header,
+        layout_repeated_header.find_rule_lines,
         layout_totals.find_recomputed_totals,
         layout_header_rows.find_multi_row_header,
         layout_header_rows.find_no_header,

@@ -1,7 +1,8 @@
-"""Layout rule about the header row printed again inside the data (paged web and report exports)."""
+"""Layout rules about rows that only repeat or underline the header (paged web and text-table exports)."""
 
 from __future__ import annotations
 
+import re
 from collections.abc import Iterable
 
 from linter.contract.model import TableContract
@@ -35,6 +36,58 @@ REPEATED_HEADER = define_rule(
         2,Kell Town,21
     """,
 )
+
+
+RULE_LINES = define_rule(
+    "layout.rule-lines",
+    "Ruled lines drawn with dashes",
+    Severity.ERROR,
+    """
+    Finds rows whose every filled cell is a line drawn with dashes, equals signs or colons
+    (`---`, `===`, `:--:`), as Markdown and plain-text tables underline their header. Read as
+    data, the line is an observation of dashes and turns every column into text. Fix: delete
+    the ruled lines (the audit lists each one).
+
+    Bad:
+        site,ph
+        ---,---
+        VB-014,7.1
+
+    Good:
+        site,ph
+        VB-014,7.1
+    """,
+)
+RULE_CELL = re.compile(r"^\s*:?[-=]{3,}:?\s*$|^\s*\+?([-=]{3,}\+)+\s*$")
+
+
+def find_rule_lines(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    grid = table.grid
+    lines = []
+    for i in range(grid.shape[0]):
+        cells = [str(v) for v in grid.iloc[i].tolist() if not blank(v)]
+        if len(cells) >= 2 and all(RULE_CELL.match(c) for c in cells):
+            lines.append(i)
+    if not lines:
+        return []
+    rows = [table.row_numbers[i] for i in lines]
+    return [
+        layout_finding(
+            RULE_LINES,
+            table,
+            f"{len(rows)} row(s) are ruled lines drawn with dashes (row {rows[0]}), not data.",
+            "Delete the ruled lines.",
+            {"step": "drop_rows", "rows": rows, "reason": "rule"},
+            rows=rows,
+            count=len(rows),
+            examples=[str(v) for v in grid.iloc[lines[0]].tolist() if not blank(v)][:3],
+        )
+    ]
+
+
+@inspector()
+def rule_lines(subject: Subject) -> Iterable[Finding]:
+    return find_rule_lines(subject.table, subject.contract)
 
 
 def _cells(values: list[object]) -> tuple[str, ...]:

@@ -9,6 +9,13 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Source: GitHub Flavored Markdown spec 0.29, §4.10 tables: the delimiter row `---` under
+    # the header row is layout, not data.
+    "markdown-rule-line": (
+        "site,ph,temp_c\n---,---,---\nVB-014,7.1,11.2\nVB-021,6.8,11.9\n",
+        "layout.rule-lines",
+        "drop_rows",
+    ),
     # Common practice (no source): min/max pairs repeated per month, the month written as a word.
     "groups-by-month-word": (
         "station,min_temp_jan,max_temp_jan,min_temp_feb,max_temp_feb\nKell,-2.1,6.4,-1.5,7.9\n"
@@ -293,4 +300,6 @@ PASSING: dict[str, str] = {
     # Common practice (no source): words after an underscore that are not periods are plain names.
     "word-suffixed-names": "site,depth_top,depth_bottom,temp_top,temp_bottom\nVB-014,0.5,2.0,8.1,7.2\n"
     "VB-015,0.4,1.8,8.3,7.5\n",
+    # Common practice (no source): a dash as a missing-value mark in a few cells is not a rule line.
+    "dash-missing-marks": "site,ph,temp_c\nVB-014,-,11.2\nVB-021,6.8,-\nVB-033,7.0,10.1\n",
 }
