@@ -90,6 +90,7 @@ def layout_detectors() -> list[Detector]:
         layout_rows.find_transposed,
         layout_groups.find_section_titles,
         layout_groups.find_same_as_above,
+        layout_groups.find_ditto_marks,
         layout_headers.find_repeated_groups,
         layout_headers.find_values_in_headers,
         layout_cells.find_packed_column,

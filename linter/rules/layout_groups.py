@@ -161,6 +161,58 @@ def find_same_as_above(table: Table, contract: TableContract | None = None) -> l
     ]
 
 
+DITTO_MARKS = ('"', "''", "〃", "ditto", "do.")
+"""Common practice (no source): the marks hand-kept ledgers write for "same as above"."""
+
+
+def find_ditto_marks(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = frame_of(table)
+    body = frame.body
+    if len(body) < 3:
+        return []
+    chosen: list[str] = []
+    count = 0
+    for label in frame.labels:
+        texts = [None if blank(v) else str(v).strip() for v in sample(body[label])]
+        marked = [t is not None and t.lower() in DITTO_MARKS for t in texts]
+        if not any(marked) or marked[0] or sum(marked) < len(texts) / 4:
+            continue
+        if any(
+            t is not None and not m and t.lower() in DITTO_MARKS for t, m in zip(texts, marked, strict=True)
+        ):
+            continue
+        chosen.append(label)
+        count += sum(marked)
+    if not chosen:
+        return []
+    marks = sorted(
+        {
+            str(v).strip()
+            for c in chosen
+            for v in body[c]
+            if not blank(v) and str(v).strip().lower() in DITTO_MARKS
+        }
+    )
+    return [
+        layout_finding(
+            SAME_AS_ABOVE,
+            table,
+            f"The column(s) {shown(chosen)} write {shown(marks)} in {count} cell(s) for 'same as above'.",
+            "Repeat the value in every row instead of the ditto mark.",
+            {"step": "fill_down", "columns": chosen, "marks": marks},
+            columns=chosen,
+            letters=frame_letters(frame, chosen),
+            count=count,
+            examples=marks,
+        )
+    ]
+
+
+@inspector()
+def ditto_marks(subject: Subject) -> Iterable[Finding]:
+    return find_ditto_marks(below_titles(subject.table), subject.contract)
+
+
 @inspector()
 def section_titles(subject: Subject) -> Iterable[Finding]:
     return find_section_titles(subject.table, subject.contract)

@@ -133,6 +133,15 @@ def test_total_column_that_does_not_add_up_is_lost() -> None:
     assert (3, "D", "462") in lost_places(result)
 
 
+def test_ditto_marks_filled_down_are_listed_as_dropped() -> None:
+    # Common practice (no source): `"` under a value means the value above; once filled in, the
+    # mark itself is listed with the reason `ditto`, and nothing else goes.
+    grid: Grid = [["bus", "stop"], ["12", "Quay End"], ['"', "Mill Yard"], ["14", "Depot"]]
+    result = audit_of(grid, {"step": "fill_down", "columns": ["bus"], "marks": ['"']})
+    assert result.lossless, lost_places(result)
+    assert [(c.row, c.letter, c.why) for c in result.dropped] == [(3, "A", "ditto")]
+
+
 def test_split_counts_unmatched_cells_and_keeps_their_text() -> None:
     result = audit_of(
         [["result"], ["12 mg/L"], ["n.d."], ["<0.5 mg/L"]],

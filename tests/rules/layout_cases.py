@@ -9,6 +9,13 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Common practice (no source): ditto marks in a hand-kept timetable mean "same as above".
+    "ditto-marks": (
+        'bus,stop,departs\n12,Quay End,07:10\n"""",Mill Yard,07:18\n"""",Corran St,07:25\n'
+        '14,Depot Lane,07:40\n"""",Harbour Row,07:52\n',
+        "layout.same-as-above",
+        "fill_down",
+    ),
     # Source: GitHub Flavored Markdown spec 0.29, §4.10 tables: the delimiter row `---` under
     # the header row is layout, not data.
     "markdown-rule-line": (
@@ -302,4 +309,6 @@ PASSING: dict[str, str] = {
     "VB-015,0.4,1.8,8.3,7.5\n",
     # Common practice (no source): a dash as a missing-value mark in a few cells is not a rule line.
     "dash-missing-marks": "site,ph,temp_c\nVB-014,-,11.2\nVB-021,6.8,-\nVB-033,7.0,10.1\n",
+    # Common practice (no source): a status that says "same" is a value, not a ditto mark.
+    "status-same": "site,visit,change\nVB-014,1,new\nVB-014,2,same\nVB-015,1,new\nVB-015,2,same\n",
 }
