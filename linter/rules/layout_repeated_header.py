@@ -5,6 +5,9 @@ from __future__ import annotations
 import re
 from collections.abc import Iterable
 
+import numpy as np
+import pandas as pd
+
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
@@ -61,13 +64,20 @@ RULE_LINES = define_rule(
 RULE_CELL = re.compile(r"^\s*:?[-=]{3,}:?\s*$|^\s*\+?([-=]{3,}\+)+\s*$")
 
 
+def _texts(grid: pd.DataFrame) -> pd.DataFrame:
+    """Every cell stripped, empty cells as '' (vectorised: these rules look at every row)."""
+    return grid.astype(object).where(grid.notna(), "").astype(str).apply(lambda c: c.str.strip())
+
+
 def find_rule_lines(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
-    lines = []
-    for i in range(grid.shape[0]):
-        cells = [str(v) for v in grid.iloc[i].tolist() if not blank(v)]
-        if len(cells) >= 2 and all(RULE_CELL.match(c) for c in cells):
-            lines.append(i)
+    if grid.size == 0:
+        return []
+    texts = _texts(grid)
+    ruled = texts.apply(lambda c: c.str.match(RULE_CELL.pattern)).to_numpy(dtype=bool)
+    filled = (texts != "").to_numpy()
+    hits = ((ruled | ~filled).all(axis=1)) & (filled.sum(axis=1) >= 2)
+    lines = [int(i) for i in np.flatnonzero(hits)]
     if not lines:
         return []
     rows = [table.row_numbers[i] for i in lines]
@@ -101,7 +111,8 @@ def find_repeated_header(table: Table, contract: TableContract | None = None) ->
     header = _cells(grid.iloc[0].tolist())
     if sum(bool(c) for c in header) < 2:
         return []
-    copies = [i for i in range(1, grid.shape[0]) if _cells(grid.iloc[i].tolist()) == header]
+    same = (_texts(grid).to_numpy() == np.asarray(header, dtype=object)).all(axis=1)
+    copies = [int(i) for i in np.flatnonzero(same) if i > 0]
     if not copies:
         return []
     rows = [table.row_numbers[i] for i in copies]

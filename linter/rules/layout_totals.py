@@ -37,13 +37,14 @@ def _close(a: np.ndarray, b: np.ndarray) -> bool:
 def _all_rows(table: Table) -> list[int]:
     """Rows labelled `All ...` whose numeric cells each equal the column sum of the rows above."""
     grid = table.grid
-    numbers = _numbers(grid.iloc[:, 1:])
+    labels = grid.iloc[:, 0].astype(object).where(grid.iloc[:, 0].notna(), "").astype(str)
+    candidates = [int(i) for i in np.flatnonzero(labels.str.match(ALL_LABEL.pattern, case=False)) if i >= 2]
+    if not candidates:
+        return []  # the sums are only worked out for labelled rows, so long tables stay cheap
+    numbers = _numbers(grid.iloc[: candidates[-1] + 1, 1:])
     found: list[int] = []
     start = 1
-    for index in range(2, grid.shape[0]):
-        label = grid.iat[index, 0]
-        if blank(label) or not ALL_LABEL.match(str(label)):
-            continue
+    for index in candidates:
         row = numbers.iloc[index]
         filled = row.notna().to_numpy()
         above = numbers.iloc[start:index].to_numpy()[:, filled]
@@ -58,9 +59,16 @@ def _total_columns(table: Table) -> list[int]:
     grid = table.grid
     if grid.shape[0] < 3 or grid.shape[1] < 4:
         return []
+    heads = [
+        j
+        for j in range(grid.shape[1])
+        if not blank(grid.iat[0, j]) and TOTAL_LABEL.match(str(grid.iat[0, j]))
+    ]
+    if not heads:
+        return []
     numbers = _numbers(grid.iloc[1:])
     found: list[int] = []
-    for j in range(grid.shape[1]):
+    for j in heads:
         head = grid.iat[0, j]
         if blank(head) or not TOTAL_LABEL.match(str(head)) or numbers.iloc[:, j].isna().any():
             continue
