@@ -21,8 +21,8 @@ test: venv
 	$(BIN)/pytest -q -n 2
 
 lint: venv
-	$(BIN)/ruff check linter tests benchmarks
-	$(BIN)/ruff format --check linter tests benchmarks
+	$(BIN)/ruff check linter tests benchmarks fuzz
+	$(BIN)/ruff format --check linter tests benchmarks fuzz
 	$(BIN)/mypy linter
 
 format: venv

@@ -7,17 +7,21 @@ from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from fnmatch import fnmatch
-from pathlib import Path, PurePath
+from pathlib import PurePath
 
 from linter import __version__
 from linter.contract.model import Contract, TableContract
+from linter.deadline import TimedOut, time_limit
 from linter.findings import Finding, Place, Severity, sort_key
+from linter.limits import MAX_FOLDER_DEPTH, Limits
 from linter.read import SUPPORTED_SUFFIXES, UnreadableFile, read_path
+from linter.read.folders import Skipped, expand_paths
 from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
 from linter.table import Frame, Table, first_row_header
+from linter.template.returned import sheet_owner, template_parts_removed
 
 INTERNAL_RULE = "weir.inspector-failed"
 
@@ -32,22 +36,9 @@ class Governed:
     sha256: str
 
 
-def submitted_files(paths: Iterable[str]) -> list[str]:
+def submitted_files(paths: Iterable[str], max_depth: int = MAX_FOLDER_DEPTH) -> list[str]:
     """The files named, with folders expanded to the supported files below them, sorted."""
-    found: list[str] = []
-    for name in paths:
-        path = Path(name)
-        if path.is_dir():
-            found.extend(
-                str(p)
-                for p in sorted(path.rglob("*"))
-                if p.is_file()
-                and p.suffix.lower() in SUPPORTED_SUFFIXES
-                and not any(part.startswith(".") for part in p.relative_to(path).parts)
-            )
-        else:
-            found.append(name)
-    return found
+    return list(expand_paths(paths, SUPPORTED_SUFFIXES, max_depth).files)
 
 
 def governing(path: str, contracts: Sequence[Contract]) -> tuple[Contract | None, TableContract | None]:
@@ -132,23 +123,54 @@ def run_submission_inspectors(subjects: Sequence[Subject]) -> list[Finding]:
     return sorted(findings, key=sort_key)
 
 
+def not_followed_findings(skipped: Iterable[Skipped]) -> list[Finding]:
+    """Links out of a folder and folders too deep are not files Weir read: they have no table
+    result (and no hash), so they are reported with the whole submission."""
+    return [
+        Finding(s.reason.rule, Severity.ERROR, s.reason.message, Place(file=s.path), fix=s.reason.fix)
+        for s in skipped
+    ]
+
+
+def timed_out(seconds: float) -> UnreadableFile:
+    return UnreadableFile(
+        "file.timed-out",
+        f"Weir stopped after {seconds:g} seconds on this file, so it was not fully checked.",
+        "Send the data as CSV, or split it into smaller files; the data manager can raise the time limit.",
+    )
+
+
 def check_paths(
-    paths: Sequence[str], contracts: Sequence[Contract], fail_on: Severity = Severity.ERROR
+    paths: Sequence[str],
+    contracts: Sequence[Contract],
+    fail_on: Severity = Severity.ERROR,
+    limits: Limits | None = None,
 ) -> Report:
     """Check every named file (folders expanded) and return the whole report."""
     import linter.rules.catalogue  # noqa: F401  (registers every rule family)
 
+    bounds = limits or Limits()
     governed: list[Governed] = []
     results: list[TableResult] = []
-    for path in submitted_files(paths):
+    expansion = expand_paths(paths, SUPPORTED_SUFFIXES, bounds.folder_depth)
+    not_followed = not_followed_findings(expansion.skipped)
+    for path in expansion.files:
         sha = file_sha256(path)
         contract, rules = governing(path, contracts)
         try:
-            tables = read_path(path)
+            with time_limit(bounds.seconds_per_file):
+                tables = read_path(path, bounds.read)
         except UnreadableFile as error:
             results.append(unreadable_result(path, sha, error))
             continue
-        governed.extend(Governed(t, contract, rules, sha) for t in tables)
+        except TimedOut:
+            results.append(unreadable_result(path, sha, timed_out(bounds.seconds_per_file)))
+            continue
+        # A returned Weir template: its help sheets and untouched example rows are not data, and
+        # each sheet named after a table of the contract is governed by that table.
+        owner = contract or sheet_owner(tables, contracts)
+        for table, table_rules in template_parts_removed(tables, owner, rules):
+            governed.append(Governed(table, owner if table_rules else contract, table_rules, sha))
 
     frames = {id(g): first_row_header(g.table) for g in governed}
     by_name: dict[str, Frame] = {}
@@ -160,6 +182,15 @@ def check_paths(
         frame = frames[id(g)]
         subject = Subject(g.table, frame, g.rules, by_name)
         subjects.append(subject)
+        try:
+            with time_limit(bounds.seconds_per_file):
+                findings = attach_excerpts(
+                    run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
+                )
+        except TimedOut:
+            stopped = timed_out(bounds.seconds_per_file)
+            place = Place(file=g.table.source, sheet=g.table.sheet)
+            findings = (Finding(stopped.rule, Severity.ERROR, stopped.message, place, fix=stopped.fix),)
         results.append(
             TableResult(
                 file=g.table.source,
@@ -171,13 +202,11 @@ def check_paths(
                 contract=g.contract.id if g.contract else None,
                 contract_version=g.contract.version if g.contract else None,
                 table=g.rules.name if g.rules else None,
-                findings=attach_excerpts(
-                    run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
-                ),
+                findings=tuple(findings),
                 encoding=g.table.encoding,
             )
         )
-    whole = tuple(run_submission_inspectors(subjects))
+    whole = tuple(sorted([*not_followed, *run_submission_inspectors(subjects)], key=sort_key))
     return Report(
         __version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results), whole
     )

@@ -11,6 +11,7 @@ from pathlib import Path, PurePath
 
 from linter.errors import WeirError
 from linter.findings import Severity
+from linter.limits import Limits, parse_limits
 
 SETTINGS_FILES = ("weir.toml", "pyproject.toml")
 
@@ -60,6 +61,11 @@ class Settings:
     limits: Mapping[str, int | float | str | bool] = field(default_factory=dict)
     """Resource limits, parsed here and passed on untouched to whoever enforces them."""
     inbox: InboxLayout = field(default_factory=InboxLayout)
+
+    @property
+    def bounds(self) -> Limits:
+        """`limits` as the bounds every command enforces (already validated when the settings loaded)."""
+        return parse_limits(self.limits)
 
 
 TOP_KEYS = ("contracts", "fail_on", "report_dir", "map", "bundle", "limits", "inbox")
@@ -153,6 +159,7 @@ def parse_settings(root: Path, table: dict[str, object], source: str) -> Setting
         isinstance(v, int | float | str | bool) for v in limits.values()
     ):
         raise WeirError(f"{source}: [limits] must be a table of plain values")
+    parse_limits(limits, source)  # a misspelt or negative limit fails here, before any file is read
     inbox = parse_inbox(table["inbox"], source) if "inbox" in table else InboxLayout()
     return Settings(
         root, contracts, Severity(str(fail_on)), report_dir, tuple(maps), tuple(bundles), dict(limits), inbox

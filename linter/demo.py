@@ -1,8 +1,9 @@
 """`make demo`: run Weir on the invented Vell Basin submissions and write what goes back to providers.
 
 It checks the clean files (accepted), each returned file with the files submitted beside it
-(JSON report, HTML and Markdown letters), the multi-file units folder, and tidies the
-badly shaped layout samples, then prints one line per result. Everything lands in demo-out/.
+(JSON report, HTML and Markdown letters), the multi-file units folder, tidies the
+badly shaped layout samples and writes each contract's dictionary and fill-in workbook, then
+prints one line per result. Everything lands in demo-out/.
 """
 
 from __future__ import annotations
@@ -73,6 +74,16 @@ def tidy_layouts(folder: Path, out: Path) -> list[tuple[str, int, str]]:
     return rows
 
 
+def provider_forms(samples: Path, out: Path) -> list[tuple[str, int, int]]:
+    """A data dictionary and a fill-in workbook for every demo contract (what a provider gets first)."""
+    rows = []
+    for path in sorted((samples.parent / "contracts").glob("*.yaml")):
+        spec, _ = weir("dictionary", str(path), "--out", str(out / "forms" / f"{path.stem}.html"))
+        form, _ = weir("template", str(path), "--out", str(out / "forms" / f"{path.stem}.xlsx"))
+        rows.append((path.stem, spec, form))
+    return rows
+
+
 def main(samples: Path = Path("sample_submissions"), out: Path = Path("demo-out")) -> int:
     """Run the whole demo; returns 0 when every demo file got the verdict its manifest promises."""
     if not samples.is_dir():
@@ -108,6 +119,12 @@ def main(samples: Path = Path("sample_submissions"), out: Path = Path("demo-out"
     print("\n4. Badly shaped files reshaped by `weir tidy` (recipe and audit beside each):")
     for name, code, summary in tidy_layouts(samples / "layout", out):
         print(f"   {name:34} exit {code}  {summary}")
+
+    print("\n5. Before they send: a data dictionary (.html) and a fill-in workbook (.xlsx) per contract:")
+    for name, spec, form in provider_forms(samples, out):
+        print(f"   {name:34} -> {out}/forms/{name}.html, {out}/forms/{name}.xlsx")
+        if spec or form:
+            surprises.append(f"forms for {name}: exit {spec} and {form}, expected 0")
 
     print(f"\nEverything is in {out}/. Open {out}/returned/*.html in a browser to read the letters.")
     for surprise in surprises:

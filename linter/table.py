@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass, field
+from functools import cached_property
 
 import pandas as pd
 
@@ -86,9 +88,16 @@ class Frame:
         """The unique column labels used in `body` (blank or repeated names get the letter)."""
         return tuple(str(c) for c in self.body.columns)
 
+    @cached_property
+    def positions(self) -> Mapping[str, int]:
+        """Column label -> 0-based position; a lookup per letter keeps wide tables linear."""
+        return {label: index for index, label in enumerate(self.labels)}
+
     def letter(self, label: str) -> str:
-        """Spreadsheet letter of a body column."""
-        return column_letter(self.labels.index(label))
+        """Spreadsheet letter of a body column (ValueError for a label the frame lacks)."""
+        if label not in self.positions:
+            raise ValueError(f"{label!r} is not a column of the table")
+        return column_letter(self.positions[label])
 
 
 def unique_labels(names: list[str]) -> list[str]:

@@ -6,6 +6,11 @@ import socket
 from pathlib import Path
 
 import pytest
+from hypothesis import settings
+
+# `pytest --hypothesis-profile=long` for long property runs by hand; tests that pick their own
+# small example count for the suite read `settings.default.max_examples` to honour it.
+settings.register_profile("long", max_examples=400, deadline=None)
 
 REPO = Path(__file__).resolve().parent.parent
 

@@ -45,7 +45,9 @@ def gate(
     def check(path: Path) -> Report:
         if settings is not None and settings.bundles:
             return check_in_bundle(path, inbox, layout, settings, governance, threshold)
-        return check_paths([str(path)], list(governance.for_file(str(path), inbox)), threshold)
+        return check_paths(
+            [str(path)], list(governance.for_file(str(path), inbox)), threshold, governance.limits
+        )
 
     ledger = SqliteLedger(inbox / layout.ledger)
     try:

@@ -25,6 +25,9 @@ def tidy(
 ) -> int:
     """Reshape a table into tidy form; exit 0 when written, 2 if Weir could not."""
     from linter.check import governing
+    from linter.config import find_settings
+    from linter.deadline import TimedOut, time_limit
+    from linter.limits import Limits
     from linter.read import UnreadableFile, read_path
     from linter.reshape.tidy_run import tidy_tables, write_outputs
 
@@ -34,17 +37,22 @@ def tidy(
         raise WeirError(f"--out must be a folder, and {out} is a file")
     if recipe is not None and not recipe.is_file():
         raise WeirError(f"no such recipe file: {recipe}")
+    settings = find_settings(Path.cwd())
+    bounds = settings.bounds if settings else Limits()
     rules = None
     if contract is not None:
         if not contract.is_file():
             raise WeirError(f"no such contract file: {contract}")
         from linter.contract.load import load_contract
 
-        rules = governing(str(input), [load_contract(str(contract))])[1]
+        rules = governing(str(input), [load_contract(str(contract), bounds)])[1]
     try:
-        tables = read_path(str(input))
+        with time_limit(bounds.seconds_per_file):
+            tables = read_path(str(input), bounds.read)
     except UnreadableFile as error:
         raise WeirError(f"{input}: {error.message}") from None
+    except TimedOut:
+        raise WeirError(f"{input}: not read within {bounds.seconds_per_file:g} seconds") from None
     if not tables:
         raise WeirError(f"{input}: no table found in the file")
     results = tidy_tables(tables, rules, recipe_path=recipe, keep_empty=not drop_empty)

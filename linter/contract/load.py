@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import re
+from typing import TYPE_CHECKING
 
 from linter.contract import entries
 from linter.contract.expressions import parse_rule
@@ -10,6 +11,9 @@ from linter.contract.model import Comparison, Contract, Position, TableContract,
 from linter.contract.variables import load_variable
 from linter.contract.yaml_tree import YNode, parse_yaml, read_text
 from linter.errors import WeirError
+
+if TYPE_CHECKING:
+    from linter.limits import Limits
 
 HEADER_KEYS = ("contract", "version", "title", "description")
 TABLE_KEYS = (
@@ -30,9 +34,12 @@ EXTRA_COLUMNS = ("error", "warn", "allow")
 NAME = re.compile(r"^[^.\s]+$")
 
 
-def load_contract(path: str) -> Contract:
+def load_contract(path: str, limits: Limits | None = None) -> Contract:
     """Read, check and convert one contract file; every problem is a `path:line:col` WeirError."""
-    tree = parse_yaml(read_text(path), path)
+    if limits is None:
+        tree = parse_yaml(read_text(path), path)
+    else:
+        tree = parse_yaml(read_text(path, max_bytes=limits.contract_bytes), path, limits.contract_nodes)
     return contract_from_tree(tree, path)
 
 

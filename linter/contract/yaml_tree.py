@@ -61,7 +61,7 @@ def place(file: str, node: Node) -> Position:
     return Position(file, node.start_mark.line + 1, node.start_mark.column + 1)
 
 
-def read_text(path: str, shown: str | None = None) -> str:
+def read_text(path: str, shown: str | None = None, max_bytes: int = MAX_FILE_BYTES) -> str:
     """The contract file's text; every reason it cannot be read is a one-line WeirError.
 
     `shown` is the name used in messages (the path as the user wrote it, not as resolved).
@@ -71,8 +71,8 @@ def read_text(path: str, shown: str | None = None) -> str:
     if not file.is_file():
         raise WeirError(f"{path}: no such contract file")
     size = file.stat().st_size
-    if size > MAX_FILE_BYTES:
-        raise WeirError(f"{path}:1:1: contract file is {size:,} bytes; the limit is {MAX_FILE_BYTES:,}")
+    if size > max_bytes:
+        raise WeirError(f"{path}:1:1: contract file is {size:,} bytes; the limit is {max_bytes:,}")
     raw = file.read_bytes()
     try:
         text = raw.decode("utf-8-sig")
@@ -84,7 +84,7 @@ def read_text(path: str, shown: str | None = None) -> str:
     return text
 
 
-def parse_yaml(text: str, file: str) -> YNode:
+def parse_yaml(text: str, file: str, max_nodes: int = MAX_NODES) -> YNode:
     """Compose (never construct) the YAML, then build the tree ourselves under the limits."""
     yaml = YAML(typ="safe", pure=True)
     try:
@@ -100,24 +100,25 @@ def parse_yaml(text: str, file: str) -> YNode:
         raise WeirError(f"{file}:1:1: contract nests deeper than {MAX_DEPTH} levels") from None
     if root is None:
         raise WeirError(f"{file}:1:1: contract file holds no YAML document")
-    budget = _Budget(file, yaml)
+    budget = _Budget(file, yaml, max_nodes)
     return budget.build(root, None, 0, ())
 
 
 class _Budget:
     """Walks the composed node graph, expanding aliases while counting every node it visits."""
 
-    def __init__(self, file: str, yaml: YAML) -> None:
+    def __init__(self, file: str, yaml: YAML, max_nodes: int = MAX_NODES) -> None:
         self.file = file
+        self.max_nodes = max_nodes
         self.yaml = yaml
         self.visited = 0
 
     def build(self, node: Node, key_at: Position | None, depth: int, path: tuple[int, ...]) -> YNode:
         at = place(self.file, node)
         self.visited += 1
-        if self.visited > MAX_NODES:
+        if self.visited > self.max_nodes:
             raise WeirError(
-                f"{at}: contract expands to more than {MAX_NODES:,} YAML nodes "
+                f"{at}: contract expands to more than {self.max_nodes:,} YAML nodes "
                 "(aliases repeated too often); write the values out plainly"
             )
         if depth > MAX_DEPTH or id(node) in path:

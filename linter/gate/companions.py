@@ -95,11 +95,13 @@ def check_in_bundle(
 
     relative = path.relative_to(inbox).as_posix()
     if bundle_of(settings, relative) is None:
-        return check_paths([str(path)], list(governance.for_file(str(path), inbox)), fail_on)
+        return check_paths(
+            [str(path)], list(governance.for_file(str(path), inbox)), fail_on, governance.limits
+        )
     waiting = waiting_companions(settings, inbox, relative)
     filed = filed_companions(settings, inbox, layout, relative, provider_of(relative, layout))
     borrowed = {name: copy for name, copy in filed.items() if name not in waiting}
     with lent(inbox, borrowed) as extra:
         files = [str(path), *(str(p) for p in waiting.values()), *extra]
-        report = check_paths(files, list(governance.contracts.values()), fail_on)
+        report = check_paths(files, list(governance.contracts.values()), fail_on, governance.limits)
     return own_results(report, str(path))

@@ -3,12 +3,13 @@
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 from linter.config import Settings, bundle_members, bundle_of, contract_paths, mapped_contract
 from linter.contract.model import Contract
 from linter.findings import Severity
+from linter.limits import Limits
 from linter.report.model import Report
 
 
@@ -28,6 +29,8 @@ class Governance:
 
     settings: Settings | None
     contracts: dict[Path, Contract]
+    limits: Limits = field(default_factory=Limits)
+    """The settings' `[limits]` (even when contracts were named on the command line)."""
 
     def for_file(self, path: str, relative_to: Path | None = None) -> tuple[Contract, ...]:
         """The contract a `[[map]]` assigns to the file, else every contract (their `applies_to` decides)."""
@@ -46,27 +49,38 @@ class Governance:
 def load_governance(settings: Settings | None, named: Sequence[Path] = ()) -> Governance:
     """Load the contracts named on the command line (maps then do not apply), else the settings' ones."""
     files = list(named) or (contract_paths(settings) if settings else [])
+    bounds = settings.bounds if settings else Limits()
     if not files:
-        return Governance(None if named else settings, {})
+        return Governance(None if named else settings, {}, bounds)
     from linter.contract.load import load_contract
 
-    return Governance(None if named else settings, {p.resolve(): load_contract(str(p)) for p in files})
+    loaded = {p.resolve(): load_contract(str(p), bounds) for p in files}
+    return Governance(None if named else settings, loaded, bounds)
 
 
 def check_governed(paths: Sequence[str], governance: Governance, fail_on: Severity) -> Report:
     """`weir check`: all files in one run, except that files a `[[map]]` assigns get their own run."""
-    from linter.check import check_paths, submitted_files
+    from linter import __version__
+    from linter.check import check_paths, not_followed_findings
+    from linter.read import SUPPORTED_SUFFIXES
+    from linter.read.folders import expand_paths
 
     if governance.settings is None or not governance.settings.maps:
-        return check_paths(paths, list(governance.contracts.values()), fail_on)
+        return check_paths(paths, list(governance.contracts.values()), fail_on, governance.limits)
     runs: dict[tuple[int, ...], list[str]] = {}
     chosen: dict[tuple[int, ...], tuple[Contract, ...]] = {}
-    for name in submitted_files(paths):
+    expansion = expand_paths(paths, SUPPORTED_SUFFIXES, governance.limits.folder_depth)
+    for name in expansion.files:
         contracts = governance.for_file(name)
         key = tuple(id(c) for c in contracts)
         runs.setdefault(key, []).append(name)
         chosen[key] = contracts
-    reports = [check_paths(files, list(chosen[key]), fail_on) for key, files in runs.items()]
+    reports = [
+        check_paths(files, list(chosen[key]), fail_on, governance.limits) for key, files in runs.items()
+    ]
+    if expansion.skipped:  # the per-map runs see only files, so report what the walk left out here
+        skipped = tuple(not_followed_findings(expansion.skipped))
+        reports.append(Report(__version__, "", fail_on, (), skipped))
     return merged(reports, fail_on)
 
 
@@ -91,10 +105,12 @@ def split_safe_groups(files: Sequence[str], governance: Governance) -> list[Chec
     return list(groups.values())
 
 
-def check_groups(groups: Sequence[CheckGroup], fail_on: Severity) -> list[tuple[CheckGroup, Report]]:
+def check_groups(
+    groups: Sequence[CheckGroup], fail_on: Severity, limits: Limits | None = None
+) -> list[tuple[CheckGroup, Report]]:
     from linter.check import check_paths
 
-    return [(g, check_paths(list(g.files), list(g.contracts), fail_on)) for g in groups]
+    return [(g, check_paths(list(g.files), list(g.contracts), fail_on, limits)) for g in groups]
 
 
 def merged(reports: Sequence[Report], fail_on: Severity) -> Report:

@@ -27,7 +27,21 @@ def arguments(argv: Sequence[str] | None) -> argparse.Namespace:
     parser.add_argument("--fail-on", choices=[s.value for s in Severity], help="Lowest severity that fails.")
     parser.add_argument("--report-dir", help="Also write one JSON report per checked group here.")
     parser.add_argument("--verbose", "-v", action="store_true", help="Show every finding.")
-    return parser.parse_args(argv)
+    return parser.parse_args(files_last(list(sys.argv[1:] if argv is None else argv)))
+
+
+def files_last(argv: list[str]) -> list[str]:
+    """Move staged files whose names start with '-' behind `--`, so no file is read as an option.
+
+    pre-commit appends file names after the hook's own arguments without a `--`; a file named
+    `-chemistry.csv` would otherwise become `-c hemistry.csv`.
+    """
+    if "--" in argv:
+        return argv
+    dashed = [a for a in argv if a.startswith("-") and a != "-" and Path(a).is_file()]
+    if not dashed:
+        return argv
+    return [a for a in argv if a not in dashed] + ["--", *dashed]
 
 
 def check_contract_files(files: Sequence[str]) -> int:
@@ -64,7 +78,7 @@ def check_data_files(options: argparse.Namespace) -> int:
     fail_on = (
         Severity(options.fail_on) if options.fail_on else (settings.fail_on if settings else Severity.ERROR)
     )
-    checked = check_groups(split_safe_groups(options.files, governance), fail_on)
+    checked = check_groups(split_safe_groups(options.files, governance), fail_on, governance.limits)
     if options.report_dir:
         for group, report in checked:
             write_text_atomic(Path(options.report_dir) / report_name(group.name), json_report.render(report))

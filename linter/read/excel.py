@@ -25,6 +25,9 @@ ZERO_PADDED = re.compile(r"0+")
 """A number format of zeros only (`000`) shows 7 as 007: the provider sees the zeros."""
 
 
+SHEET_PART = re.compile(r"xl/(worksheets|chartsheets)/[^/]+\.xml")
+"""Where a workbook archive keeps each sheet's part (ECMA-376 Part 1 §12.3.24, §12.3.2)."""
+
 ARCHIVE_ERRORS = (zipfile.BadZipFile, NotImplementedError, EOFError, OSError, ValueError, KeyError)
 """What zipfile raises for a damaged archive (bad offsets even surface as OSError from seek)."""
 
@@ -48,6 +51,13 @@ def check_archive(path: str, limits: ReadLimits) -> int:
             members = archive.infolist()
     except ARCHIVE_ERRORS as error:
         raise corrupt(f"its ZIP archive is damaged ({type(error).__name__}: {error})") from None
+    sheets = sum(1 for m in members if SHEET_PART.fullmatch(m.filename))
+    if sheets > limits.max_sheets:
+        raise UnreadableFile(
+            "file.too-many-sheets",
+            f"The workbook holds {sheets:,} worksheets, more than the limit of {limits.max_sheets:,}.",
+            "Send one workbook per table, or only the sheets that hold the data.",
+        )
     total = sum(m.file_size for m in members)
     ratios = [m.file_size / max(m.compress_size, 1) for m in members if m.file_size > 1 << 20]
     if total > limits.max_uncompressed_bytes or any(r > limits.max_compression_ratio for r in ratios):

@@ -20,6 +20,9 @@ MAX_UNCOMPRESSED_BYTES = 1024 * 1024 * 1024
 """Declared inflated size of all members of a workbook archive; more is treated as a zip bomb."""
 MAX_COMPRESSION_RATIO = 200
 """Declared inflated/compressed size of one archive member; real workbooks stay far below."""
+MAX_SHEETS = 1_000
+"""Worksheets per workbook; a submission holds a few, so hundreds means a generated or hostile file."""
+# Common practice (no source): Excel itself caps sheets only by memory.
 FULL_WORKBOOK_BYTES = 64 * 1024 * 1024
 """Workbooks declaring more XML than this are streamed: bounded memory, but merged ranges and
 hidden rows/columns are then not seen (openpyxl's streaming mode does not expose them)."""
@@ -45,6 +48,8 @@ class ReadLimits:
     """Total declared size of a workbook's archive members (`file.zip-bomb`)."""
     max_compression_ratio: int = MAX_COMPRESSION_RATIO
     """Declared inflation ratio of any one archive member (`file.zip-bomb`)."""
+    max_sheets: int = MAX_SHEETS
+    """Most worksheets per workbook, counted in the archive before opening (`file.too-many-sheets`)."""
     full_workbook_bytes: int = FULL_WORKBOOK_BYTES
     """Above this declared size a workbook is streamed, without merged/hidden information."""
 

@@ -57,7 +57,10 @@ def _read_line(input_name: str, sheet: str | None) -> str:
         # Cells are read as pandas formats them; Weir's reader may write dates or
         # numbers differently, which the script then keeps as pandas wrote them.
         where = repr(sheet) if sheet is not None else "0"
-        return f"df = pd.read_excel(INPUT, sheet_name={where}, header=None, dtype=str, keep_default_na=False)"
+        return (
+            f"df = pd.read_excel(INPUT, sheet_name={where}, header=None, dtype=str, "
+            'engine="openpyxl", keep_default_na=False)'
+        )
     separator = ', sep="\\t"' if suffix == ".tsv" else ""
     return f"df = pd.read_csv(INPUT, header=None, dtype=str, keep_default_na=False{separator})"
 

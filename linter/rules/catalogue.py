@@ -1,6 +1,7 @@
 """Imports every rule family so that its rules and inspectors are registered."""
 
 from linter.rules import (  # noqa: F401
+    bounds,
     columns,
     comparisons,
     gate,

@@ -12,6 +12,7 @@ from linter.rules.layout_place import frame_letters, layout_finding, shown
 from linter.rules.layout_scale import name_runs, one_scale, sideways_by_ids
 from linter.rules.layout_signals import (
     YEAR,
+    GrowingStem,
     blank,
     dominant_kind,
     frame_of,
@@ -142,9 +143,9 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
     while i < len(labels):
         j = i + 1
         best = i
+        growing = GrowingStem(labels[i])
         while j < len(labels) and labels[j] not in taken:
-            stem = shared_stem(labels[i : j + 1])
-            if stem is None:
+            if growing.add(labels[j]) is None:
                 break
             best = j
             j += 1

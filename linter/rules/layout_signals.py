@@ -185,6 +185,81 @@ def shared_stem(labels: Sequence[str]) -> tuple[str, str] | None:
     return prefix, suffix
 
 
+def _common_prefix(a: str, b: str) -> str:
+    n = 0
+    for x, y in zip(a, b, strict=False):
+        if x != y:
+            break
+        n += 1
+    return a[:n]
+
+
+def _common_suffix(a: str, b: str) -> str:
+    n = 0
+    for x, y in zip(reversed(a), reversed(b), strict=False):
+        if x != y:
+            break
+        n += 1
+    return a[len(a) - n :]
+
+
+def _edge_digits_dropped(prefix: str, suffix: str) -> tuple[str, str]:
+    while prefix and prefix[-1].isdigit():
+        prefix = prefix[:-1]
+    while suffix and suffix[0].isdigit():
+        suffix = suffix[1:]
+    return prefix, suffix
+
+
+class GrowingStem:
+    """`shared_stem` of a run of labels kept up to date as labels are appended.
+
+    Recomputing `shared_stem` for every longer run is quadratic in the run's length (a header of
+    10,000 columns c0..c9999 took minutes); here each label costs its own length, plus a full
+    recount only the few times the shared prefix or suffix shrinks.
+    """
+
+    def __init__(self, first: str) -> None:
+        self.labels = [first]
+        self.raw_prefix = first
+        self.raw_suffix = ""
+        self.stem: tuple[str, str] = ("", "")
+        self.rests: set[str] = set()
+        self.valid = False
+
+    def _recount(self) -> None:
+        prefix, suffix = self.stem
+        rests = [label[len(prefix) : len(label) - len(suffix)] for label in self.labels]
+        self.rests = set(rests)
+        self.valid = (
+            bool(prefix or suffix)
+            and len(self.rests) == len(rests)
+            and all(r and any(c.isdigit() for c in r) for r in rests)
+        )
+
+    def add(self, label: str) -> tuple[str, str] | None:
+        """The shared stem once `label` joins the run (what `shared_stem` would say of the whole run)."""
+        self.labels.append(label)
+        prefix = _common_prefix(self.raw_prefix, label)
+        if prefix != self.raw_prefix or len(self.labels) == 2:
+            self.raw_prefix = prefix
+            suffix = self.labels[0][len(prefix) :]
+            for other in self.labels[1:]:
+                suffix = _common_suffix(suffix, other[len(prefix) :])
+            self.raw_suffix = suffix
+        else:
+            self.raw_suffix = _common_suffix(self.raw_suffix, label[len(prefix) :])
+        stem = _edge_digits_dropped(self.raw_prefix, self.raw_suffix)
+        if stem != self.stem or len(self.labels) == 2:
+            self.stem = stem
+            self._recount()
+        elif self.valid:
+            rest = label[len(stem[0]) : len(label) - len(stem[1])]
+            self.valid = rest not in self.rests and bool(rest) and any(c.isdigit() for c in rest)
+            self.rests.add(rest)
+        return self.stem if self.valid else None
+
+
 def slug(text: str) -> str:
     """A column name made from free text: lowercase words joined by underscores."""
     words = re.findall(r"[0-9A-Za-z]+", text.lower())

@@ -27,7 +27,7 @@ def submission(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Path:
     path = tmp_path / "vell_chemistry.csv"
     path.write_text("\n".join(",".join(c or "" for c in row) for row in CHEMISTRY) + "\n", encoding="utf-8")
 
-    def sample_check(paths: list[str], contracts: object, fail_on: object) -> Report:
+    def sample_check(paths: list[str], contracts: object, fail_on: object, limits: object = None) -> Report:
         assert paths == [str(path.name)]
         return chemistry_report()
 

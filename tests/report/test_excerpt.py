@@ -80,7 +80,7 @@ def test_pipeline_attaches_excerpts_with_the_contract_keys(
 ) -> None:
     frame = make_frame(CHEMISTRY)
     (tmp_path / frame.table.source).write_text("stand-in bytes for the hash")
-    monkeypatch.setattr(linter.check, "read_path", lambda path: [frame.table])
+    monkeypatch.setattr(linter.check, "read_path", lambda path, limits=None: [frame.table])
 
     def negative_results(subject: Subject) -> list[Finding]:
         return [
