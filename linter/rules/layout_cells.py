@@ -139,6 +139,21 @@ NUMBER_RUN = re.compile(r"(?<![\d.])-?\d+(?:\.\d+)?")
 TUPLE_SEPARATOR = re.compile(r"^(\s*[,;/|]\s*|\s*-\s*|\s+\(|%?\)|\s+)$")
 
 
+def _dates(texts: list[str]) -> bool:
+    """Every cell reads as year-month-day, day-month-year or month-day-year."""
+
+    def fits(a: str, b: str, c: str) -> bool:
+        x, y, z = int(a), int(b), int(c)
+        return (
+            (len(a) == 4 and 1 <= y <= 12 and 1 <= z <= 31)
+            or (len(c) in (2, 4) and 1 <= x <= 31 and 1 <= y <= 12)
+            or (len(c) in (2, 4) and 1 <= x <= 12 and 1 <= y <= 31)
+        )
+
+    parts = [NUMBER_RUN.findall(t) for t in texts]
+    return all(len(p) == 3 and all(q.isdigit() for q in p) and fits(*p) for p in parts)
+
+
 def _number_tuple(label: str, texts: list[str]) -> dict[str, object] | None:
     """Several numbers in one fixed frame on every row (`8-0-2`, `45 (12%)`, `54.5, -2.8`).
 
@@ -152,6 +167,8 @@ def _number_tuple(label: str, texts: list[str]) -> dict[str, object] | None:
     pieces = frame.split("#")
     if frame.count("#") < 2 or pieces[0] or any(is_date(t) for t in texts):
         return None
+    if frame.count("#") == 3 and pieces[1] == pieces[2] and pieces[1] in ("/", "-", ".") and _dates(texts):
+        return None  # 2012/01/01, 01.02.2024: a date however it is written
     if frame.count("#") == 2 and pieces[1].strip() in ("-", "–", "/"):
         return None  # two numbers by a dash or slash: the range and pair rules judge those
     if not all(TUPLE_SEPARATOR.match(p) for p in pieces[1:-1]) or pieces[-1] not in ("", "%", "%)", ")"):

@@ -20,7 +20,7 @@ from linter.table import Table
 REPEATED_HEADER = define_rule(
     "layout.repeated-header-rows",
     "Header row repeated inside the data",
-    Severity.ERROR,
+    Severity.WARNING,
     """
     Finds body rows that repeat the header cell for cell, as paged web tables and printed
     reports do at every page break. Read as data, each copy is a bogus observation and turns

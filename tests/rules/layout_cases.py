@@ -294,6 +294,9 @@ PASSING: dict[str, str] = {
     # Common practice (no source): a row that starts with `All` but does not add up is data.
     "all-saints-is-a-name": "parish,households,visits\nKell,120,14\nAll Saints,95,11\nOrrin,60,7\n",
     # Common practice (no source): clock times and decimals are single values, not number tuples.
+    # Common practice (no source): dates written with slashes or dots are single values.
+    "slash-dates": "day,rain_mm\n2012/01/01,0.0\n2012/01/02,10.9\n2012/01/03,0.8\n",
+    "dotted-dates": "day,rain_mm\n01.02.2024,0.0\n02.02.2024,10.9\n03.02.2024,0.8\n",
     "clock-times": "bus,departs,fare\nR1,09:30,1.20\nR7,10:15,1.50\nR9,11:45,2.25\n",
     # Common practice (no source): a row sharing some header words is data, not a header copy.
     "row-like-header-in-part": "name,role,team\nPat,role,team A\nJo,coach,team B\nAl,captain,team C\n",
