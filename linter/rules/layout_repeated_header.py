@@ -61,23 +61,29 @@ RULE_LINES = define_rule(
         VB-014,7.1
     """,
 )
+RULE_STARTS = ("-", "=", ":", "+")
 RULE_CELL = re.compile(r"^\s*:?[-=]{3,}:?\s*$|^\s*\+?([-=]{3,}\+)+\s*$")
 
 
-def _texts(grid: pd.DataFrame) -> pd.DataFrame:
-    """Every cell stripped, empty cells as '' (vectorised: these rules look at every row)."""
-    return grid.astype(object).where(grid.notna(), "").astype(str).apply(lambda c: c.str.strip())
+def _column_text(grid: pd.DataFrame, index: int) -> pd.Series:
+    column = grid.iloc[:, index]
+    return column.astype(object).where(column.notna(), "").astype(str).str.strip()
 
 
 def find_rule_lines(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
-    if grid.size == 0:
+    if grid.shape[0] == 0 or grid.shape[1] < 2:
         return []
-    texts = _texts(grid)
-    ruled = texts.apply(lambda c: c.str.match(RULE_CELL.pattern)).to_numpy(dtype=bool)
-    filled = (texts != "").to_numpy()
-    hits = ((ruled | ~filled).all(axis=1)) & (filled.sum(axis=1) >= 2)
-    lines = [int(i) for i in np.flatnonzero(hits)]
+    # A ruled line is ruled (or blank) in its first two columns, so only those are scanned on
+    # every row; the few rows that pass are read in full.
+    heads = [_column_text(grid, j) for j in (0, 1)]
+    ruled = [h.str.startswith(RULE_STARTS) | (h == "") for h in heads]
+    candidates = np.flatnonzero((ruled[0] & ruled[1] & ((heads[0] != "") | (heads[1] != ""))).to_numpy())
+    lines = []
+    for i in candidates.tolist():
+        cells = [str(v) for v in grid.iloc[i].tolist() if not blank(v)]
+        if len(cells) >= 2 and all(RULE_CELL.match(c) for c in cells):
+            lines.append(int(i))
     if not lines:
         return []
     rows = [table.row_numbers[i] for i in lines]
@@ -111,8 +117,8 @@ def find_repeated_header(table: Table, contract: TableContract | None = None) ->
     header = _cells(grid.iloc[0].tolist())
     if sum(bool(c) for c in header) < 2:
         return []
-    same = (_texts(grid).to_numpy() == np.asarray(header, dtype=object)).all(axis=1)
-    copies = [int(i) for i in np.flatnonzero(same) if i > 0]
+    candidates = np.flatnonzero((_column_text(grid, 0) == header[0]).to_numpy())
+    copies = [int(i) for i in candidates.tolist() if i > 0 and _cells(grid.iloc[i].tolist()) == header]
     if not copies:
         return []
     rows = [table.row_numbers[i] for i in copies]
