@@ -81,6 +81,10 @@ def _texts(frame: Frame, label: str) -> list[str]:
     return [str(v) for v in sample(frame.body[label]) if not blank(v)]
 
 
+def _letter(token: str) -> bool:
+    return len(token) == 1 and token.isalpha()
+
+
 def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
     if any(header_value_kind(t) == "date" for t in texts[:50]):
         return None  # "2025 Oct" is a month, not 2025 of a unit called Oct
@@ -93,7 +97,8 @@ def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
     # vary like measurements and every token is longer than one letter.
     tokens = {m.group(2) for m in hits}
     numbers = {m.group(1) for m in hits}
-    known = len(numbers) >= 2 and all(is_unit(t) for t in tokens)
+    # A one-letter unit (C, A, S) is also a class or grade letter: it needs numbers that vary.
+    known = all(is_unit(t) for t in tokens) and (len(numbers) >= 2 or all(not _letter(t) for t in tokens))
     measured = len(numbers) >= max(2, UNIT_VARIETY * len(hits)) and all(len(t) > 1 for t in tokens)
     if not (known or measured):
         return None

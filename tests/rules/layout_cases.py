@@ -9,6 +9,13 @@ common practice in survey and monitoring spreadsheets (no source).
 from __future__ import annotations
 
 FAILING: dict[str, tuple[str, str, str]] = {
+    # Source: SI Brochure 9th ed. table 4 (mg/L as a quotient unit): one value with its unit on
+    # every row is still a value and a unit, even when the value never changes.
+    "constant-value-unit": (
+        "site,year,result\nVB-001,1990,0.1 mg/L\nVB-001,1991,0.1 mg/L\nVB-002,1990,0.1 mg/L\n",
+        "layout.packed-column",
+        "split_column",
+    ),
     # Common practice (no source): ditto marks in a hand-kept timetable mean "same as above".
     "ditto-marks": (
         'bus,stop,departs\n12,Quay End,07:10\n"""",Mill Yard,07:18\n"""",Corran St,07:25\n'
@@ -314,4 +321,6 @@ PASSING: dict[str, str] = {
     "dash-missing-marks": "site,ph,temp_c\nVB-014,-,11.2\nVB-021,6.8,-\nVB-033,7.0,10.1\n",
     # Common practice (no source): a status that says "same" is a value, not a ditto mark.
     "status-same": "site,visit,change\nVB-014,1,new\nVB-014,2,same\nVB-015,1,new\nVB-015,2,same\n",
+    # Common practice (no source): one class `10C` throughout: C is a class letter, not coulomb.
+    "one-class-letter": "pupil,class,mark\nP-01,10C,64\nP-02,10C,71\nP-03,10C,58\n",
 }
