@@ -33,7 +33,8 @@ def one_scale(frame: Frame, labels: list[str]) -> bool:
     whole = {bool((c == c.round()).all()) for c in columns}
     if len(whole) > 1:
         return False
-    ranges = [(float(c.min()), float(c.max())) for c in columns]
+    # A column that never varies (one reading repeated) says nothing about its spread.
+    ranges = [(float(c.min()), float(c.max())) for c in columns if c.max() > c.min()]
     return all(a_lo <= b_hi and b_lo <= a_hi for (a_lo, a_hi), (b_lo, b_hi) in combinations(ranges, 2))
 
 

@@ -110,3 +110,9 @@ def test_index_name_row_is_a_header_not_a_section() -> None:
     assert [f.rule for f in find_section_titles(read_path("s.csv")[0])] == ["layout.section-titles"]
     Path("i.csv").write_text(",ph,nitrate\nsite,,\nVB-014,7.1,4.1\nVB-021,6.8,5.6\nVB-033,7.4,2.2\n")
     assert find_section_titles(read_path("i.csv")[0]) == []
+
+
+def test_constant_columns_do_not_count_against_one_scale() -> None:
+    # Common practice (no source): the same reading repeated down a column has no spread to compare.
+    frame = _frame({"VB-001": ["0.1", "0.1", "0.1"], "VB-002": ["0.1", "0.1", "0.1"], "VB-003": ["0.2"] * 3})
+    assert one_scale(frame, ["VB-001", "VB-002", "VB-003"])
