@@ -63,7 +63,7 @@ def main() -> None:
         read_s, tables = timed("baseline: Weir reader (read_path)", lambda: read_path(str(path)))
         table = tables[0]
         detect_s, found = timed(
-            "layout inference: all 12 detectors",
+            f"layout inference: all {len(layout_detectors())} detectors",
             lambda: [f for d in layout_detectors() for f in d(table, None)],
         )
         print(f"layout findings on the tidy file: {len(found)}")

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Any
 
@@ -166,11 +167,25 @@ def _as_number(text: str) -> float | None:
     return number if math.isfinite(number) else None
 
 
+def _sums(texts: np.ndarray, cells: list[int], counted: Callable[[int], bool]) -> tuple[float, bool]:
+    total, seen = 0.0, False
+    for cell in cells:
+        number = _as_number(texts[cell]) if texts[cell] is not None and counted(cell) else None
+        if number is not None:
+            total, seen = total + number, True
+    return total, seen
+
+
 def _total_mismatches(
     reshaped: Reshaped, texts: np.ndarray, best: np.ndarray, totals: set[int]
 ) -> dict[int, str]:
-    """Total-row cells the data does not recompute: id -> why. A total is the sum of the kept
-    values above it in its column, down to the previous total (so subtotals work too)."""
+    """Total cells the data does not recompute: id -> why.
+
+    A total row cell is the sum of the kept values above it in its column, down to the previous
+    total (so subtotals work too). A total column cell is the sum of the kept values to its left
+    in its row. The grand total where a total row meets a total column is the sum of the
+    totals above it or to its left. Every check is exact arithmetic on the provider's numbers.
+    """
     why: dict[int, str] = {}
     for which, table in enumerate(reshaped.index.tables):
         base = reshaped.index.offsets[which]
@@ -189,6 +204,20 @@ def _total_mismatches(
                 elif number is not None and best[cell] == 0:
                     running += number
                     seen = True
+        for cell in [c for c in why if base <= c < base + n_rows * n_cols]:
+            row, col = divmod(cell - base, n_cols)
+            number = _as_number(str(texts[cell]))
+            left = [base + row * n_cols + j for j in range(col)]
+            above = [base + i * n_cols + col for i in range(row)]
+            for cells, counted in (
+                (left, lambda c: best[c] == 0 and c not in totals),
+                (left, lambda c: c in totals and c not in why),
+                (above, lambda c: c in totals and c not in why),
+            ):
+                total, seen = _sums(texts, cells, counted)
+                if number is not None and seen and math.isclose(number, total, rel_tol=1e-9):
+                    del why[cell]
+                    break
     return why
 
 

@@ -16,7 +16,7 @@ from linter.table import column_letter, unique_labels
 LETTER = re.compile(r"^[A-Z]{1,3}$")
 """Raw-grid columns are labelled by spreadsheet letter; any other label was named by a step."""
 
-DropReason = Literal["blank", "notes", "total", "title"]
+DropReason = Literal["blank", "notes", "total", "title", "header", "rule"]
 
 
 def _codes(frame: pd.DataFrame) -> tuple[int, ...]:
@@ -59,7 +59,7 @@ class DropColumns(StepParams):
 
     step = "drop_columns"
     columns: tuple[str, ...]
-    reason: Literal["blank", "notes", "total"]
+    reason: Literal["blank", "notes", "total", "index"]
 
 
 def _drop_columns_code(p: DropColumns) -> list[str]:

@@ -71,18 +71,26 @@ def layout_detectors() -> list[Detector]:
         layout_groups,
         layout_header_rows,
         layout_headers,
+        layout_index,
         layout_margins,
+        layout_repeated_header,
         layout_rows,
+        layout_totals,
     )
 
     return [
         layout_margins.find_blank_rows_columns,
         layout_margins.find_totals_and_notes,
+        layout_index.find_index_column,
+        layout_repeated_header.find_repeated_header,
+        layout_repeated_header.find_rule_lines,
+        layout_totals.find_recomputed_totals,
         layout_header_rows.find_multi_row_header,
         layout_header_rows.find_no_header,
         layout_rows.find_transposed,
         layout_groups.find_section_titles,
         layout_groups.find_same_as_above,
+        layout_groups.find_ditto_marks,
         layout_headers.find_repeated_groups,
         layout_headers.find_values_in_headers,
         layout_cells.find_packed_column,
@@ -128,12 +136,16 @@ def _ordered(steps: Sequence[Step], new: Step) -> tuple[Step, ...]:
     return (*grid, new, *header, *rest)
 
 
-MARGIN_STEPS = frozenset({"drop_rows", "drop_columns"})
+MARGIN_STEPS = frozenset({"drop_rows", "drop_columns", "lift_titles"})
+"""Steps about rows and columns that are not observations: they go first, before any reshaping."""
 Move = list[Step]
 
 
 def _proposals(
-    table: Table, contract: TableContract | None, derived: frozenset[str], columns: Sequence[str]
+    table: Table,
+    contract: TableContract | None,
+    derived: frozenset[str],
+    parts: frozenset[str] = frozenset(),
 ) -> tuple[list[Move], list[str]]:
     """Next moves (one or more steps) the detectors propose for `table`, and the rule ids they report."""
     steps: list[Step] = []
@@ -146,6 +158,8 @@ def _proposals(
     margins: list[Step] = []
     for detect in layout_detectors():
         for finding in detect(table, contract):
+            if finding.step and finding.step["step"] == "gather" and set(finding.place.columns) <= parts:
+                continue  # the parts of a split are different variables by construction
             rules.append(finding.rule)
             if finding.step is None:
                 continue
@@ -211,7 +225,8 @@ def _evaluate(
         max(header_rows) if header_rows and _grid_only(steps) else None,
     )
     derived = frozenset(d for d in derived if d in output.columns)
-    proposals, remaining = _proposals(view, contract, derived, list(output.columns))
+    parts = frozenset(str(c) for s in steps if s["step"] == "split_column" for c in s["into"])
+    proposals, remaining = _proposals(view, contract, derived, parts)
     lossless = audit(table, result).lossless
     candidate = Candidate(steps, output, tidiness(output, contract), lossless, tuple(remaining), derived)
     return candidate, proposals

@@ -24,23 +24,35 @@ class FillDown(StepParams):
 
     step = "fill_down"
     columns: tuple[str, ...]
+    marks: tuple[str, ...] = ()
+    """Cell texts that also mean "same as above" (ditto marks such as `"`); the audit lists
+    each one as dropped with the reason `ditto`, since the value above now stands in its place."""
 
 
 def _fill_down_code(p: FillDown) -> list[str]:
-    return [f"df[{list(p.columns)!r}] = df[{list(p.columns)!r}].ffill().astype(object)"]
+    lines = (
+        [f"df[{list(p.columns)!r}] = df[{list(p.columns)!r}].replace({list(p.marks)!r}, None)"]
+        if p.marks
+        else []
+    )
+    return [*lines, f"df[{list(p.columns)!r}] = df[{list(p.columns)!r}].ffill().astype(object)"]
 
 
 @register_sheet_step(FillDown, grid_level=False, code=_fill_down_code)
 def fill_down(p: FillDown, sheet: Sheet) -> Outcome:
     need_columns(sheet, p.columns)
     cells, origin = sheet.cells.copy(), sheet.origin.copy()
+    dittos: list[int] = []
     for column in p.columns:
-        blank = is_empty(cells[column])
+        marked = cells[column].map(lambda v: v is not None and str(v).strip() in p.marks).astype(bool)
+        dittos += [int(c) for c in origin[column][marked].tolist() if c >= 0]
+        blank = is_empty(cells[column]) | marked
         filled = cells[column].where(~blank).ffill()
         codes = origin[column].where(~blank).ffill()
         cells[column] = filled.where(filled.notna(), None).astype(object)
         origin[column] = codes.where(codes.notna(), origin[column]).astype(np.int64)
-    return Outcome(sheet.with_frames(cells, origin, sheet.rows))
+    dropped = ((tuple(dittos), "ditto"),) if dittos else ()
+    return Outcome(sheet.with_frames(cells, origin, sheet.rows), dropped)
 
 
 @dataclass(frozen=True)

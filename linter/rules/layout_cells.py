@@ -10,7 +10,17 @@ from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import layout_finding
-from linter.rules.layout_signals import blank, cell_kind, frame_of, header_value_kind, sample, slug
+from linter.rules.layout_signals import (
+    YEAR,
+    blank,
+    cell_kind,
+    frame_of,
+    header_value_kind,
+    is_date,
+    sample,
+    slug,
+)
+from linter.rules.layout_units import is_unit
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import Frame, Table
@@ -60,12 +70,19 @@ VALUE_UNIT = re.compile(rf"^\s*({NUM})\s*([A-Za-zµμ°%][A-Za-z0-9µμ°%/.²³
 RANGE_CELL = re.compile(r"^\s*(-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(-?\d+(?:\.\d+)?)\s*$")
 YEAR_MONTH = re.compile(r"^\d{4}-\d{2}$")
 SEPARATORS = ("/", "|", "_", ":", " - ")
-LIST_SEPARATORS = (";", "|", ",")
+LIST_SEPARATORS = (";", "|", ",", " / ")
+ONE_WORD = re.compile(r"^[A-Za-z][A-Za-z'-]{0,19}$")
 MATCH_SHARE = 0.9
+UNIT_VARIETY = 0.3
+"""Share of distinct numbers that marks a column of measurements (class codes repeat a few)."""
 
 
 def _texts(frame: Frame, label: str) -> list[str]:
     return [str(v) for v in sample(frame.body[label]) if not blank(v)]
+
+
+def _letter(token: str) -> bool:
+    return len(token) == 1 and token.isalpha()
 
 
 def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
@@ -74,6 +91,16 @@ def _value_unit(label: str, texts: list[str]) -> dict[str, object] | None:
     matches = [VALUE_UNIT.match(t) for t in texts]
     hits = [m for m in matches if m]
     if len(hits) < MATCH_SHARE * len(texts) or len(hits) < 2:
+        return None
+    # A number glued to a letter is also how class codes (`10B`) and grid squares are written.
+    # Accept it as value and unit only when the tokens are known units, or when the numbers
+    # vary like measurements and every token is longer than one letter.
+    tokens = {m.group(2) for m in hits}
+    numbers = {m.group(1) for m in hits}
+    # A one-letter unit (C, A, S) is also a class or grade letter: it needs numbers that vary.
+    known = all(is_unit(t) for t in tokens) and (len(numbers) >= 2 or all(not _letter(t) for t in tokens))
+    measured = len(numbers) >= max(2, UNIT_VARIETY * len(hits)) and all(len(t) > 1 for t in tokens)
+    if not (known or measured):
         return None
     name = slug(label)
     pattern = rf"^\s*(?P<{name}>{NUM})\s*(?P<{name}_unit>\S.*?)\s*$"
@@ -86,9 +113,19 @@ def _range(label: str, texts: list[str]) -> dict[str, object] | None:
     hits = [RANGE_CELL.match(t) for t in texts]
     if sum(bool(h) for h in hits) < MATCH_SHARE * len(texts) or len(texts) < 2:
         return None
+    matched = [h for h in hits if h]
+    ends = [(float(h.group(1)), float(h.group(2))) for h in matched]
+    if all(
+        YEAR.match(h[1]) and YEAR.match(h[2]) and high - low == 1
+        for h, (low, high) in zip(matched, ends, strict=True)
+    ):
+        return None  # `2019-2020` is one season or school year, a single value
     name = slug(label)
-    pattern = rf"^\s*(?P<{name}_from>-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(?P<{name}_to>-?\d+(?:\.\d+)?)\s*$"
-    return {"pattern": pattern, "into": [f"{name}_from", f"{name}_to"], "kind": "range"}
+    # Only `from < to` on every row makes a range; otherwise two counts joined by a dash (`3-1`).
+    ordered = all(low < high for low, high in ends)
+    into = [f"{name}_from", f"{name}_to"] if ordered else [f"{name}_1", f"{name}_2"]
+    pattern = rf"^\s*(?P<{into[0]}>-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(?P<{into[1]}>-?\d+(?:\.\d+)?)\s*$"
+    return {"pattern": pattern, "into": into, "kind": "range" if ordered else "two numbers"}
 
 
 NUMBER_PAIR = re.compile(r"^\s*\d+(?:\.\d+)?\s*/\s*\d+(?:\.\d+)?\s*$")
@@ -103,8 +140,61 @@ def _number_pair(label: str, texts: list[str]) -> dict[str, object] | None:
     return {"pattern": pattern, "into": [f"{name}_1", f"{name}_2"], "kind": "two numbers"}
 
 
+NUMBER_RUN = re.compile(r"(?<![\d.])-?\d+(?:\.\d+)?")
+TUPLE_SEPARATOR = re.compile(r"^(\s*[,;/|]\s*|\s*-\s*|\s+\(|%?\)|\s+)$")
+
+
+def _dates(texts: list[str]) -> bool:
+    """Every cell reads as year-month-day, day-month-year or month-day-year."""
+
+    def fits(a: str, b: str, c: str) -> bool:
+        x, y, z = int(a), int(b), int(c)
+        return (
+            (len(a) == 4 and 1 <= y <= 12 and 1 <= z <= 31)
+            or (len(c) in (2, 4) and 1 <= x <= 31 and 1 <= y <= 12)
+            or (len(c) in (2, 4) and 1 <= x <= 12 and 1 <= y <= 31)
+        )
+
+    parts = [NUMBER_RUN.findall(t) for t in texts]
+    return all(len(p) == 3 and all(q.isdigit() for q in p) and fits(*p) for p in parts)
+
+
+def _number_tuple(label: str, texts: list[str]) -> dict[str, object] | None:
+    """Several numbers in one fixed frame on every row (`8-0-2`, `45 (12%)`, `54.5, -2.8`).
+
+    Dates, times and decimals are left alone: the frame must be the same on every row, hold
+    only list-like separators or a bracketed share, and the cells must not read as dates.
+    """
+    frames = {NUMBER_RUN.sub("#", t.strip()) for t in texts}
+    if len(frames) != 1 or len(texts) < 2:
+        return None
+    frame = next(iter(frames))
+    pieces = frame.split("#")
+    if frame.count("#") < 2 or pieces[0] or any(is_date(t) for t in texts):
+        return None
+    if frame.count("#") == 3 and pieces[1] == pieces[2] and pieces[1] in ("/", "-", ".") and _dates(texts):
+        return None  # 2012/01/01, 01.02.2024: a date however it is written
+    if frame.count("#") == 2 and pieces[1].strip() in ("-", "–", "/"):
+        return None  # two numbers by a dash or slash: the range and pair rules judge those
+    if not all(TUPLE_SEPARATOR.match(p) for p in pieces[1:-1]) or pieces[-1] not in ("", "%", "%)", ")"):
+        return None
+    name = slug(label)
+    into = [f"{name}_{i}" for i in range(1, frame.count("#") + 1)]
+    pattern = (
+        "^"
+        + "".join(
+            re.escape(p) + (f"(?P<{into[i]}>-?\\d+(?:\\.\\d+)?)" if i < len(into) else "")
+            for i, p in enumerate(pieces)
+        )
+        + "$"
+    )
+    return {"pattern": pattern.replace("\\\\", "\\"), "into": into, "kind": "several numbers"}
+
+
 def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
     """Two codes joined by one separator whose parts cross like two variables (m/014, f/014, ...)."""
+    if all(is_unit(t) for t in set(texts)):
+        return None  # `mg/L` is one unit, not the codes `mg` and `L`
     for sep in SEPARATORS:
         parts = [t.split(sep) for t in texts]
         if not all(len(p) == 2 and p[0].strip() and p[1].strip() for p in parts):
@@ -135,6 +225,7 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
             _value_unit(label, texts)
             or _range(label, texts)
             or _number_pair(label, texts)
+            or _number_tuple(label, texts)
             or _crossed_codes(label, texts)
         )
         if found is None:
@@ -166,6 +257,36 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
     return findings
 
 
+def _items_recur(texts: list[str], sep: str, items: list[str]) -> bool:
+    """Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
+    the parts of "Surname, Given" always come together in the same one cell."""
+    if len(set(items)) > 0.8 * len(items):
+        return False
+    cells_of: dict[str, set[str]] = {}
+    for text in set(texts):
+        for item in text.split(sep):
+            cells_of.setdefault(item.strip(), set()).add(text)
+    multi = [t for t in set(texts) if sep in t]
+    shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
+    return len(shared) >= 0.5 * len(multi)
+
+
+def _one_word_items(sizes: Counter[int], items: list[str]) -> bool:
+    """On a table too small for items to recur: every item one word (`billing`, `gluten`), and
+    some cells hold a single item while others hold several. Free text splits into phrases."""
+    return sizes[1] > 0 and all(_one_word_or_list(item) for item in items)
+
+
+def _one_word_or_list(item: str) -> bool:
+    """One word, or a list of one-word items under another separator (`red, green; blue`)."""
+    if ONE_WORD.match(item):
+        return True
+    return any(
+        sep in item and all(ONE_WORD.match(part.strip()) for part in item.split(sep))
+        for sep in LIST_SEPARATORS
+    )
+
+
 def find_list_cells(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = frame_of(table)
     findings: list[Finding] = []
@@ -181,18 +302,9 @@ def find_list_cells(table: Table, contract: TableContract | None = None) -> list
             if any(not item or len(item) > 40 or len(item.split()) > 4 for item in items):
                 continue
             sizes = Counter(len(t.split(sep)) for t in texts)
-            vocabulary = set(items)
-            if len(sizes) < 2 or len(vocabulary) > 0.8 * len(items):
+            if len(sizes) < 2:
                 continue
-            # Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
-            # the parts of "Surname, Given" always come together in the same one cell.
-            cells_of: dict[str, set[str]] = {}
-            for text in set(texts):
-                for item in text.split(sep):
-                    cells_of.setdefault(item.strip(), set()).add(text)
-            multi = [t for t in set(texts) if sep in t]
-            shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
-            if len(shared) < 0.5 * len(multi):
+            if not (_items_recur(texts, sep, items) or _one_word_items(sizes, items)):
                 continue
             findings.append(
                 layout_finding(

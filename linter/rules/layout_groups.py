@@ -10,9 +10,10 @@ import pandas as pd
 
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
+from linter.rules.layout_header_rows import index_name_row
 from linter.rules.layout_margins import NOTE_LABEL, TOTAL_LABEL, below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
-from linter.rules.layout_signals import blank, dominant_kind, filled_mask, frame_of, row_fill, sample
+from linter.rules.layout_signals import YEAR, blank, dominant_kind, filled_mask, frame_of, row_fill, sample
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 from linter.table import Table
@@ -72,6 +73,8 @@ def find_section_titles(table: Table, contract: TableContract | None = None) -> 
         return []
     last = int(wide[-1])
     lone = [int(i) for i in np.flatnonzero((counts == 1) & (first_cell == 0)) if 0 < i < last]
+    if index_name_row(grid):
+        return []  # the lone row under a blank header cell names column A (a header row)
     titles = [
         i
         for i in lone
@@ -125,8 +128,10 @@ def find_same_as_above(table: Table, contract: TableContract | None = None) -> l
         if not present[0] or empties < len(present) / 4 or present.sum() < 2:
             continue
         values = body[label][present]
-        if dominant_kind(sample(values))[0] == "number":
-            break
+        if dominant_kind(sample(values))[0] == "number" and not all(
+            YEAR.match(str(v).strip()) for v in values
+        ):
+            break  # measurements start here; a year written once per group is still a label
         if body[[*frame.labels[:position], label]][present].duplicated().any():
             continue  # a label written once per group appears once within its enclosing group
         empty_rows = [int(i) for i in np.flatnonzero(~present)]
@@ -154,6 +159,58 @@ def find_same_as_above(table: Table, contract: TableContract | None = None) -> l
             examples=examples,
         )
     ]
+
+
+DITTO_MARKS = ('"', "''", "〃", "ditto", "do.")
+"""Common practice (no source): the marks hand-kept ledgers write for "same as above"."""
+
+
+def find_ditto_marks(table: Table, contract: TableContract | None = None) -> list[Finding]:
+    frame = frame_of(table)
+    body = frame.body
+    if len(body) < 3:
+        return []
+    chosen: list[str] = []
+    count = 0
+    for label in frame.labels:
+        texts = [None if blank(v) else str(v).strip() for v in sample(body[label])]
+        marked = [t is not None and t.lower() in DITTO_MARKS for t in texts]
+        if not any(marked) or marked[0] or sum(marked) < len(texts) / 4:
+            continue
+        if any(
+            t is not None and not m and t.lower() in DITTO_MARKS for t, m in zip(texts, marked, strict=True)
+        ):
+            continue
+        chosen.append(label)
+        count += sum(marked)
+    if not chosen:
+        return []
+    marks = sorted(
+        {
+            str(v).strip()
+            for c in chosen
+            for v in body[c]
+            if not blank(v) and str(v).strip().lower() in DITTO_MARKS
+        }
+    )
+    return [
+        layout_finding(
+            SAME_AS_ABOVE,
+            table,
+            f"The column(s) {shown(chosen)} write {shown(marks)} in {count} cell(s) for 'same as above'.",
+            "Repeat the value in every row instead of the ditto mark.",
+            {"step": "fill_down", "columns": chosen, "marks": marks},
+            columns=chosen,
+            letters=frame_letters(frame, chosen),
+            count=count,
+            examples=marks,
+        )
+    ]
+
+
+@inspector()
+def ditto_marks(subject: Subject) -> Iterable[Finding]:
+    return find_ditto_marks(below_titles(subject.table), subject.contract)
 
 
 @inspector()

@@ -5,6 +5,8 @@ from __future__ import annotations
 import re
 from collections.abc import Iterable
 
+import pandas as pd
+
 from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_place import grid_letters, layout_finding
@@ -64,6 +66,17 @@ NO_HEADER = define_rule(
 )
 
 
+def index_name_row(grid: pd.DataFrame) -> bool:
+    """Header blank over column A only, and the next row filled in column A only: the name of
+    column A printed below the header, as a dataframe with a named index prints itself."""
+    top, second = grid.iloc[0].tolist(), grid.iloc[1].tolist()
+    if not blank(top[0]) or any(blank(v) for v in top[1:]) or blank(second[0]):
+        return False
+    if any(not blank(v) for v in second[1:]) or cell_kind(second[0]) != "text":
+        return False
+    return all(not blank(v) for v in grid.iloc[2:, 0].tolist())
+
+
 def find_multi_row_header(table: Table, contract: TableContract | None = None) -> list[Finding]:
     grid = table.grid
     if grid.shape[0] < 3 or grid.shape[1] < 3:
@@ -72,6 +85,21 @@ def find_multi_row_header(table: Table, contract: TableContract | None = None) -
     filled_top = [i for i, v in enumerate(top) if not blank(v)]
     if len(filled_top) < 2:
         return []
+    if index_name_row(grid):
+        rows = list(table.row_numbers[:2])
+        return [
+            layout_finding(
+                MULTI_ROW_HEADER,
+                table,
+                f"Row {rows[1]} holds only '{str(second[0]).strip()}', the name of column A, whose "
+                f"header cell in row {rows[0]} is blank (a dataframe index name printed on its own row).",
+                "Write one header row: put the column A name into the header.",
+                {"step": "header", "rows": rows, "joiner": " "},
+                rows=rows,
+                letters=("A",),
+                examples=[str(second[0]).strip()],
+            )
+        ]
     carried = [i for i in range(filled_top[0] + 1, len(top)) if blank(top[i]) and not blank(second[i])]
     second_labels = [str(v).strip() for v in second if not blank(v)]
     if len(second_labels) < 0.6 * grid.shape[1] or any(cell_kind(v) != "text" for v in second_labels):

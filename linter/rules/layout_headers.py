@@ -9,7 +9,9 @@ from linter.contract.model import TableContract, VarType
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
+from linter.rules.layout_scale import name_runs, one_scale, sideways_by_ids
 from linter.rules.layout_signals import (
+    YEAR,
     GrowingStem,
     blank,
     dominant_kind,
@@ -17,7 +19,6 @@ from linter.rules.layout_signals import (
     header_value_kind,
     sample,
     shared_stem,
-    sideways_by_names,
     slug,
 )
 from linter.rules.registry import define_rule, inspector
@@ -149,17 +150,26 @@ def _stem_runs(frame: Frame, taken: set[str]) -> list[tuple[list[str], str]]:
             best = j
             j += 1
         run = labels[i : best + 1]
-        if len(run) >= 3 and run[0] not in taken:
+        if len(run) >= _needed(run) and run[0] not in taken:
             stem = shared_stem(run)
             assert stem is not None
             rests = [label[len(stem[0]) : len(label) - len(stem[1])] for label in run]
             kinds = {_body_kind(frame, c) for c in run} - {"empty"}
-            if all(ID_RUN.match(r) for r in rests) and len(kinds) <= 1:
+            if all(ID_RUN.match(r) for r in rests) and len(kinds) <= 1 and one_scale(frame, run):
                 runs.append((run, slug(stem[0] + stem[1]) if (stem[0] + stem[1]).strip("_ ") else "item"))
             i = best + 1
         else:
             i += 1
     return runs
+
+
+def _needed(run: list[str]) -> int:
+    """Three numbered headers make a run; two suffice when the numbers are years, as bare years do."""
+    stem = shared_stem(run) if len(run) >= 2 else None
+    if stem is None:
+        return 3
+    rests = [label[len(stem[0]) : len(label) - len(stem[1])] for label in run]
+    return 2 if all(YEAR.match(r.strip("_ -")) for r in rests) else 3
 
 
 CODE_LABEL = re.compile(r"^([a-z]{1,2})(\d+)$")
@@ -194,9 +204,10 @@ def find_values_in_headers(table: Table, contract: TableContract | None = None) 
     grouped = {c for found in find_repeated_groups(table) for c in found.place.columns}
     runs = [(r, k) for r, k in _value_runs(frame, contract) if not set(r) & grouped]
     taken = grouped | {c for r, _ in runs for c in r}
-    if not sideways_by_names(table):  # ids across the top of a sideways table are observations
+    if not sideways_by_ids(table):  # ids across the top of a sideways table are observations
         runs += _code_runs(frame, taken)
         runs += _stem_runs(frame, taken | {c for r, _ in runs for c in r})
+        runs += name_runs(frame, taken | {c for r, _ in runs for c in r})
     findings: list[Finding] = []
     present = set(frame.labels)
     for run, kind in runs:
@@ -240,6 +251,11 @@ GROUP_ID_FIRST = re.compile(r"^(?P<stem>.*?\D)?(?P<id>\d+)(?P<sep>[ _.:-]+)(?P<m
 GROUP_ID_LAST = re.compile(r"^(?P<member>.*?[^\d\s_.-])(?P<sep>[ _.-]*)(?P<id>\d+)$")
 
 
+GROUP_WORD_LAST = re.compile(r"^(?P<member>.*?[^\s_.-])(?P<sep>[ _.-]+)(?P<id>[A-Za-z]+)$")
+WORD_IDS = ("month", "day", "quarter")
+"""Group ids written as words: `min_temp_jan, max_temp_jan, min_temp_feb, ...`."""
+
+
 def find_repeated_groups(table: Table, contract: TableContract | None = None) -> list[Finding]:
     frame = frame_of(table)
     shapes: dict[tuple[str, str, str], list[tuple[str, str, str]]] = {}
@@ -250,6 +266,9 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
             shapes.setdefault(key, []).append((label, first["id"], first["member"]))
         elif last:
             shapes.setdefault(("last", "", last["sep"]), []).append((label, last["id"], last["member"]))
+        elif (word := GROUP_WORD_LAST.match(label)) and header_value_kind(word["id"]) in WORD_IDS:
+            key = ("word", "", word["sep"])
+            shapes.setdefault(key, []).append((label, word["id"], word["member"]))
     findings: list[Finding] = []
     for (order, stem, sep), members in shapes.items():
         by_id: dict[str, set[str]] = {}
@@ -258,8 +277,14 @@ def find_repeated_groups(table: Table, contract: TableContract | None = None) ->
         sets = list(by_id.values())
         if len(by_id) < 2 or len(sets[0]) < 2 or any(s != sets[0] for s in sets):
             continue
+        if all(CODE_LABEL.match(label) for label, _, _ in members):
+            continue  # m014, f014: a short code crossed with a number is two values, not a group
         names_to = slug(stem) if stem.strip(" _.-") else "group"
-        if order == "first":
+        if order == "word":
+            names_to = str(header_value_kind(members[0][1]))
+            words = "|".join(re.escape(w) for w in sorted(by_id, key=len, reverse=True))
+            pattern = f"^(?P<member>.+?){re.escape(sep)}(?P<{names_to}>{words})$"
+        elif order == "first":
             pattern = f"^{re.escape(stem)}(?P<{names_to}>\\d+){re.escape(sep)}(?P<member>.+)$"
         else:
             pattern = f"^(?P<member>.+?){re.escape(sep)}(?P<{names_to}>\\d+)$"

@@ -11,13 +11,14 @@ from linter.contract.model import TableContract
 from linter.findings import Finding, Severity
 from linter.rules.layout_margins import below_titles
 from linter.rules.layout_place import frame_letters, layout_finding, shown
+from linter.rules.layout_scale import rows_differ_in_scale, sideways_by_ids
 from linter.rules.layout_signals import (
     blank,
     cell_kind,
     dominant_kind,
     frame_of,
+    names_across,
     sample,
-    sideways_by_names,
 )
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
@@ -184,7 +185,9 @@ def find_transposed(table: Table, contract: TableContract | None = None) -> list
     column_shares = [dominant_kind(grid.iloc[1:, j].tolist())[1] for j in range(1, grid.shape[1])]
     mixed = len(set(row_kinds) - {"empty"}) >= 2 and max(column_shares) < 0.85
     named = len(declared & {str(v) for v in firsts}) >= 2 and len(declared & set(map(str, grid.iloc[0]))) < 2
-    if not (mixed or named or sideways_by_names(table)):
+    by_ids = sideways_by_ids(table)
+    by_names = names_across(grid) and rows_differ_in_scale(grid)
+    if not (mixed or named or by_ids or by_names):
         return []
     return [
         layout_finding(

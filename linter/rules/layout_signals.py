@@ -13,6 +13,7 @@ import pandas as pd
 import pyarrow as pa
 import pyarrow.compute as pc
 
+from linter.rules.layout_levels import level_kind
 from linter.table import Frame, Table, first_row_header
 
 T = TypeVar("T")
@@ -89,7 +90,7 @@ def header_value_kind(label: str) -> str | None:
         return "number"
     if RANGE.match(text):
         return "range"
-    return None
+    return level_kind(text)
 
 
 def sample(values: Sequence[object] | pd.Series) -> list[object]:
@@ -321,3 +322,13 @@ def sideways_by_names(table: Table) -> bool:
     if digit_shapes and digit_shapes.most_common(1)[0][1] * 2 >= len(names):
         return False  # the first column holds identifiers (VB-014, VB-015), not variable names
     return all(dominant_kind(grid.iloc[i, 1:].tolist())[1] >= 0.9 for i in range(1, grid.shape[0]))
+
+
+def names_across(grid: pd.DataFrame) -> bool:
+    """The header after its first cell holds distinct plain words (player or store names), and the
+    first column distinct names without digits: the two sides of a possibly sideways table."""
+    heads = [str(v).strip() for v in grid.iloc[0, 1:].tolist() if not blank(v)]
+    names = [str(v).strip() for v in grid.iloc[1:, 0].tolist() if not blank(v)]
+    plain = all(NAME_LIKE.match(h) and not any(c.isdigit() for c in h) and not header_value_kind(h)
+                for h in [*heads, *names])  # fmt: skip
+    return plain and len(heads) == grid.shape[1] - 1 and len(set(heads)) == len(heads)

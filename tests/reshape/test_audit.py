@@ -106,6 +106,42 @@ def test_total_that_does_not_add_up_is_lost() -> None:
     assert "sum to 7" in result.lost[0].why
 
 
+# Common practice (no source): a pivot table's grand total column and row, as spreadsheet
+# pivot tables print them; each total must be recomputed from the kept numbers.
+PIVOT: Grid = [
+    ["district", "2022", "2023", "Grand Total"],
+    ["Kessel", "410", "455", "865"],
+    ["Brannoch", "220", "241", "461"],
+    ["Grand Total", "630", "696", "1326"],
+]
+PIVOT_DROPS = (
+    {"step": "drop_rows", "rows": [4], "reason": "total"},
+    {"step": "drop_columns", "columns": ["D"], "reason": "total"},
+)
+
+
+def test_total_column_and_grand_total_that_add_up_are_deliberate_drops() -> None:
+    result = audit_of(PIVOT, *PIVOT_DROPS)
+    assert result.lossless, lost_places(result)
+    assert {(c.row, c.letter) for c in result.dropped} >= {(2, "D"), (3, "D"), (4, "D"), (4, "B")}
+
+
+def test_total_column_that_does_not_add_up_is_lost() -> None:
+    grid = [row[:] for row in PIVOT]
+    grid[2][3] = "462"  # 220 + 241 = 461; the grand total 1326 no longer matches the column either
+    result = audit_of(grid, *PIVOT_DROPS)
+    assert (3, "D", "462") in lost_places(result)
+
+
+def test_ditto_marks_filled_down_are_listed_as_dropped() -> None:
+    # Common practice (no source): `"` under a value means the value above; once filled in, the
+    # mark itself is listed with the reason `ditto`, and nothing else goes.
+    grid: Grid = [["bus", "stop"], ["12", "Quay End"], ['"', "Mill Yard"], ["14", "Depot"]]
+    result = audit_of(grid, {"step": "fill_down", "columns": ["bus"], "marks": ['"']})
+    assert result.lossless, lost_places(result)
+    assert [(c.row, c.letter, c.why) for c in result.dropped] == [(3, "A", "ditto")]
+
+
 def test_split_counts_unmatched_cells_and_keeps_their_text() -> None:
     result = audit_of(
         [["result"], ["12 mg/L"], ["n.d."], ["<0.5 mg/L"]],

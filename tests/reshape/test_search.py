@@ -84,3 +84,36 @@ def test_tidiness_prefers_typed_columns_and_names_over_values() -> None:
     assert tidiness(long).score > tidiness(wide).score
     mixed = pd.DataFrame({"site": ["VB-014", "ph", "7.1"], "x": ["2025-03-02", "date", "6.8"]})
     assert tidiness(mixed).typed_columns < 1.0
+
+
+def test_parts_of_a_split_are_not_gathered_back() -> None:
+    # Common practice (no source): a won-drawn-lost record `8-0-2` splits into three counts,
+    # which are different variables even though their names differ only by a number.
+    from pathlib import Path
+
+    from linter.read import read_path
+    from linter.reshape.search import search
+
+    Path("league.csv").write_text(
+        "team,record,points\nDunmore,8-0-2,24\nKell,6-3-1,21\nArdle,5-3-2,18\n", encoding="utf-8"
+    )
+    best = search(read_path("league.csv")[0]).best
+    assert [s["step"] for s in best.steps] == ["split_column"]
+    assert best.output.shape == (3, 5)
+
+
+def test_section_titles_are_lifted_before_a_gather() -> None:
+    # Common practice (no source): section rows (`Urban`) inside a wide table of years label the
+    # rows below them; gathering first would turn each title into rows of empty values.
+    from pathlib import Path
+
+    from linter.read import read_path
+    from linter.reshape.search import search
+
+    Path("wide.csv").write_text(
+        "District,2021,2022\nUrban,,\nKessel,41,42\nOldfold,50,51\nRural,,\nBrannoch,22,23\nWenlow,9,8\n",
+        encoding="utf-8",
+    )
+    best = search(read_path("wide.csv")[0]).best
+    assert [s["step"] for s in best.steps] == ["lift_titles", "gather"]
+    assert len(best.output) == 8 and "section" in best.output.columns
