@@ -2,8 +2,11 @@
 
 from __future__ import annotations
 
+import shutil
 import socket
+from collections.abc import Iterator
 from pathlib import Path
+from typing import Any
 
 import pytest
 from hypothesis import settings
@@ -39,3 +42,37 @@ def _no_network(monkeypatch: pytest.MonkeyPatch) -> None:
 def repo() -> Path:
     """The project checkout (read-only for tests)."""
     return REPO
+
+
+CHROMIUM_FLAGS = [
+    "--headless",
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+    "--no-first-run",
+]
+"""Flags that let Debian's chromium start here without reaching for the network."""
+
+
+@pytest.fixture(scope="module")
+def browser(tmp_path_factory: pytest.TempPathFactory) -> Iterator[Any]:
+    """A real headless Chromium (Debian's) with a fresh profile, shared within a module (launch is slow)."""
+    executable = shutil.which("chromium")
+    if executable is None:
+        pytest.skip("BROWSER TESTS NOT RUN: Debian's chromium is not installed (apt-get install chromium)")
+    from playwright.sync_api import sync_playwright
+
+    with sync_playwright() as driver:
+        context = driver.chromium.launch_persistent_context(
+            str(tmp_path_factory.mktemp("chromium-profile")),
+            executable_path=executable,
+            headless=True,
+            args=CHROMIUM_FLAGS,
+            offline=True,
+        )
+        try:
+            yield context
+        finally:
+            context.close()

@@ -2,12 +2,10 @@
 
 from __future__ import annotations
 
-import shutil
-from collections.abc import Iterator
 from pathlib import Path
 
 import pytest
-from playwright.sync_api import BrowserContext, sync_playwright
+from playwright.sync_api import BrowserContext
 
 from linter.contract.load import load_contract
 from linter.dictionary import html
@@ -15,35 +13,6 @@ from linter.dictionary.facts import contract_facts
 
 pytestmark = pytest.mark.browser
 REPO = Path(__file__).resolve().parents[2]
-CHROMIUM_FLAGS = [
-    "--headless",
-    "--no-sandbox",
-    "--disable-gpu",
-    "--disable-background-networking",
-    "--disable-component-update",
-    "--disable-sync",
-    "--no-first-run",
-]
-
-
-@pytest.fixture(scope="module")
-def browser(tmp_path_factory: pytest.TempPathFactory) -> Iterator[BrowserContext]:
-    """Debian's chromium with a fresh profile, shared within the module (launching is slow)."""
-    executable = shutil.which("chromium")
-    if executable is None:
-        pytest.skip("BROWSER TESTS NOT RUN: Debian's chromium is not installed (apt-get install chromium)")
-    with sync_playwright() as driver:
-        context = driver.chromium.launch_persistent_context(
-            str(tmp_path_factory.mktemp("chromium-profile")),
-            executable_path=executable,
-            headless=True,
-            args=CHROMIUM_FLAGS,
-            offline=True,
-        )
-        try:
-            yield context
-        finally:
-            context.close()
 
 
 @pytest.mark.parametrize("name", ["sites", "stream-chemistry", "field-sheets", "volunteer-bundle"])
