@@ -7,6 +7,7 @@ killed mid-file can tell exactly which step to resume from.
 from __future__ import annotations
 
 import sqlite3
+import time
 from collections.abc import Sequence
 from dataclasses import dataclass, fields
 from datetime import UTC, datetime
@@ -185,6 +186,26 @@ def migrate(connection: sqlite3.Connection, upto: int = SCHEMA_VERSION) -> int:
 ENTRY_COLUMNS = tuple(f.name for f in fields(Entry))
 
 
+def switch_to_wal(connection: sqlite3.Connection, seconds: float = 30.0) -> None:
+    """Put the database in WAL mode, waiting while another gate does the same.
+
+    Changing the journal mode needs the database to itself, and SQLite answers "database is
+    locked" at once (without its busy handler) when another connection holds it, as when
+    several gates open a new ledger together; so the switch is retried for a while.
+    """
+    deadline = time.monotonic() + seconds
+    pause = 0.01
+    while True:
+        try:
+            connection.execute("PRAGMA journal_mode=WAL")
+            return
+        except sqlite3.OperationalError as error:
+            if "locked" not in str(error) or time.monotonic() > deadline:
+                raise
+            time.sleep(pause)
+            pause = min(pause * 2, 0.5)
+
+
 class SqliteLedger:
     """The ledger in one SQLite file (WAL mode, so `weir ledger` can read while a gate writes)."""
 
@@ -192,8 +213,8 @@ class SqliteLedger:
         path.parent.mkdir(parents=True, exist_ok=True)
         try:
             self.connection = sqlite3.connect(path, timeout=30, isolation_level=None)
-            self.connection.execute("PRAGMA journal_mode=WAL")
             self.connection.execute("PRAGMA busy_timeout=30000")
+            switch_to_wal(self.connection)
             migrate(self.connection)
         except sqlite3.DatabaseError as error:
             from linter.errors import WeirError
