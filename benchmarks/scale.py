@@ -110,9 +110,9 @@ def write_csv(table: pa.Table, path: Path) -> None:
             handle.write(memoryview(lines.buffers()[2])[first:last])
 
 
-MEASURE = textwrap.dedent(
+PEAK_RESIDENT_MB = textwrap.dedent(
     """
-    import json, resource, sys, time
+    import resource
 
     def peak_resident_mb():
         # Linux carries ru_maxrss over exec, so a child would start at the parent's peak;
@@ -124,6 +124,13 @@ MEASURE = textwrap.dedent(
         except OSError:
             pass
         return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+    """
+)
+"""Source of the peak-memory probe that every measuring child process starts with."""
+
+MEASURE = PEAK_RESIDENT_MB + textwrap.dedent(
+    """
+    import json, sys, time
     path, contract, how = sys.argv[1], sys.argv[2], sys.argv[3]
     # Every contender loads the same libraries first, so time and memory compare the work alone.
     import pandas as pd

@@ -19,25 +19,14 @@ import textwrap
 from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).parent))
-from scale import CONTRACT, synthetic_results, write_csv
+from scale import CONTRACT, PEAK_RESIDENT_MB, synthetic_results, write_csv
 
 STREAM_CONTRACT = CONTRACT.replace("pattern: '^S\\d{7}$'", "pattern: '^S\\d{11}$'")
 BLOCK_ROWS = 1_000_000
 
-MEASURE = textwrap.dedent(
+MEASURE = PEAK_RESIDENT_MB + textwrap.dedent(
     """
-    import contextlib, io, json, resource, sys, time
-
-    def peak_resident_mb():
-        # Linux carries ru_maxrss over exec, so a child would start at the parent's peak;
-        # VmHWM is the high-water mark of this process's own memory.
-        try:
-            for line in open("/proc/self/status"):
-                if line.startswith("VmHWM:"):
-                    return int(line.split()[1]) / 1024
-        except OSError:
-            pass
-        return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+    import contextlib, io, json, sys, time
     path, contract = sys.argv[1], sys.argv[2]
     from linter.cli import app
     import linter.rules.catalogue
