@@ -54,7 +54,16 @@ def read_parquet(path: str, limits: ReadLimits) -> Table:
             "Write the file again with a Parquet library, or send it as CSV UTF-8.",
         ) from None
     names: list[str | None] = [name if name != "" else None for name in data.schema.names]
-    columns = [column_texts(data.column(i)) for i in range(data.num_columns)]
+    try:
+        columns = [column_texts(data.column(i)) for i in range(data.num_columns)]
+    except UnicodeDecodeError:
+        # Parquet text must be UTF-8; pyarrow only finds out when a value is taken out.
+        raise UnreadableFile(
+            "file.corrupt",
+            "The Parquet file has a text column holding bytes that are not UTF-8, which Parquet "
+            "does not allow.",
+            "Write the file again with a Parquet library, or send it as CSV UTF-8.",
+        ) from None
     rows = [names, *map(list, zip(*columns, strict=True))] if columns else [names]
     if data.num_rows == 0 and not names:
         raise UnreadableFile("file.empty", "The Parquet file has no columns.", "Send the table again.")

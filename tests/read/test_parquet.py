@@ -89,3 +89,30 @@ def test_damaged_footer_is_corrupt_not_an_os_error(tmp_path: Path) -> None:
     with pytest.raises(UnreadableFile) as caught:
         read_path(write("d.parquet", bytes(data)))
     assert caught.value.rule == "file.corrupt"
+
+
+# Found by fuzz/fuzz_text.py in CI: a Parquet file whose string column holds bytes that are not
+# UTF-8 (0xb1). pyarrow reads the file and only fails when the value is taken out.
+NOT_UTF8_PARQUET = (
+    "UEFSMRUEFSgVLEwVBBUAEgAAFEwGAAAAsb3SzzE0BgAAAFZCLTAxNRUAFRIVFiwVBBUQFQYVBhw2ACgGVkItMDE1GAZWQi0w"
+    "MTQREQAAAAkgAgAAAAQBAQMCFQQVIBUkTBUEFQASAAAQPM3MzMzMzBBAMzMzMzMzD0AVABUSFRYsFQQVEBUGFQYcGAjNzMzM"
+    "zMwQQBgIMzMzMzMzD0AWACgIzczMzMzMEEAYCDMzMzMzMw9AEREAAAAJIAIAAAAEAQEDAhUEGTw1ABgGc2NoZW1hFQQAFQwl"
+    "AhgHc2l0ZV9pZCUATBwAAAAVCiUCGAZyZXN1bHQAFgQZHBksJgAcFQwZNQAGEBkYB3NpdGVfaWQVAhYEFqQBFqwBJlAmCBw2"
+    "ACgGVkItMDE1GAZWQi0wMTQREQAZLBUEFQAVAgAVABUQFQIAPBYYGQYZJgAEAAAAJgAcFQoZNQAGEBkYBnJlc3VsdBUCFgQW"
+    "zAEW1AEm9AEmtAEcGAjNzMzMzMwQQBgIMzMzMzMzD0AWACgIzczMzMzMEEAYCDMzMzMzMw9AEREAGSwVBBUAFQIAFQAVEBUC"
+    "ADwpBhkmAAQAAAAW8AIWBCYIFoADABkcGAxBUlJPVzpzY2hlbWEY7AEvLy8vLzZnQUFBQVFBQUFBQUFBS0FBd0FCZ0FGQUFn"
+    "QUNnQUFBQUFCQkFBTUFBQUFDQUFJQUFBQUJBQUlBQUFBQkFBQUFBSUFBQUJNQUFBQUJBQUFBTXovLy84QUFBRURFQUFBQUNB"
+    "QUFBQUVBQUFBQUFBQUFBWUFBQUJ5WlhOMWJIUUFBQUFBQmdBSUFBWUFCZ0FBQUFBQUFnQVFBQlFBQ0FBR0FBY0FEQUFBQUJB"
+    "QUVBQUFBQUFBQVFVUUFBQUFIQUFBQUFRQUFBQUFBQUFBQndBQUFITnBkR1ZmYVdRQUJBQUVBQVFBQUFBPQAYIHBhcnF1ZXQt"
+    "Y3BwLWFycm93IHZlcnNpb24gMjYuMC4xGSwcAAAcAAAALQIAAFBBUjE="
+)
+
+
+def test_text_column_that_is_not_utf8_is_corrupt_not_a_crash(tmp_path: Path) -> None:
+    import base64
+
+    path = tmp_path / "results.parquet"
+    path.write_bytes(base64.b64decode(NOT_UTF8_PARQUET))
+    with pytest.raises(UnreadableFile) as caught:
+        read_path(str(path))
+    assert caught.value.rule == "file.corrupt" and "not UTF-8" in caught.value.message
