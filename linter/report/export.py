@@ -6,9 +6,6 @@ import csv
 import io
 from pathlib import PurePath
 
-from openpyxl import Workbook
-from openpyxl.styles import Font
-
 from linter.errors import WeirError
 from linter.findings import Finding
 from linter.report.model import Report
@@ -70,6 +67,10 @@ def csv_bytes(report: Report) -> bytes:
 
 def xlsx_bytes(report: Report) -> bytes:
     """A one-sheet workbook; cells are written as text (neutralised), row numbers as numbers."""
+    # Imported here: every `weir check` loads this module, few write a workbook.
+    from openpyxl import Workbook
+    from openpyxl.styles import Font
+
     book = Workbook()
     sheet = book.active
     assert sheet is not None  # a new workbook always has its first sheet
