@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import hashlib
 import os
-from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
+from collections.abc import Iterable, Mapping, Sequence
+from dataclasses import dataclass, replace
 from datetime import UTC, datetime
 from fnmatch import fnmatch
 from pathlib import PurePath
@@ -20,7 +20,7 @@ from linter.read import SUPPORTED_SUFFIXES, UnreadableFile, read_path
 from linter.read.folders import Skipped, expand_paths
 from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
-from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, SUBMISSION_INSPECTORS
+from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, ROW_WISE, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
 from linter.scale.fast_path import read_screened
 from linter.table import Frame, Table, first_row_header
@@ -47,6 +47,30 @@ class Governed:
     sha256: str
     rows: int | None = None
     """Body rows in the file when `table` holds only the rows a pre-screen kept (large files)."""
+    sample: Table | None = None
+    """For a pre-screened file, its header and leading rows: what whole-table inspectors see,
+    while `table` holds the rows the screen could not pass, for the row-wise ones."""
+
+    def subjects(self, others: Mapping[str, Frame] | None = None) -> Subjects:
+        """What row-wise and whole-table inspectors see (one subject unless pre-screened)."""
+        rows = Subject(self.table, first_row_header(self.table), self.rules, others or {})
+        if self.sample is None:
+            return Subjects(rows, rows)
+        return Subjects(rows, Subject(self.sample, first_row_header(self.sample), self.rules, others or {}))
+
+
+@dataclass(frozen=True)
+class Subjects:
+    """One table as its inspectors see it: the same subject twice unless the file was pre-screened."""
+
+    rows: Subject
+    """For row-wise inspectors: every row, or the rows a pre-screen could not pass."""
+    whole: Subject
+    """For the inspectors that judge the table as a whole: every row, or the leading sample."""
+
+    def with_others(self, others: Mapping[str, Frame]) -> Subjects:
+        rows = replace(self.rows, others=others)
+        return Subjects(rows, rows if self.whole is self.rows else replace(self.whole, others=others))
 
 
 def submitted_files(paths: Iterable[str], max_depth: int = MAX_FOLDER_DEPTH) -> list[str]:
@@ -110,11 +134,15 @@ def inspector_failed(name: str, error: Exception, place: Place) -> Finding:
     )
 
 
-def run_inspectors(subject: Subject) -> list[Finding]:
-    """Run every registered inspector on its own: one that fails never hides the others."""
+def run_inspectors(subject: Subject, row_wise: bool | None = None) -> list[Finding]:
+    """Run every registered inspector on its own: one that fails never hides the others.
+
+    `row_wise` True or False runs only the inspectors that are (or are not) row-wise."""
     findings: list[Finding] = []
     for name, inspect in INSPECTORS.items():
         if name in CONTRACT_ONLY and subject.contract is None:
+            continue
+        if row_wise is not None and (name in ROW_WISE) is not row_wise:
             continue
         try:
             findings.extend(inspect(subject))
@@ -180,7 +208,7 @@ def read_governed(
     # The size limit holds on every path: a larger file goes to the reader, which refuses it
     # with file.too-large (a data manager raises max_file_bytes to check bigger files).
     within_size = os.path.getsize(path) <= bounds.read.max_file_bytes
-    if rules is not None and within_size:
+    if rules is not None and within_size and not is_referenced(rules, contract):
         if engine == "dask":
             from linter.scale.dask_engine import screen_with_dask
 
@@ -189,7 +217,9 @@ def read_governed(
             share = None if progress is None else (lambda fraction: progress.part(path, fraction))
             screened = read_screened(path, rules, progress=share)
         if screened is not None:
-            return FileOutcome((Governed(screened.table, contract, rules, sha, screened.rows),))
+            return FileOutcome(
+                (Governed(screened.table, contract, rules, sha, screened.rows, screened.sample),)
+            )
     try:
         with time_limit(bounds.seconds_per_file):
             tables = read_path(path, bounds.read)
@@ -208,17 +238,36 @@ def read_governed(
     )
 
 
+def is_referenced(rules: TableContract, contract: Contract | None) -> bool:
+    """Whether another table of the contract refers to this one (then every row is its values)."""
+    tables = contract.tables if contract else ()
+    return any(
+        v.references is not None and v.references.table == rules.name for t in tables for v in t.variables
+    )
+
+
 def needs_other_tables(rules: TableContract | None) -> bool:
     return rules is not None and any(v.references is not None for v in rules.variables)
 
 
-def table_result(g: Governed, subject: Subject, bounds: Limits) -> TableResult:
-    frame = subject.frame
+def inspected(seen: Subjects) -> list[Finding]:
+    """Every inspector's findings on one table, excerpts attached from the rows each one saw."""
+    rules = seen.rows.contract
+    keys = rules.keys if rules else ()
+    if seen.rows is seen.whole:
+        return list(attach_excerpts(run_inspectors(seen.rows), seen.rows.frame, EXCERPT_ROWS, keys))
+    found = [
+        *attach_excerpts(run_inspectors(seen.rows, row_wise=True), seen.rows.frame, EXCERPT_ROWS, keys),
+        *attach_excerpts(run_inspectors(seen.whole, row_wise=False), seen.whole.frame, EXCERPT_ROWS, keys),
+    ]
+    return sorted(found, key=sort_key)
+
+
+def table_result(g: Governed, seen: Subjects, bounds: Limits) -> TableResult:
+    frame = seen.rows.frame
     try:
         with time_limit(bounds.seconds_per_file):
-            findings = attach_excerpts(
-                run_inspectors(subject), frame, EXCERPT_ROWS, g.rules.keys if g.rules else ()
-            )
+            findings = tuple(inspected(seen))
     except TimedOut:
         stopped = timed_out(bounds.seconds_per_file)
         place = Place(file=g.table.source, sheet=g.table.sheet)
@@ -233,7 +282,7 @@ def table_result(g: Governed, subject: Subject, bounds: Limits) -> TableResult:
         contract=g.contract.id if g.contract else None,
         contract_version=g.contract.version if g.contract else None,
         table=g.rules.name if g.rules else None,
-        findings=tuple(findings),
+        findings=findings,
         encoding=g.table.encoding,
     )
 
@@ -274,17 +323,17 @@ def check_paths(
         for o in outcomes
         for g, r in zip(o.governed, o.results or (None,) * len(o.governed), strict=True)
     ]
-    frames = {id(g): first_row_header(g.table) for g, _ in governed}
+    seen = {id(g): g.subjects() for g, _ in governed}
     by_name: dict[str, Frame] = {}
     for g, _ in governed:
         if g.rules is not None:
-            by_name.setdefault(g.rules.name, frames[id(g)])
-    subjects: list[Subject] = []
+            by_name.setdefault(g.rules.name, seen[id(g)].rows.frame)
     for g, done in governed:
-        subject = Subject(g.table, frames[id(g)], g.rules, by_name)
-        subjects.append(subject)
-        results.append(done if done is not None else table_result(g, subject, bounds))
-    whole = tuple(sorted([*not_followed, *run_submission_inspectors(subjects)], key=sort_key))
+        results.append(
+            done if done is not None else table_result(g, seen[id(g)].with_others(by_name), bounds)
+        )
+    wholes = [seen[id(g)].whole for g, _ in governed]
+    whole = tuple(sorted([*not_followed, *run_submission_inspectors(wholes)], key=sort_key))
     return Report(
         __version__, datetime.now(UTC).isoformat(timespec="seconds"), fail_on, tuple(results), whole
     )

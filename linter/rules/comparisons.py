@@ -59,7 +59,7 @@ def broken_rows(typed: pd.DataFrame, rule: Comparison) -> pd.Series | None:
     return judged & ~holds.fillna(True).astype(bool)
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def comparisons(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     contract = subject.contract

@@ -56,7 +56,7 @@ GRID_EXAMPLES_LIMIT = 200_000
 """Above this many combinations, the absent ones are counted but not listed."""
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def duplicate_keys(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     contract = subject.contract
@@ -88,7 +88,7 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
     result.raise_if_unrun("unique")
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def missing_keys(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     contract = subject.contract

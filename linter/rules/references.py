@@ -37,7 +37,7 @@ define_rule(
 )
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def reference_values(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     contract = subject.contract

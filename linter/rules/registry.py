@@ -37,6 +37,10 @@ INSPECTORS: dict[str, Inspector] = {}
 """Inspector name (module.function) -> function; each one runs independently of the others."""
 CONTRACT_ONLY: set[str] = set()
 """Inspectors that need a contract and are skipped without one."""
+ROW_WISE: set[str] = set()
+"""Inspectors that judge each row on its own, so any subset of rows gives the same findings for
+the rows it holds. On a pre-screened large file they see only the rows the screen could not pass;
+every other inspector looks at the table as a whole and sees the file's leading sample."""
 
 
 def define_rule(rule_id: str, title: str, severity: Severity, doc: str) -> Rule:
@@ -48,14 +52,16 @@ def define_rule(rule_id: str, title: str, severity: Severity, doc: str) -> Rule:
     return rule
 
 
-def inspector(*, needs_contract: bool = False) -> Callable[[Inspector], Inspector]:
-    """Register a function `Subject -> Iterable[Finding]` to run on every table."""
+def inspector(*, needs_contract: bool = False, row_wise: bool = False) -> Callable[[Inspector], Inspector]:
+    """Register a function `Subject -> Iterable[Finding]` to run on every table (see `ROW_WISE`)."""
 
     def register(function: Inspector) -> Inspector:
         name = f"{function.__module__}.{function.__name__}"
         INSPECTORS[name] = function
         if needs_contract:
             CONTRACT_ONLY.add(name)
+        if row_wise:
+            ROW_WISE.add(name)
         return function
 
     return register

@@ -90,7 +90,7 @@ def _nearest_codes(found: list[str], codes: list[str]) -> list[tuple[str, str]]:
     return pairs
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def code_variant(subject: Subject) -> Iterator[Finding]:
     for variable, variants, rows, _ in _code_cells(subject):
         if not rows:
@@ -113,7 +113,7 @@ def code_variant(subject: Subject) -> Iterator[Finding]:
         )
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def not_in_code_list(subject: Subject) -> Iterator[Finding]:
     for variable, _, _, rows in _code_cells(subject):
         if not rows or variable.codes is None:

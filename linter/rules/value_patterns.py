@@ -49,7 +49,7 @@ def pattern_fix(name: str, pattern: str, found: list[str], example: str | None) 
     return fix
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     if result is None or subject.contract is None:

@@ -190,22 +190,22 @@ def _format_fix(subject: Subject, variable: Variable, converted: Converted, rows
     return f"write {suggestion} (found {found!r}); use {agreed_date_form(variable)} throughout"
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def wrong_type(subject: Subject) -> Iterator[Finding]:
     return _conversion_findings(subject, "values.wrong-type")
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def wrong_unit(subject: Subject) -> Iterator[Finding]:
     return _conversion_findings(subject, "values.wrong-unit")
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def date_format(subject: Subject) -> Iterator[Finding]:
     return _conversion_findings(subject, "values.date-format")
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def missing_values(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     if result is None or subject.contract is None:
@@ -236,7 +236,7 @@ def missing_values(subject: Subject) -> Iterator[Finding]:
     result.raise_if_unrun("nullable")
 
 
-@inspector(needs_contract=True)
+@inspector(needs_contract=True, row_wise=True)
 def out_of_range(subject: Subject) -> Iterator[Finding]:
     result = engine_result(subject)
     if result is None or subject.contract is None:

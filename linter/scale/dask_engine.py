@@ -92,10 +92,21 @@ def screen_with_dask(
     labels = unique_labels(list(names_written))
     starts = [int(s) - 1 for s in np.concatenate([[0], np.cumsum(lengths)[:-1]])]
     judged = frame.map_partitions(_judge, contract, labels, starts, meta=_meta(contract, names, labels))
-    keep = _positions_to_keep(judged, contract, labels, min(sample_rows, sum(lengths) - 1))
+    sample = min(sample_rows, sum(lengths) - 1)
+    to_judge = _positions_to_judge(judged, contract, labels)
+    keep = np.union1d(np.arange(sample), to_judge).astype(np.int64)
     kept = _rows_at(frame, keep, starts, labels)
-    found = StreamResult(names_written, kept, tuple(int(p) for p in keep), sum(lengths) - 1, 0)
-    return _with_count(screened_table(plain, found), judged)
+    suspect = int(judged["\x00suspect"].sum().compute())
+    found = StreamResult(
+        names_written,
+        kept,
+        tuple(int(p) for p in keep),
+        sum(lengths) - 1,
+        suspect,
+        sample,
+        len(to_judge),
+    )
+    return screened_table(plain, found)
 
 
 def _meta(contract: TableContract, names: list[str], labels: list[str]) -> pd.DataFrame:
@@ -104,8 +115,8 @@ def _meta(contract: TableContract, names: list[str], labels: list[str]) -> pd.Da
     return _judge(sample, contract, labels, [-1], {"number": 0}).iloc[:0]
 
 
-def _positions_to_keep(judged: Any, contract: TableContract, labels: list[str], sample: int) -> np.ndarray:
-    """Sample, suspects, and every row whose whole key another row shares (via Dask's shuffle)."""
+def _positions_to_judge(judged: Any, contract: TableContract, labels: list[str]) -> np.ndarray:
+    """Suspects, and every row whose whole key another row shares (via Dask's shuffle)."""
     suspects = judged[judged["\x00suspect"]][POSITION].compute().to_numpy()
     keys = [f"\x00key {k}" for k in contract.keys if k in labels]
     shared = np.array([], np.int64)
@@ -119,7 +130,7 @@ def _positions_to_keep(judged: Any, contract: TableContract, labels: list[str], 
             .merge(repeated.fillna("\x00empty"), on=keys, how="inner", shuffle_method="tasks")
         )
         shared = marked[POSITION].compute().to_numpy()
-    return np.union1d(np.union1d(np.arange(sample), suspects), shared).astype(np.int64)
+    return np.union1d(suspects, shared).astype(np.int64)
 
 
 def _rows_at(frame: Any, positions: np.ndarray, starts: list[int], labels: list[str]) -> pa.Table:
@@ -130,11 +141,6 @@ def _rows_at(frame: Any, positions: np.ndarray, starts: list[int], labels: list[
 
     rows = frame.map_partitions(pick, meta=frame._meta).compute()
     return _text_table(rows, labels)
-
-
-def _with_count(screened: ScreenedFile, judged: Any) -> ScreenedFile:
-    suspect = int(judged["\x00suspect"].sum().compute())
-    return ScreenedFile(screened.table, screened.rows, suspect)
 
 
 @contextmanager

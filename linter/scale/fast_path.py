@@ -38,7 +38,9 @@ class ScreenedFile:
     """A large file reduced to what needs judging, and what it was reduced from."""
 
     table: Table
-    """Header row, leading sample and suspect rows, with the provider's line numbers."""
+    """Header row and the rows the engine must judge, with the provider's line numbers."""
+    sample: Table
+    """Header row and the file's leading rows, for the inspectors that look at the whole table."""
     rows: int
     """Body rows in the whole file."""
     suspect: int
@@ -139,20 +141,34 @@ def plain_file(path: str) -> PlainFile | None:
 
 
 def screened_table(plain: PlainFile, found: StreamResult) -> ScreenedFile:
-    """The header, the kept rows and their line numbers as an ordinary `Table`."""
+    """The rows to judge, and the leading sample, each under the header as an ordinary `Table`.
+
+    With nothing to judge the row-wise inspectors see the header alone; otherwise they see the
+    sample too, because some findings quote a good value of the same column as an example, and
+    the file's first good values are in the sample, as they are for the ordinary reader.
+    """
+    sample = [i for i, p in enumerate(found.positions) if p < found.sample]
+    judged = list(range(len(found.positions))) if found.judged else []
+    return ScreenedFile(
+        _table_of(plain, found, judged), _table_of(plain, found, sample), found.rows, found.suspect
+    )
+
+
+def _table_of(plain: PlainFile, found: StreamResult, chosen: list[int]) -> Table:
+    """The header and the kept rows at `chosen` (indices into `found.kept`) as a `Table`."""
     header_grid = pd.DataFrame({i: pd.Series([n or None], dtype=object) for i, n in enumerate(found.names)})
-    grid = pd.concat([header_grid, grid_of(found.kept)], ignore_index=True)
+    rows = found.kept.take(pa.array(chosen, pa.int64()))
+    grid = pd.concat([header_grid, grid_of(rows)], ignore_index=True)
     grid.columns = pd.RangeIndex(grid.shape[1])
-    table = Table(
+    return Table(
         source=plain.path,
         sheet=None,
         grid=grid,
-        row_numbers=(1, *(p + 2 for p in found.positions)),
+        row_numbers=(1, *(found.positions[i] + 2 for i in chosen)),
         format="tsv" if plain.delimiter == "\t" else "csv",
         encoding="utf-8",
         delimiter=plain.delimiter,
     )
-    return ScreenedFile(table, found.rows, found.suspect)
 
 
 def read_screened(

@@ -15,8 +15,6 @@ from linter.check import (
 )
 from linter.contract.model import Contract
 from linter.limits import Limits
-from linter.rules.subject import Subject
-from linter.table import first_row_header
 
 _contracts: Sequence[Contract] = ()
 _bounds = Limits()
@@ -33,10 +31,7 @@ def _remember(contracts: Sequence[Contract], bounds: Limits) -> None:
 def _outcome(path: str) -> FileOutcome:
     read = read_governed(path, _contracts, _bounds)
     results = tuple(
-        None
-        if needs_other_tables(g.rules)
-        else table_result(g, Subject(g.table, first_row_header(g.table), g.rules), _bounds)
-        for g in read.governed
+        None if needs_other_tables(g.rules) else table_result(g, g.subjects(), _bounds) for g in read.governed
     )
     return FileOutcome(read.governed, read.unreadable, results)
 

@@ -49,6 +49,10 @@ class StreamResult:
     """0-based body position of each kept row."""
     rows: int
     suspect: int
+    sample: int
+    """Leading body rows kept as the sample (positions 0 to sample - 1), judged or not."""
+    judged: int
+    """Kept rows the engine must judge (a suspect cell or a shared key)."""
 
 
 def text_batches(path: str, delimiter: str, width: int, block: int | None = None) -> Iterator[pa.Table]:
@@ -159,7 +163,7 @@ def screen_stream(
     kept: list[pa.Table] = []
     kept_positions: list[np.ndarray] = []
     key_parts: list[pa.Table] = []
-    suspect_count = 0
+    suspect_parts: list[np.ndarray] = []
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
         spill: HashSpill | None = None
@@ -173,7 +177,7 @@ def screen_stream(
             body = batch.rename_columns(labels)
             screened = screen_batch(body, contract)
             suspect = np.flatnonzero(screened.suspect.to_numpy(zero_copy_only=False))
-            suspect_count += len(suspect)
+            suspect_parts.append(suspect + start)
             sample = np.arange(max(0, min(sample_rows - start, body.num_rows)))
             chosen = np.union1d(sample, suspect).astype(np.int64)
             if len(chosen):
@@ -201,8 +205,17 @@ def screen_stream(
         if tables
         else pa.table({label: pa.array([], pa.string()) for label in labels})
     )
+    ordered = every[order]
+    suspects = np.concatenate([*suspect_parts, np.array([], np.int64)])
+    judged = len(np.union1d(suspects, duplicate.positions))
     return StreamResult(
-        names, _take(merged, order), tuple(int(p) for p in every[order]), start, suspect_count
+        names,
+        _take(merged, order),
+        tuple(int(p) for p in ordered),
+        start,
+        len(suspects),
+        min(sample_rows, start),
+        judged,
     )
 
 

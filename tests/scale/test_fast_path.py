@@ -55,7 +55,8 @@ def test_clean_file_keeps_only_the_sample(tmp_path, contract_file, monkeypatch):
     path.write_text(csv_text(lab_rows(300, seed=3)), encoding="utf-8")
     screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
     assert screened is not None
-    assert screened.suspect == 0 and screened.table.row_numbers == (1, 2, 3, 4, 5, 6)
+    assert screened.suspect == 0 and screened.table.row_numbers == (1,)  # nothing to judge
+    assert screened.sample.row_numbers == (1, 2, 3, 4, 5, 6)
     ordinary, fast = both_paths(path, contract_file, monkeypatch)
     assert row_findings(fast) == row_findings(ordinary) == []
 
