@@ -203,7 +203,6 @@ def read_governed(
     With engine "dask" every plain delimited file is pre-screened on the current Dask cluster.
     The pre-screen reads in bounded memory and linear time, so it is not under the time limit.
     """
-    sha = file_sha256(path)
     contract, rules = governing(path, contracts)
     # The size limit holds on every path: a larger file goes to the reader, which refuses it
     # with file.too-large (a data manager raises max_file_bytes to check bigger files).
@@ -217,9 +216,11 @@ def read_governed(
             share = None if progress is None else (lambda fraction: progress.part(path, fraction))
             screened = read_screened(path, rules, progress=share)
         if screened is not None:
-            return FileOutcome(
-                (Governed(screened.table, contract, rules, sha, screened.rows, screened.sample),)
+            governed = Governed(
+                screened.table, contract, rules, screened.sha256, screened.rows, screened.sample
             )
+            return FileOutcome((governed,))
+    sha = file_sha256(path)
     try:
         with time_limit(bounds.seconds_per_file):
             tables = read_path(path, bounds.read)
@@ -256,8 +257,10 @@ def inspected(seen: Subjects) -> list[Finding]:
     keys = rules.keys if rules else ()
     if seen.rows is seen.whole:
         return list(attach_excerpts(run_inspectors(seen.rows), seen.rows.frame, EXCERPT_ROWS, keys))
+    # A row-wise inspector finds nothing in no rows: a clean large file needs no engine run.
+    judged = run_inspectors(seen.rows, row_wise=True) if len(seen.rows.frame.rows) else []
     found = [
-        *attach_excerpts(run_inspectors(seen.rows, row_wise=True), seen.rows.frame, EXCERPT_ROWS, keys),
+        *attach_excerpts(judged, seen.rows.frame, EXCERPT_ROWS, keys),
         *attach_excerpts(run_inspectors(seen.whole, row_wise=False), seen.whole.frame, EXCERPT_ROWS, keys),
     ]
     return sorted(found, key=sort_key)

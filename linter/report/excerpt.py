@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Sequence
+from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import replace
 
 from linter.findings import Excerpt, ExcerptRow, Finding
@@ -32,8 +32,21 @@ def _text(value: object) -> str | None:
     return value if isinstance(value, str) else None
 
 
-def excerpt_for(finding: Finding, frame: Frame, max_rows: int, keys: Sequence[str] = ()) -> Excerpt | None:
-    """The excerpt of `finding` in `frame`, or None when it names no body row or no column of it."""
+def row_positions(frame: Frame) -> dict[int, int]:
+    """Provider row number -> position in the frame's body."""
+    return {row: i for i, row in enumerate(frame.rows)}
+
+
+def excerpt_for(
+    finding: Finding,
+    frame: Frame,
+    max_rows: int,
+    keys: Sequence[str] = (),
+    body_index: Mapping[int, int] | None = None,
+) -> Excerpt | None:
+    """The excerpt of `finding` in `frame`, or None when it names no body row or no column of it.
+
+    `body_index` maps provider row numbers to body positions (built here when not given)."""
     if max_rows <= 0 or not finding.place.rows or finding.place.file != frame.table.source:
         return None
     if (finding.place.sheet or None) != (frame.table.sheet or None):
@@ -43,7 +56,8 @@ def excerpt_for(finding: Finding, frame: Frame, max_rows: int, keys: Sequence[st
         return None
     key_positions = [frame.labels.index(k) for k in keys if k in frame.labels]
     shown = sorted(set(marked) | set(key_positions))
-    body_index = {row: i for i, row in enumerate(frame.rows)}
+    if body_index is None:
+        body_index = row_positions(frame)
     rows: list[ExcerptRow] = []
     for row in finding.place.rows:
         if row not in body_index:
@@ -77,9 +91,10 @@ def attach_excerpts(
     excerpt keep it.
     """
     attached: list[Finding] = []
+    body_index = row_positions(frame)
     for finding in findings:
         if finding.excerpt is None:
-            excerpt = excerpt_for(finding, frame, max_rows, keys)
+            excerpt = excerpt_for(finding, frame, max_rows, keys, body_index)
             if excerpt is not None:
                 finding = replace(finding, excerpt=excerpt)
         attached.append(finding)

@@ -21,7 +21,7 @@ from linter.errors import WeirError
 from linter.scale import fast_path
 from linter.scale.fast_path import ScreenedFile, plain_file, screened_table
 from linter.scale.screen import screen_batch, unscreenable
-from linter.scale.stream import StreamResult
+from linter.scale.stream import StreamResult, scan_lines
 from linter.table import unique_labels
 
 BLOCK_BYTES = 64 * 1024 * 1024
@@ -85,7 +85,8 @@ def screen_with_dask(
         blocksize=blocksize,
     )
     lengths = frame.map_partitions(len).compute().tolist()
-    if sum(lengths) < 2 or not plain.rows_agree(sum(lengths) - 1):
+    scan = scan_lines(path)
+    if sum(lengths) < 2 or not scan.rows_agree(sum(lengths) - 1):
         return None
     header = frame.partitions[0].head(1, compute=True)
     names_written = tuple(str(v) for v in header.iloc[0].tolist())
@@ -106,7 +107,7 @@ def screen_with_dask(
         sample,
         len(to_judge),
     )
-    return screened_table(plain, found)
+    return screened_table(plain, found, scan.sha256)
 
 
 def _meta(contract: TableContract, names: list[str], labels: list[str]) -> pd.DataFrame:

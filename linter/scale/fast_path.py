@@ -23,14 +23,13 @@ import pyarrow.csv as pacsv
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
 from linter.scale.screen import unscreenable
-from linter.scale.stream import KEYS_IN_MEMORY_BYTES, StreamResult, screen_stream
+from linter.scale.stream import KEYS_IN_MEMORY_BYTES, LineScan, StreamResult, screen_stream
 from linter.table import Table
 
 FAST_PATH_BYTES = 8 * 1024 * 1024
 """Files at least this large are pre-screened; smaller ones are quick on the ordinary path."""
 SAMPLE_ROWS = 2000
 """Leading body rows always kept, so layout and unit heuristics see the file as it starts."""
-SCAN_BLOCK = 16 * 1024 * 1024
 
 
 @dataclass(frozen=True)
@@ -45,28 +44,8 @@ class ScreenedFile:
     """Body rows in the whole file."""
     suspect: int
     """Body rows the screen sent to the engine (the sample not counted)."""
-
-
-@dataclass(frozen=True)
-class LineCounts:
-    """Byte counts over the whole file that tell whether Arrow's rows are the provider's lines."""
-
-    newlines: int
-    carriage_returns: int
-    nuls: int
-    ends_with_newline: bool
-
-
-def count_lines(path: str) -> LineCounts:
-    newlines = returns = nuls = 0
-    last = b""
-    with open(path, "rb") as handle:
-        for block in iter(lambda: handle.read(SCAN_BLOCK), b""):
-            newlines += block.count(b"\n")
-            returns += block.count(b"\r")
-            nuls += block.count(b"\x00")
-            last = block[-1:]
-    return LineCounts(newlines, returns, nuls, last == b"\n")
+    sha256: str
+    """Of the whole file, computed in the same pass."""
 
 
 def plain_head(path: str) -> tuple[str, str] | None:
@@ -113,17 +92,11 @@ def grid_of(columns: pa.Table) -> pd.DataFrame:
 
 @dataclass(frozen=True)
 class PlainFile:
-    """A delimited file whose every physical line is one record: safe to cut into pieces anywhere."""
+    """A delimited file that starts as plain UTF-8 text: a candidate for the pre-screen."""
 
     path: str
     delimiter: str
     width: int
-    counts: LineCounts
-
-    def rows_agree(self, body_rows: int) -> bool:
-        """One parsed row per physical line proves every row number exact (no blank or split lines)."""
-        lines = self.counts.newlines + (0 if self.counts.ends_with_newline else 1)
-        return body_rows >= 1 and lines == body_rows + 1
 
 
 def plain_file(path: str) -> PlainFile | None:
@@ -134,13 +107,10 @@ def plain_file(path: str) -> PlainFile | None:
     header = next(csv.reader(io.StringIO(header_line.rstrip("\r")), delimiter=delimiter), [])
     if not header:
         return None
-    counts = count_lines(path)
-    if counts.nuls or counts.carriage_returns not in (0, counts.newlines):
-        return None
-    return PlainFile(path, delimiter, len(header), counts)
+    return PlainFile(path, delimiter, len(header))
 
 
-def screened_table(plain: PlainFile, found: StreamResult) -> ScreenedFile:
+def screened_table(plain: PlainFile, found: StreamResult, sha256: str) -> ScreenedFile:
     """The rows to judge, and the leading sample, each under the header as an ordinary `Table`.
 
     With nothing to judge the row-wise inspectors see the header alone; otherwise they see the
@@ -150,7 +120,7 @@ def screened_table(plain: PlainFile, found: StreamResult) -> ScreenedFile:
     sample = [i for i, p in enumerate(found.positions) if p < found.sample]
     judged = list(range(len(found.positions))) if found.judged else []
     return ScreenedFile(
-        _table_of(plain, found, judged), _table_of(plain, found, sample), found.rows, found.suspect
+        _table_of(plain, found, judged), _table_of(plain, found, sample), found.rows, found.suspect, sha256
     )
 
 
@@ -187,18 +157,23 @@ def read_screened(
     plain = plain_file(path)
     if plain is None:
         return None
-    lines = max(1, plain.counts.newlines)
-    seen = [0]
+    scan = LineScan()
 
     def rows_read(rows: int) -> None:
-        seen[0] += rows
         if progress is not None:
-            progress(seen[0] / lines)
+            progress(scan.bytes / max(1, size))
 
     try:
         found = screen_stream(
-            path, contract, plain.delimiter, plain.width, sample_rows, rows_read, size <= KEYS_IN_MEMORY_BYTES
+            path,
+            contract,
+            plain.delimiter,
+            plain.width,
+            sample_rows,
+            rows_read,
+            size <= KEYS_IN_MEMORY_BYTES,
+            scan,
         )
     except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
         return None  # ragged rows, quoted line breaks, bytes that are not UTF-8: the ordinary reader says
-    return screened_table(plain, found) if plain.rows_agree(found.rows) else None
+    return screened_table(plain, found, scan.sha256)

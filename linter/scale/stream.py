@@ -9,10 +9,12 @@ candidate rows so that only keys that are really equal are reported (a hash coll
 
 from __future__ import annotations
 
+import hashlib
 import tempfile
-from collections.abc import Callable, Iterator
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
 from pathlib import Path
+from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -55,24 +57,119 @@ class StreamResult:
     """Kept rows the engine must judge (a suspect cell or a shared key)."""
 
 
-def text_batches(path: str, delimiter: str, width: int, block: int | None = None) -> Iterator[pa.Table]:
+class LineScan:
+    """What reading a file's bytes once tells: its SHA-256, and whether Arrow's rows are its lines.
+
+    Fed every block as it is read, so the hash and the line counts cost no pass of their own.
+    NUL bytes, carriage returns that do not all end lines (CRLF), or a count of lines that differs
+    from the rows parsed mean the file takes the ordinary reader, which reports such things.
+    """
+
+    def __init__(self) -> None:
+        self.digest = hashlib.sha256()
+        self.bytes = 0
+        self.newlines = 0
+        self.returns = 0
+        self.line_returns = 0
+        """Carriage returns directly followed by a line feed."""
+        self.nuls = False
+        self.ends_with_newline = False
+        self.ends_with_return = False
+
+    def add(self, block: bytes) -> None:
+        if not block:
+            return
+        self.digest.update(block)
+        self.bytes += len(block)
+        self.newlines += block.count(b"\n")
+        # `find` is a fast byte search; counting is only needed in files that have the byte at all.
+        if block.find(b"\r") >= 0:
+            self.returns += block.count(b"\r")
+            self.line_returns += block.count(b"\r\n")
+        if self.ends_with_return and block.startswith(b"\n"):
+            self.line_returns += 1  # a CRLF split between two blocks
+        self.nuls = self.nuls or block.find(b"\x00") >= 0
+        self.ends_with_newline = block.endswith(b"\n")
+        self.ends_with_return = block.endswith(b"\r")
+
+    @property
+    def plain(self) -> bool:
+        """No NUL bytes, and either no carriage return or CRLF at the end of every line."""
+        return not self.nuls and self.returns == self.line_returns and self.returns in (0, self.newlines)
+
+    def rows_agree(self, body_rows: int) -> bool:
+        """One parsed row per physical line proves every row number exact (no blank or split lines)."""
+        lines = self.newlines + (0 if self.ends_with_newline else 1)
+        return self.plain and body_rows >= 1 and lines == body_rows + 1
+
+    @property
+    def sha256(self) -> str:
+        return self.digest.hexdigest()
+
+
+def scan_lines(path: str) -> LineScan:
+    """A `LineScan` of the whole file, for readers that do not go through `text_batches`."""
+    scan = LineScan()
+    with open(path, "rb") as handle:
+        for block in iter(lambda: handle.read(BATCH_BYTES), b""):
+            scan.add(block)
+    return scan
+
+
+@dataclass(frozen=True)
+class Span:
+    """Where one batch's lines lie in the file, so its rows can be read again without a full pass."""
+
+    offset: int
+    """Byte offset of the batch's first line."""
+    size: int
+    """Bytes of whole lines in the batch."""
+    first_line: int
+    """0-based physical line of the batch's first row (the header is line 0)."""
+    rows: int
+
+
+@dataclass(frozen=True)
+class Piece:
+    """One batch of text cells and where its lines lie in the file."""
+
+    table: pa.Table
+    span: Span
+
+
+def text_options(delimiter: str, width: int) -> tuple[Any, Any, Any]:
+    """Arrow's read, parse and convert options for text cells (empty -> null), with no header."""
+    names = [f"c{i}" for i in range(width)]
+    return (
+        pacsv.ReadOptions(column_names=names),
+        pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
+        pacsv.ConvertOptions(
+            column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
+        ),
+    )
+
+
+def text_batches(
+    path: str, delimiter: str, width: int, block: int | None = None, scan: LineScan | None = None
+) -> Iterator[Piece]:
     """Batches of text cells (empty -> null), the header line included as the first row.
 
     The file is cut at line ends and each piece parsed on its own: with line breaks inside cells
     refused (`newlines_in_values=False`) that is exactly how Arrow splits records anyway, and only
-    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound).
+    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound). Every
+    block read is shown to `scan`; a NUL byte stops the pass at once.
     """
     block = BATCH_BYTES if block is None else block
-    names = [f"c{i}" for i in range(width)]
-    read_options = pacsv.ReadOptions(column_names=names)
-    parse_options = pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False)
-    convert_options = pacsv.ConvertOptions(
-        column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
-    )
+    options = text_options(delimiter, width)
     rest = b""
+    offset = line = 0
     with open(path, "rb") as handle:
         while True:
             more = handle.read(block)
+            if scan is not None:
+                scan.add(more)
+                if scan.nuls:
+                    raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
             data = rest + more
             cut = len(data) if not more else data.rfind(b"\n") + 1
             piece, rest = data[:cut], data[cut:]
@@ -80,7 +177,10 @@ def text_batches(path: str, delimiter: str, width: int, block: int | None = None
                 # The ordinary reader refuses such a line with a finding; let it.
                 raise pa.ArrowInvalid("a line longer than the reader's limit")
             if piece:
-                yield pacsv.read_csv(pa.BufferReader(piece), read_options, parse_options, convert_options)
+                table = pacsv.read_csv(pa.BufferReader(piece), *options)
+                yield Piece(table, Span(offset, len(piece), line, table.num_rows))
+                offset += len(piece)
+                line += table.num_rows
             if not more:
                 return
 
@@ -156,8 +256,13 @@ def screen_stream(
     sample_rows: int,
     progress: Progress | None = None,
     keys_in_memory: bool = True,
+    scan: LineScan | None = None,
 ) -> StreamResult:
-    """One pass screening every batch; a second pass only when spilled hashes name candidates."""
+    """One pass screening every batch; rows with shared keys are read back from where they lie.
+
+    Raises `pa.ArrowInvalid` when the file is not one record per line (see `LineScan`)."""
+    scan = LineScan() if scan is None else scan
+    spans: list[Span] = []
     names: tuple[str, ...] = ()
     labels: list[str] = []
     kept: list[pa.Table] = []
@@ -167,7 +272,9 @@ def screen_stream(
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
         spill: HashSpill | None = None
-        for batch in text_batches(path, delimiter, width):
+        for piece in text_batches(path, delimiter, width, scan=scan):
+            batch = piece.table
+            spans.append(piece.span)
             if not names:
                 names = tuple("" if v is None else str(v) for v in batch.slice(0, 1).to_pylist()[0].values())
                 labels = unique_labels(list(names))
@@ -191,7 +298,9 @@ def screen_stream(
             start += body.num_rows
             if progress is not None:
                 progress(body.num_rows)
-        duplicate = _exact_duplicates(key_parts, spill, path, contract, delimiter, width, labels)
+        if not scan.rows_agree(start):
+            raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
+        duplicate = _exact_duplicates(key_parts, spill, path, contract, delimiter, width, labels, spans)
     positions = np.concatenate([*kept_positions, np.array([], np.int64)])
     extra = np.setdiff1d(duplicate.positions, positions)
     tables = [
@@ -235,6 +344,7 @@ def _exact_duplicates(
     delimiter: str,
     width: int,
     labels: list[str],
+    spans: Sequence[Span],
 ) -> Duplicates:
     """Rows sharing a key: exactly from kept keys, or from spilled hashes verified on the rows."""
     empty = Duplicates(
@@ -248,7 +358,7 @@ def _exact_duplicates(
         candidates = spill.candidates()
     if not len(candidates):
         return empty
-    rows = _rows_at(path, delimiter, width, labels, candidates)
+    rows = _rows_at(path, delimiter, width, labels, candidates, spans)
     if spill is not None:
         # Verify: only candidates whose keys are really equal (as the engine compares them) stay.
         keys = screen_batch(rows, contract).keys
@@ -258,14 +368,27 @@ def _exact_duplicates(
     return Duplicates(candidates, rows)
 
 
-def _rows_at(path: str, delimiter: str, width: int, labels: list[str], positions: np.ndarray) -> pa.Table:
-    """The whole body rows at sorted `positions`, read in a second streaming pass."""
+def _rows_at(
+    path: str, delimiter: str, width: int, labels: list[str], positions: np.ndarray, spans: Sequence[Span]
+) -> pa.Table:
+    """The whole body rows at sorted `positions`: only their lines are cut from the file and parsed."""
+    lines = positions + 1  # body row p is physical line p + 1, the header being line 0
+    options = text_options(delimiter, width)
     found: list[pa.Table] = []
-    start = -1  # the header is row -1 of the body
-    for batch in text_batches(path, delimiter, width):
-        lower = np.searchsorted(positions, start)
-        upper = np.searchsorted(positions, start + batch.num_rows)
-        if upper > lower:
-            found.append(_take(batch, positions[lower:upper] - start).rename_columns(labels))
-        start += batch.num_rows
+    with open(path, "rb") as handle:
+        for span in spans:
+            lower, upper = np.searchsorted(lines, [span.first_line, span.first_line + span.rows])
+            if upper == lower:
+                continue
+            handle.seek(span.offset)
+            data = handle.read(span.size)
+            ends = np.flatnonzero(np.frombuffer(data, np.uint8) == ord("\n"))
+            if not data.endswith(b"\n"):
+                ends = np.append(ends, len(data) - 1)  # the file's last line has no line end
+            starts = np.concatenate([[0], ends[:-1] + 1])
+            wanted = lines[lower:upper] - span.first_line
+            chosen = b"".join(data[starts[i] : ends[i] + 1] for i in wanted)
+            if not chosen.endswith(b"\n"):
+                chosen += b"\n"
+            found.append(pacsv.read_csv(pa.BufferReader(chosen), *options).rename_columns(labels))
     return pa.concat_tables(found)

@@ -74,3 +74,46 @@ def test_a_runaway_line_goes_to_the_ordinary_reader(tmp_path, contract_file, mon
     path.write_text("sample_id,lab\n" + "S" * 10_000 + ",HERON\n", encoding="utf-8")
     contract = load_contract(str(contract_file)).tables[0]
     assert fast_path.read_screened(str(path), contract, 0, 3) is None
+
+
+@pytest.mark.parametrize("line_end", ["\n", "\r\n"])
+def test_rows_with_shared_keys_are_cut_from_where_the_first_pass_found_them(
+    tmp_path, contract_file, monkeypatch, line_end
+):
+    # The last line repeats an earlier key and has no line end: the read-back must still find it.
+    rows = lab_rows(700, seed=5)
+    rows.append(list(rows[2]))
+    text = csv_text(rows).replace("\n", line_end).rstrip("\r\n")
+    path = tmp_path / "results-2026-05.csv"
+    path.write_bytes(text.encode("utf-8"))
+    expected = findings_of(path, contract_file)
+    duplicate = [f for f in expected if f.rule == "keys.duplicate"]
+    assert duplicate and duplicate[0].place.rows == (4, 702)  # header is line 1
+    assert fast_findings(path, contract_file, monkeypatch, spill=False) == expected
+
+
+def test_a_nul_byte_stops_the_pass_and_leaves_the_file_to_the_ordinary_reader(
+    tmp_path, contract_file, monkeypatch
+):
+    monkeypatch.setattr(stream, "BATCH_BYTES", 1024)
+    rows = lab_rows(300, seed=2)
+    text = csv_text(rows)
+    cut = len(text) // 2
+    path = tmp_path / "results-nul.csv"
+    path.write_bytes(text[:cut].encode() + b"\x00" + text[cut:].encode())
+    contract = load_contract(str(contract_file)).tables[0]
+    assert fast_path.read_screened(str(path), contract, 0, 3) is None
+
+
+def test_line_scan_counts_lines_and_hashes_the_bytes_it_is_shown():
+    import hashlib
+
+    scan = stream.LineScan()
+    for block in (b"a,b\r\n1,2\r", b"\n3,4\r\n"):
+        scan.add(block)
+    assert scan.newlines == 3 and scan.returns == 3 and scan.plain and scan.rows_agree(2)
+    # Source: Python's hashlib (the same digest as hashing the whole file at once).
+    assert scan.sha256 == hashlib.sha256(b"a,b\r\n1,2\r\n3,4\r\n").hexdigest()
+    bare = stream.LineScan()
+    bare.add(b"a,b\r1,2\n")
+    assert not bare.plain and not bare.rows_agree(1)
