@@ -30,6 +30,7 @@ format: venv
 	$(BIN)/ruff check --fix linter tests benchmarks
 
 bench: venv
+	$(BIN)/pip install -q -e '.[test,bench]'  # polars: the pandera-polars baseline of benchmarks/scale.py
 	for script in benchmarks/*.py; do echo "== $$script"; $(BIN)/python $$script || exit 1; done
 
 clean:
