@@ -22,6 +22,7 @@ import pyarrow.compute as pc
 from linter.contract.convert import PLAIN_INTEGER, PLAIN_NUMBER
 from linter.contract.dates import ISO_DATE
 from linter.contract.model import TableContract, Variable, VarType
+from linter.scale.key_hash import repeated_values
 
 SCREENED_TYPES = frozenset(
     {VarType.STRING, VarType.CATEGORY, VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN, VarType.DATE}
@@ -30,6 +31,9 @@ ISO_FORMS = (None, "%Y-%m-%d")
 BOOLEAN_WORDS = ("true", "false", "1", "0")
 # Longer digit strings may overflow int64 in one engine and not the other: leave them to pandera.
 LONGEST_PLAIN_INTEGER = 15
+COUNTED_SPAN = 2
+"""Folded key codes up to this many times the rows are counted in a table (8 bytes a code) instead
+of sorted: at twice the rows the table costs 16 bytes a row, as the sort's copy and mask do."""
 
 
 def whole_match(pattern: str) -> str:
@@ -164,14 +168,15 @@ def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
 
 
 def plain_integers(indices: pa.Array) -> np.ndarray:
-    """Dictionary indices (no nulls) as int64 without Arrow's slow nullable conversion."""
+    """Dictionary indices (no nulls) as a NumPy view in their own width, without Arrow's slow
+    nullable conversion and without a copy."""
     raw = np.frombuffer(indices.buffers()[1], dtype=indices.type.to_pandas_dtype())
-    return raw[indices.offset : indices.offset + len(indices)].astype(np.int64)
+    return raw[indices.offset : indices.offset + len(indices)]
 
 
 def key_codes(keys: pa.Table) -> np.ndarray:
-    """An integer per row, equal exactly where the whole keys are equal (nulls equal to nulls,
-    as in pandas' `duplicated`).
+    """A non-negative integer per row, equal exactly where the whole keys are equal (nulls equal to
+    nulls, as in pandas' `duplicated`).
 
     Each column is dictionary-encoded and the codes are folded in column by column; when the
     product of the dictionary sizes could overflow, the folded codes are renumbered first.
@@ -188,16 +193,25 @@ def key_codes(keys: pa.Table) -> np.ndarray:
         if span * size >= 1 << 62:
             _, combined = np.unique(combined, return_inverse=True)
             span = int(combined.max()) + 1 if len(combined) else 1
-        combined = combined * size + plain_integers(encoded.indices)
+        if size > 1:  # one value (or none) adds nothing to tell rows apart
+            combined *= size
+            combined += plain_integers(encoded.indices)
         span *= size
     return combined
 
 
 def shared_codes(codes: np.ndarray) -> np.ndarray:
-    """True where a code occurs more than once (one sort, no table as large as the code range)."""
-    ordered = np.sort(codes)
-    repeated = ordered[1:][ordered[1:] == ordered[:-1]]
-    return np.isin(codes, repeated) if len(repeated) else np.zeros(len(codes), bool)
+    """True where a (non-negative) code occurs more than once.
+
+    Codes spanning at most `COUNTED_SPAN` times the rows are counted in one table (one pass, no
+    sort); wider ones are sorted and only the repeated codes searched for.
+    """
+    if len(codes) < 2:
+        return np.zeros(len(codes), bool)
+    span = int(codes.max()) + 1
+    if span <= COUNTED_SPAN * len(codes):
+        return np.bincount(codes, minlength=span)[codes] > 1
+    return repeated_values(codes)
 
 
 def duplicated_rows(keys: pa.Table) -> pa.Array:

@@ -1,10 +1,11 @@
 """Screen a delimited file batch by batch in bounded memory, keys across batches included.
 
-Column checks run per batch (`screen.screen_batch`). Keys need the whole file: below
-`KEYS_IN_MEMORY_BYTES` the key columns are kept (a small share of the file) and compared exactly;
-above it each key is hashed to 64 bits, the hashes are spilled to partition files by their top
-bits, each partition is searched for repeated hashes on its own, and a second pass reads back the
-candidate rows so that only keys that are really equal are reported (a hash collision is dropped).
+Column checks run per batch (`screen.screen_batch`). Keys need the whole file: each batch's keys
+are hashed to 64 bits (`key_hash`); below `KEYS_IN_MEMORY_BYTES` the hashes are kept in memory
+(8 bytes a row), above it they are spilled to partition files by their top bits and each partition
+is searched for repeated hashes on its own. Either way a second pass reads back the candidate rows
+and compares their keys exactly, so only keys that are really equal are reported (a hash collision
+is dropped).
 """
 
 from __future__ import annotations
@@ -17,14 +18,13 @@ from pathlib import Path
 from typing import Any
 
 import numpy as np
-import pandas as pd
 import pyarrow as pa
-import pyarrow.compute as pc
 import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.limits import DEFAULT_LIMITS
-from linter.scale.screen import duplicated_rows, key_codes, screen_batch, shared_codes
+from linter.scale.key_hash import repeated_values, row_hashes
+from linter.scale.screen import key_codes, screen_batch, shared_codes
 from linter.table import unique_labels
 
 BATCH_BYTES = 16 * 1024 * 1024
@@ -34,7 +34,6 @@ PARTITION_ROWS = 4_000_000
 """Rows per hash partition, so one partition (16 bytes a row) stays near 64 MB."""
 LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
 """UTF-8 needs at most 4 bytes a character."""
-NULL_HASH = np.uint64(0x9E3779B97F4A7C15)
 
 Progress = Callable[[int], None]
 """Told the number of body rows just screened."""
@@ -185,30 +184,12 @@ def text_batches(
                 return
 
 
-def _mix(values: np.ndarray) -> np.ndarray:
-    """splitmix64's finaliser: spreads every input bit over the 64-bit hash."""
-    with np.errstate(over="ignore"):
-        values = (values ^ (values >> np.uint64(30))) * np.uint64(0xBF58476D1CE4E5B9)
-        values = (values ^ (values >> np.uint64(27))) * np.uint64(0x94D049BB133111EB)
-        return values ^ (values >> np.uint64(31))
-
-
 def key_hashes(keys: pa.Table) -> np.ndarray:
-    """A 64-bit hash per row of the whole key; equal keys hash equal, unequal ones almost never."""
-    combined = np.zeros(keys.num_rows, np.uint64)
-    for name in keys.column_names:
-        column = keys.column(name)
-        if pa.types.is_floating(column.type):
-            column = pc.add(column, 0.0)
-        encoded = pc.dictionary_encode(column.combine_chunks(), null_encoding="encode")
-        words = encoded.dictionary.to_numpy(zero_copy_only=False)
-        values = pd.util.hash_array(np.asarray(words, dtype=object), categorize=False)
-        values = np.where(pd.isna(words), NULL_HASH, values).astype(np.uint64)
-        raw = np.frombuffer(encoded.indices.buffers()[1], dtype=encoded.indices.type.to_pandas_dtype())
-        codes = raw[encoded.indices.offset : encoded.indices.offset + len(encoded.indices)]
-        with np.errstate(over="ignore"):
-            combined = _mix(combined * np.uint64(0x100000001B3) + values[codes])
-    return combined
+    """A 64-bit hash per row of the whole key; equal keys hash equal, unequal ones almost never.
+
+    A row's hash depends on that row alone (`key_hash.row_hashes`), so batches hashed apart agree.
+    """
+    return row_hashes(keys)
 
 
 class HashSpill:
@@ -237,10 +218,9 @@ class HashSpill:
         for handle in self.files:
             handle.close()
             pairs = np.fromfile(handle.name, np.uint64).reshape(-1, 2)
-            hashes = np.sort(pairs[:, 0])
-            repeated = np.unique(hashes[1:][hashes[1:] == hashes[:-1]])
-            if len(repeated):
-                found.append(pairs[np.isin(pairs[:, 0], repeated), 1].astype(np.int64))
+            repeated = repeated_values(pairs[:, 0])
+            if repeated.any():
+                found.append(pairs[repeated, 1].astype(np.int64))
         return np.sort(np.concatenate(found)) if found else np.array([], np.int64)
 
 
@@ -267,7 +247,7 @@ def screen_stream(
     labels: list[str] = []
     kept: list[pa.Table] = []
     kept_positions: list[np.ndarray] = []
-    key_parts: list[pa.Table] = []
+    key_parts: list[np.ndarray] = []  # 64-bit key hashes, 8 bytes a row instead of the key texts
     suspect_parts: list[np.ndarray] = []
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
@@ -292,7 +272,7 @@ def screen_stream(
                 kept_positions.append(chosen + start)
             if screened.keys.num_columns:
                 if spill is None:
-                    key_parts.append(screened.keys)
+                    key_parts.append(key_hashes(screened.keys))
                 else:
                     spill.add(key_hashes(screened.keys), start)
             start += body.num_rows
@@ -337,7 +317,7 @@ class Duplicates:
 
 
 def _exact_duplicates(
-    key_parts: list[pa.Table],
+    key_parts: list[np.ndarray],
     spill: HashSpill | None,
     path: str,
     contract: TableContract,
@@ -346,26 +326,24 @@ def _exact_duplicates(
     labels: list[str],
     spans: Sequence[Span],
 ) -> Duplicates:
-    """Rows sharing a key: exactly from kept keys, or from spilled hashes verified on the rows."""
+    """Rows sharing a key: rows whose kept or spilled hash repeats, verified on the rows themselves."""
     empty = Duplicates(
         np.array([], np.int64), pa.table({label: pa.array([], pa.string()) for label in labels})
     )
     if spill is None:
         if not key_parts:
             return empty
-        candidates = duplicated_rows(pa.concat_tables(key_parts)).to_numpy()
+        candidates = np.flatnonzero(repeated_values(np.concatenate(key_parts)))
     else:
         candidates = spill.candidates()
     if not len(candidates):
         return empty
     rows = _rows_at(path, delimiter, width, labels, candidates, spans)
-    if spill is not None:
-        # Verify: only candidates whose keys are really equal (as the engine compares them) stay.
-        keys = screen_batch(rows, contract).keys
-        codes = key_codes(keys)
-        real = shared_codes(codes)
-        return Duplicates(candidates[real], rows.filter(pa.array(real)))
-    return Duplicates(candidates, rows)
+    # Verify: only candidates whose keys are really equal (as the engine compares them) stay,
+    # so a hash collision is dropped. Only the key columns need judging again.
+    keys = screen_batch(rows.select([n for n in rows.column_names if n in contract.keys]), contract).keys
+    real = shared_codes(key_codes(keys))
+    return Duplicates(candidates[real], rows.filter(pa.array(real)))
 
 
 def _rows_at(
