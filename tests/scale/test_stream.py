@@ -40,11 +40,30 @@ def test_small_batches_give_the_ordinary_findings(broken_file, contract_file, mo
     assert fast_findings(broken_file, contract_file, monkeypatch, spill) == expected
 
 
-def test_hash_collisions_are_verified_away(broken_file, contract_file, monkeypatch):
+@pytest.mark.parametrize("spill", [False, True])
+def test_hash_collisions_are_verified_away(broken_file, contract_file, monkeypatch, spill):
     expected = findings_of(broken_file, contract_file)
     # Every key hashes alike, so every row is a candidate: only really equal keys may survive.
     monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
-    assert fast_findings(broken_file, contract_file, monkeypatch, spill=True) == expected
+    assert fast_findings(broken_file, contract_file, monkeypatch, spill=spill) == expected
+
+
+@pytest.mark.parametrize("spill", [False, True])
+def test_keys_repeated_across_batches_are_found_exactly(tmp_path, contract_file, monkeypatch, spill):
+    # Body row 0 repeats in the last batch (row 400); rows 150-151 lack a sample id (suspects, kept
+    # anyway). The forced collision makes every row a candidate: only the exact comparison decides.
+    lines = [f"S{n:07d},VB-001,2026-03-02,NITRATE,1.5,1,,HERON" for n in range(400)]
+    lines[150] = lines[151] = ",VB-001,2026-03-02,NITRATE,1.5,1,,HERON"
+    lines.append(lines[0])
+    path = tmp_path / "results-2026-05.csv"
+    path.write_text(
+        "sample_id,site_id,sampled_on,analyte,result,replicate,qualifier,lab\n" + "\n".join(lines) + "\n"
+    )
+    monkeypatch.setattr(stream, "BATCH_BYTES", 4096)
+    monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
+    contract = load_contract(str(contract_file)).tables[0]
+    found = screen_stream(str(path), contract, ",", 8, 0, keys_in_memory=not spill)
+    assert found.positions == (0, 150, 151, 400)
 
 
 def test_progress_is_told_every_row_once(broken_file, contract_file, monkeypatch):

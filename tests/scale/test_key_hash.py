@@ -1,0 +1,120 @@
+"""Duplicate-key search: per-batch 64-bit hashes, exact codes (counted or sorted), pandas as reference."""
+
+from __future__ import annotations
+
+from collections import Counter
+
+import numpy as np
+import pandas as pd
+import pyarrow as pa
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from linter.scale import screen
+from linter.scale.key_hash import column_hashes, repeated_values, row_hashes
+from linter.scale.screen import duplicated_rows, key_codes, shared_codes
+
+
+def repeated_by_counting(values: list[object]) -> list[bool]:
+    counts = Counter(values)
+    return [counts[v] > 1 for v in values]
+
+
+def test_a_text_hashes_alike_whatever_else_is_in_its_batch():
+    # Batches differ in their longest cell, their nulls, their slicing and their chunks.
+    alone = column_hashes(pa.array(["S0000001", "NITRATE", "Vell Basin weir, lower reach", "é"]))
+    wide = column_hashes(
+        pa.array(["x" * 70, "S0000001", None, "NITRATE", "é", "Vell Basin weir, lower reach"])
+    )
+    sliced = column_hashes(
+        pa.array(["", "S0000001", "NITRATE", "Vell Basin weir, lower reach", "é"]).slice(1)
+    )
+    chunked = column_hashes(
+        pa.chunked_array([["S0000001"], ["NITRATE", "Vell Basin weir, lower reach", "é"]])
+    )
+    assert alone.tolist() == [wide[1], wide[3], wide[5], wide[4]] == sliced.tolist() == chunked.tolist()
+
+
+def test_texts_that_differ_in_one_byte_or_a_trailing_nul_hash_apart():
+    texts = ["ab", "ab\x00", "abc", "", "ab" * 9, "ab" * 9 + "c", "Ab" + "ab" * 8, "e", "é"]
+    hashes = column_hashes(pa.array(texts)).tolist()
+    assert len(set(hashes)) == len(texts)
+
+
+def test_nulls_hash_alike_and_minus_zero_is_zero():
+    numbers = column_hashes(pa.array([-0.0, 0.0, None, None, 1.5, float("nan"), float("nan")]))
+    assert numbers[0] == numbers[1] and numbers[2] == numbers[3] and numbers[5] == numbers[6]
+    assert len(set(numbers.tolist())) == 4
+    flags = column_hashes(pa.array([True, None, False, True, None]))
+    assert flags[0] == flags[3] and flags[1] == flags[4] and len(set(flags.tolist())) == 3
+    days = pa.array(pd.to_datetime(["2026-03-02", None, "2026-03-02", "2026-03-03"]))
+    stamps = column_hashes(days)
+    assert stamps[0] == stamps[2] and len(set(stamps.tolist())) == 3
+
+
+def test_row_hashes_follow_the_whole_key_in_column_order():
+    keys = pa.table({"a": ["x", "y", "x", "y"], "b": ["y", "x", "y", "x"]})
+    hashes = row_hashes(keys).tolist()
+    assert hashes[0] == hashes[2] and hashes[1] == hashes[3] and hashes[0] != hashes[1]
+
+
+def test_repeated_values_agree_with_counting():
+    values = np.array([7, 3, 7, 1, 3, 9, 2**63 + 5, 2**63 + 5], np.uint64)
+    assert repeated_values(values).tolist() == repeated_by_counting(values.tolist())
+    assert repeated_values(np.array([4, 5, 6], np.uint64)).tolist() == [False, False, False]
+    assert repeated_values(np.array([4], np.uint64)).tolist() == [False]
+
+
+@pytest.mark.parametrize(
+    "codes",
+    [
+        [0, 1, 0, 2, 3, 3],  # span within the rows: counted
+        [0, 10**12, 5, 10**12, 0, 7],  # span far beyond the rows: sorted
+    ],
+)
+def test_shared_codes_counted_or_sorted_agree_with_counting(codes):
+    array = np.array(codes, np.int64)
+    assert shared_codes(array).tolist() == repeated_by_counting(codes)
+
+
+def test_wide_and_narrow_code_spans_give_the_same_rows(monkeypatch):
+    keys = pa.table({"site": ["VB-001", "VB-002", "VB-001", None, None], "depth": [1.0, 2.0, 1.0, -0.0, 0.0]})
+    counted = duplicated_rows(keys).to_pylist()
+    monkeypatch.setattr(screen, "COUNTED_SPAN", 0)  # every span is "wide": the sort decides
+    assert duplicated_rows(keys).to_pylist() == counted == [0, 2, 3, 4]
+
+
+def test_key_codes_renumber_before_they_overflow():
+    # Three columns of 2**21 distinct values each would fold past 2**62 without renumbering.
+    rows = 2**21
+    column = pa.array(np.arange(rows, dtype=np.float64))
+    keys = pa.table({"a": column, "b": column, "c": column})
+    codes = key_codes(keys)
+    assert codes.min() >= 0 and len(np.unique(codes)) == rows
+
+
+key_texts = st.sampled_from(["S0000001", "S0000002", "NITRATE", "", "é", "S00000010", None])
+key_numbers = st.sampled_from([0.0, -0.0, 1.5, 2.0, None])
+
+
+@settings(max_examples=80, deadline=None)
+@given(st.lists(st.tuples(key_texts, key_numbers, st.booleans()), min_size=0, max_size=60))
+def test_duplicates_agree_with_pandas_duplicated(rows):
+    # Reference: pandas.DataFrame.duplicated(keep=False) (pandas API documentation), the comparison
+    # the engine's unique check makes: nulls equal to nulls, -0.0 equal to 0.0.
+    texts = [r[0] for r in rows]
+    numbers = [r[1] for r in rows]
+    flags = [r[2] for r in rows]
+    frame = pd.DataFrame(
+        {"t": pd.Series(texts, dtype=object), "n": pd.Series(numbers, dtype=float), "f": flags}
+    )
+    expected = [i for i, shared in enumerate(frame.duplicated(keep=False)) if shared]
+    keys = pa.table(
+        {"t": pa.array(texts, pa.string()), "n": pa.array(numbers, pa.float64()), "f": pa.array(flags)}
+    )
+    assert duplicated_rows(keys).to_pylist() == expected
+    # Hashes of the same rows, cut into two batches, name every real duplicate (and here no more).
+    cut = len(rows) // 3
+    hashes = np.concatenate([row_hashes(keys.slice(0, cut)), row_hashes(keys.slice(cut))])
+    assert np.flatnonzero(repeated_values(hashes)).tolist() == expected
