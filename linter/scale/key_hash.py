@@ -21,6 +21,10 @@ NUMBER_TYPES = (pa.types.is_boolean, pa.types.is_floating, pa.types.is_timestamp
 """Column types hashed from their bits (the others through a dictionary of their values)."""
 BYTE_MASKS = np.array([(1 << (8 * kept)) - 1 for kept in range(9)], np.uint64)
 """Little-endian masks keeping the first 0 to 8 bytes of a 64-bit word."""
+FEW_REPEATS = 8
+"""Repeated values are "few" (worth a filter before the search) below one in this many rows."""
+LOW_BITS = 24
+"""At most a 16 MB table of low bits for that filter."""
 TEXT_TYPES = (pa.types.is_string, pa.types.is_large_string, pa.types.is_binary, pa.types.is_large_binary)
 """Column types hashed from their bytes."""
 
@@ -154,8 +158,19 @@ def row_hashes(keys: pa.Table) -> np.ndarray:
     return mix(combined)
 
 
+def _members(values: np.ndarray, sorted_set: np.ndarray) -> np.ndarray:
+    """True where a value is in `sorted_set` (non-empty, sorted, distinct)."""
+    found = np.minimum(np.searchsorted(sorted_set, values), len(sorted_set) - 1)
+    return sorted_set[found] == values
+
+
 def repeated_values(values: np.ndarray) -> np.ndarray:
-    """True where a value occurs more than once (one sort, then a search among the repeats only)."""
+    """True where a (non-negative) value occurs more than once.
+
+    One sort finds the repeated values. Searching every row among them is slow (a binary search
+    a row), so when they are few a small table of their low bits first picks the rows that may be
+    one of them, and only those are searched.
+    """
     if len(values) < 2:
         return np.zeros(len(values), bool)
     ordered = np.sort(values)
@@ -163,5 +178,13 @@ def repeated_values(values: np.ndarray) -> np.ndarray:
     if not twice.any():
         return np.zeros(len(values), bool)
     repeats = np.unique(ordered[1:][twice])
-    found = np.minimum(np.searchsorted(repeats, values), len(repeats) - 1)
-    return repeats[found] == values
+    if len(repeats) * FEW_REPEATS > len(values):
+        return _members(values, repeats)
+    bits = min(LOW_BITS, max(8, int(len(repeats) * 16).bit_length()))
+    low = values.dtype.type((1 << bits) - 1)
+    table = np.zeros(1 << bits, bool)
+    table[repeats & low] = True
+    maybe = np.flatnonzero(table[values & low])
+    found = np.zeros(len(values), bool)
+    found[maybe] = _members(values[maybe], repeats)
+    return found

@@ -118,3 +118,13 @@ def test_duplicates_agree_with_pandas_duplicated(rows):
     cut = len(rows) // 3
     hashes = np.concatenate([row_hashes(keys.slice(0, cut)), row_hashes(keys.slice(cut))])
     assert np.flatnonzero(repeated_values(hashes)).tolist() == expected
+
+
+def test_few_repeats_among_many_values_are_filtered_then_searched_exactly():
+    # Every value shares its low 24 bits with the others, so the low-bits filter passes them all:
+    # the exact search behind it must still keep only the real repeats.
+    values = np.arange(1, 1001, dtype=np.uint64) << np.uint64(24)
+    values[[10, 500]] = values[3]
+    values[999] = values[998]
+    assert repeated_values(values).tolist() == repeated_by_counting(values.tolist())
+    assert repeated_values(values).sum() == 5
