@@ -141,7 +141,7 @@ def missing_cells(
 ) -> np.ndarray:
     """Empty cells and cells whose trimmed text is a missing-value code, as `missing_mask` does."""
     trimmed = trimmed_text(text) if trimmed is None else trimmed
-    codes_set = pa.array(sorted({c.strip() for c in codes} | {""}), pa.string())
+    codes_set = pa.array(sorted({c.strip() for c in codes}), pa.string())
     return _flat(pc.is_null(text)) | _flat(pc.is_in(trimmed, value_set=codes_set))
 
 
