@@ -166,19 +166,22 @@ def _bound_ok(values: np.ndarray, variable: Variable, as_date: bool) -> np.ndarr
 
 
 # Each byte of a plain number adds its weight to the cell's sum: dots count in bits 0-4, signs in
-# bits 5-9, anything else from bit 10 on; cells are at most 31 bytes, so the fields never carry.
+# bits 5-9, anything else from bit 10 on; cells are at most 31 bytes, so the fields never carry
+# and every sum of a cell that short fits in 16 bits.
 LONGEST_PLAIN_NUMBER = 31
-NUMBER_WEIGHTS = np.full(256, 1 << 10, np.uint32)
+NUMBER_WEIGHTS = np.full(256, 1 << 10, np.uint16)
 NUMBER_WEIGHTS[ord("0") : ord("9") + 1] = 0
 NUMBER_WEIGHTS[ord(".")] = 1
 NUMBER_WEIGHTS[[ord("+"), ord("-")]] = 1 << 5
 SIGNS = _byte_table(b"+-")
+PLAIN_NUMBER_BYTES = "+-.0123456789"
+"""A censored prefix starting with another character can never start a plain number."""
 
 
 def _cell_sums(weights: np.ndarray, offsets: np.ndarray) -> np.ndarray:
-    """Per cell, the sum of its bytes' weights (uint32 arithmetic: exact for sums below 2**32)."""
-    running = np.zeros(len(weights) + 1, np.uint32)
-    np.cumsum(weights, dtype=np.uint32, out=running[1:])
+    """Per cell, the sum of its bytes' weights, modulo 2**16 (exact for the cells that matter)."""
+    running = np.zeros(len(weights) + 1, np.uint16)
+    np.cumsum(weights, dtype=np.uint16, out=running[1:])
     return running[offsets[1:]] - running[offsets[:-1]]
 
 
@@ -219,7 +222,7 @@ def _numbers(trimmed: pa.ChunkedArray, variable: Variable) -> tuple[np.ndarray, 
     values_parts: list[pa.Array] = []
     for chunk in _chunks(trimmed):
         plain = plain_number_shape(chunk, integer)
-        if variable.censored_prefix:
+        if variable.censored_prefix and variable.censored_prefix[0] in PLAIN_NUMBER_BYTES:
             plain &= ~_flat(pc.starts_with(chunk, variable.censored_prefix))
         plain_parts.append(plain)
         values_parts.append(pc.cast(_with_validity(chunk, plain), pa.float64()))
@@ -335,24 +338,33 @@ def _dates(text: pa.ChunkedArray) -> tuple[np.ndarray, np.ndarray]:
     return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
 
 
+TRIMMED_TYPES = frozenset({VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN})
+"""Types the engine reads from the trimmed text (strings and dates it reads as written)."""
+
+
+def _trimmed_cells(trimmed: pa.ChunkedArray, variable: Variable) -> tuple[np.ndarray, pa.ChunkedArray]:
+    """(passes, typed value) of numbers, integers and booleans, judged on the trimmed text."""
+    if variable.type is VarType.BOOLEAN:
+        words = pc.utf8_lower(trimmed)
+        ok = _flat(pc.string_is_ascii(trimmed)) & _flat(pc.is_in(words, pa.array(BOOLEAN_WORDS)))
+        # As a key, "1" and "true" are the same value to the engine.
+        return ok, pc.is_in(words, pa.array(("true", "1")))
+    plain, values, floats = _numbers(trimmed, variable)
+    return plain & _bound_ok(floats, variable, as_date=False), values
+
+
 def _typed_cells(
-    text: pa.ChunkedArray, variable: Variable, trimmed: pa.ChunkedArray
+    text: pa.ChunkedArray, variable: Variable, trimmed: pa.ChunkedArray | None = None
 ) -> tuple[np.ndarray, pa.Array | pa.ChunkedArray]:
     """(passes, typed value) for a present cell; typed values are null where the screen gives up."""
     kind = variable.type
-    if kind in (VarType.NUMBER, VarType.INTEGER):
-        plain, values, floats = _numbers(trimmed, variable)
-        return plain & _bound_ok(floats, variable, as_date=False), values
+    if kind in TRIMMED_TYPES:
+        return _trimmed_cells(trimmed_text(text) if trimmed is None else trimmed, variable)
     if kind is VarType.DATE:
         # The engine's agreed form is matched on the untrimmed text: '2026-03-02 ' is not a plain date.
         real, stamps = _dates(text)
         typed = pa.array(stamps, pa.timestamp("ns"), mask=~real)
         return real & _bound_ok(stamps, variable, as_date=True), typed
-    if kind is VarType.BOOLEAN:
-        words = pc.utf8_lower(trimmed)
-        ok = _flat(pc.string_is_ascii(trimmed)) & _flat(pc.is_in(words, pa.array(BOOLEAN_WORDS)))
-        # As a key, "1" and "true" are the same value to the engine.
-        return ok, pc.is_in(words, pa.array(("true", "1")))
     ok = _present_text(text)
     if variable.pattern is not None:
         # RE2 and Python's re agree on ASCII text; other text goes to the engine.
@@ -372,7 +384,12 @@ def _engine_keys(
 ) -> pa.Array:
     """Key values of the cells at `rows` exactly as the engine types them (it reads each cell itself)."""
     cells = pd.Series(text.take(pa.array(rows, pa.int64())).to_pylist(), dtype=object)
-    values = convert_column(cells, variable, contract.missing).values
+    try:
+        values = convert_column(cells, variable, contract.missing).values
+    except (TypeError, ValueError, OverflowError):
+        # The engine cannot read these cells either (e.g. an integer beyond int64) and will say so
+        # on these rows, which it judges anyway; null keys only keep more rows for it.
+        return pa.nulls(len(rows), pa.timestamp("ns") if variable.type is VarType.DATE else pa.float64())
     if variable.type is VarType.DATE:
         stamps = values.to_numpy("datetime64[us]")
         inside = (stamps >= np.datetime64(pd.Timestamp.min.ceil("us"))) & (
@@ -406,13 +423,42 @@ def _keyed(
     return pc.if_else(pa.array(given_up), engine.take(pa.array(np.maximum(spread, 0))), typed)
 
 
+def _passing_never_missing(variable: Variable, codes: Sequence[str]) -> bool:
+    """Whether no cell the screen passes can be a missing-value code: then only failing cells need
+    the missing-value look-up. Passing numbers, booleans and dates are their own trimmed text, so
+    trying the codes themselves decides it; a passing category is one of its codes."""
+    stripped = pa.array(sorted({c.strip() for c in codes}), pa.string())
+    if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN, VarType.DATE):
+        return not _typed_cells(pa.chunked_array([stripped], pa.string()), variable)[0].any()
+    if variable.codes is not None:
+        written = pa.array(variable.codes.values, pa.string())
+        return not _flat(pc.is_in(pc.utf8_trim_whitespace(written), value_set=stripped)).any()
+    return False
+
+
+def _missing_among(text: pa.ChunkedArray, codes: Sequence[str], rows: np.ndarray) -> np.ndarray:
+    """Where a cell is missing, looked up only at `rows` (and at null cells); False elsewhere."""
+    missing = ~_present_text(text)
+    look = np.flatnonzero(rows & ~missing)
+    if len(look):
+        cells = pa.chunked_array([text.take(pa.array(look, pa.int64()))], text.type)
+        missing[look] = missing_cells(cells, codes)
+    return missing
+
+
 def _judged(
     text: pa.ChunkedArray, variable: Variable, contract: TableContract
 ) -> tuple[np.ndarray, pa.Array | pa.ChunkedArray]:
     """(clean, key value) for one column: clean where the engine would find nothing in the cell."""
-    trimmed = trimmed_text(text)
-    missing = missing_cells(text, tuple(contract.missing) + tuple(variable.missing), trimmed)
+    codes = tuple(contract.missing) + tuple(variable.missing)
+    trimmed = (
+        trimmed_text(text) if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN) else text
+    )
     passes, typed = _typed_cells(text, variable, trimmed)
+    if _passing_never_missing(variable, codes):
+        missing = _missing_among(text, codes, ~passes)
+    else:
+        missing = missing_cells(text, codes, trimmed_text(text) if trimmed is text else trimmed)
     nullable = variable.nullable and variable.name not in contract.keys
     clean = np.where(missing, nullable, passes)
     if variable.name not in contract.keys:
