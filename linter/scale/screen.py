@@ -385,7 +385,8 @@ def _engine_keys(
     """Key values of the cells at `rows` exactly as the engine types them (it reads each cell itself)."""
     cells = pd.Series(text.take(pa.array(rows, pa.int64())).to_pylist(), dtype=object)
     try:
-        values = convert_column(cells, variable, contract.missing).values
+        with np.errstate(invalid="ignore"):
+            values = convert_column(cells, variable, contract.missing).values
     except (TypeError, ValueError, OverflowError):
         # The engine cannot read these cells either (e.g. an integer beyond int64) and will say so
         # on these rows, which it judges anyway; null keys only keep more rows for it.
@@ -463,7 +464,7 @@ def _judged(
     clean = np.where(missing, nullable, passes)
     if variable.name not in contract.keys:
         return clean, typed
-    keyed = pc.if_else(pa.array(missing), pa.scalar(None, typed.type), typed)
+    keyed = pc.if_else(pa.array(missing), pa.scalar(None, typed.type), typed) if missing.any() else typed
     if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.DATE):
         keyed = _keyed(text, variable, contract, keyed, missing)
     return clean, keyed
