@@ -193,17 +193,12 @@ def plain_number_shape(chunk: pa.Array, integer: bool) -> np.ndarray:
         return np.zeros(len(chunk), bool)
     lengths = np.diff(offsets)
     sums = _cell_sums(NUMBER_WEIGHTS[data], offsets)
-    dots, signs, others = sums & 31, (sums >> 5) & 31, sums >> 10
     leading_sign = SIGNS[data.take(offsets[:-1], mode="clip")]
+    # Less the leading sign's weight, what is left counts the dots alone when nothing else is there.
+    dots = sums - np.where(leading_sign, np.uint16(1 << 5), np.uint16(0))
     longest = LONGEST_PLAIN_INTEGER if integer else LONGEST_PLAIN_NUMBER
-    return (
-        _present(chunk)
-        & (lengths <= longest)
-        & (others == 0)
-        & (signs == leading_sign)
-        & (dots <= (0 if integer else 1))
-        & (lengths > dots + signs)  # at least one digit
-    )
+    plain = (dots <= (0 if integer else 1)) & (lengths <= longest) & (lengths > dots + leading_sign)
+    return plain & _present(chunk) if chunk.null_count else plain
 
 
 def _with_validity(chunk: pa.Array, valid: np.ndarray) -> pa.Array:
