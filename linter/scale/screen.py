@@ -142,7 +142,7 @@ def missing_cells(
     """Empty cells and cells whose trimmed text is a missing-value code, as `missing_mask` does."""
     trimmed = trimmed_text(text) if trimmed is None else trimmed
     codes_set = pa.array(sorted({c.strip() for c in codes}), pa.string())
-    return _flat(pc.is_null(text)) | _flat(pc.is_in(trimmed, value_set=codes_set))
+    return _flat(pc.or_(pc.is_null(text), _falsy(pc.is_in(trimmed, value_set=codes_set))))
 
 
 def _ns_bound(bound: float | str) -> int:
@@ -360,14 +360,15 @@ def _typed_cells(
         real, stamps = _dates(text)
         typed = pa.array(stamps, pa.timestamp("ns"), mask=~real)
         return real & _bound_ok(stamps, variable, as_date=True), typed
-    ok = _present_text(text)
+    # Combined as Arrow bitmaps, turned into numpy once.
+    ok = pc.is_valid(text)
     if variable.pattern is not None:
         # RE2 and Python's re agree on ASCII text; other text goes to the engine.
         matched = pc.match_substring_regex(text, whole_match(variable.pattern))
-        ok &= _flat(pc.string_is_ascii(text)) & _flat(matched)
+        ok = pc.and_(ok, pc.and_(_falsy(pc.string_is_ascii(text)), _falsy(matched)))
     if variable.codes is not None:
-        ok &= _flat(pc.is_in(text, pa.array(variable.codes.values, pa.string())))
-    return ok, text
+        ok = pc.and_(ok, _falsy(pc.is_in(text, pa.array(variable.codes.values, pa.string()))))
+    return _flat(ok), text
 
 
 def _present_text(text: pa.ChunkedArray) -> np.ndarray:
