@@ -86,15 +86,31 @@ def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tup
     return reason, suggestion
 
 
+INT64_DIGITS = 18
+"""Every integer of at most this many digits fits in 64 bits; longer ones are checked exactly."""
+
+
+def _fits_int64(cell: str) -> bool:
+    digits = cell.lstrip("+-").lstrip("0")
+    if len(digits) <= INT64_DIGITS:
+        return True
+    return len(digits) == INT64_DIGITS + 1 and -(2**63) <= int(cell) <= 2**63 - 1
+
+
 def _numbers(
     text: pd.Series, present: pd.Series, unit: str | None, integer: bool
 ) -> tuple[pd.Series, pd.Series, pd.Series]:
     trimmed = text.str.strip()
     good = present & trimmed.str.match(PLAIN_INTEGER if integer else PLAIN_NUMBER, na=False)
-    values = pd.to_numeric(trimmed.where(good), errors="coerce")
     reason = pd.Series(None, index=text.index, dtype=object)
+    if integer:
+        # A 64-bit integer column holds whole numbers up to 2**63 - 1; longer ones are named, not cast.
+        huge = good & ~trimmed.where(good, "0").map(_fits_int64, na_action="ignore").astype(bool)
+        reason[huge] = Problem.INTEGER_TOO_LARGE
+        good &= ~huge
+    values = pd.to_numeric(trimmed.where(good), errors="coerce")
     suggestion = pd.Series(None, index=text.index, dtype=object)
-    bad = present & ~good
+    bad = present & ~good & reason.isna()
     if bad.any():  # the usual file is mostly clean: explain only the cells that failed
         reason[bad], suggestion[bad] = _number_problems(trimmed[bad], unit, integer)
     typed = values.astype("Int64") if integer else values.astype("float64")

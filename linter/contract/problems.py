@@ -14,6 +14,7 @@ class Problem(StrEnum):
     UNIT_IN_CELL = "unit-in-cell"
     WRONG_UNIT = "wrong-unit"
     NOT_AN_INTEGER = "not-an-integer"
+    INTEGER_TOO_LARGE = "integer-too-large"
     NOT_A_BOOLEAN = "not-a-boolean"
     NOT_A_DATE = "not-a-date"
     NO_SUCH_DATE = "no-such-date"

@@ -112,6 +112,8 @@ def problem_hint(problem: Problem, found: str, suggestion: object, variable: Var
         Problem.UNIT_IN_CELL: f"write the number alone, {suggestion}; the unit ({unit}) is set by the "
         f"contract, not the cell (found {found!r})",
         Problem.NOT_AN_INTEGER: f"write a whole number (found {found!r})",
+        Problem.INTEGER_TOO_LARGE: f"{found!r} is too long to be one whole number; if it is an "
+        "identifier, the contract should give this column type string",
         Problem.NOT_A_NUMBER: f"write a number such as 0.25 (found {found!r}); leave the cell empty "
         "or use a missing-value code when there is no value",
         Problem.CENSORED_NOT_A_NUMBER: f"write the detection limit after the marker, e.g. "

@@ -189,3 +189,26 @@ def test_thousands_separators_written_by_python_are_undone(numbers: list[float])
     converted = convert_column(cells, RESULT, MISSING)
     assert set(converted.reason) == {Problem.THOUSANDS_SEPARATOR}
     assert converted.suggestion.tolist() == [f"{x:.2f}" for x in numbers]
+
+
+@pytest.mark.parametrize(
+    ("cell", "fits"),
+    [
+        # Source: the two's-complement range of a 64-bit integer, -2**63 to 2**63 - 1 (common practice).
+        ("9223372036854775807", True),
+        ("-9223372036854775808", True),
+        ("9223372036854775808", False),
+        ("00000000000000000000000042", True),  # leading zeros add no value
+        ("9" * 31, False),
+        ("9" * 5000, False),  # longer than Python's int() accepts from text: never parsed
+    ],
+)
+def test_integers_beyond_64_bits_are_named_not_a_crash(cell, fits):
+    variable = Variable("replicate", VarType.INTEGER)
+    converted = convert_column(pd.Series([cell, "2"], dtype=object), variable, ("",))
+    assert converted.reason.tolist()[1] is None and converted.values.tolist()[1] == 2
+    if fits:
+        assert converted.reason.tolist()[0] is None and converted.values.tolist()[0] == int(cell)
+    else:
+        assert converted.reason.tolist()[0] == Problem.INTEGER_TOO_LARGE
+        assert pd.isna(converted.values.tolist()[0])
