@@ -173,6 +173,7 @@ def _bound_ok(values: np.ndarray, variable: Variable, as_date: bool) -> np.ndarr
 # bits 5-9, anything else from bit 10 on; cells are at most 31 bytes, so the fields never carry
 # and every sum of a cell that short fits in 16 bits.
 LONGEST_PLAIN_NUMBER = 31
+SIGNIFICANT_DIGITS = 15
 NUMBER_WEIGHTS = np.full(256, 1 << 10, np.uint16)
 NUMBER_WEIGHTS[ord("0") : ord("9") + 1] = 0
 NUMBER_WEIGHTS[ord(".")] = 1
@@ -201,7 +202,11 @@ def plain_number_shape(chunk: pa.Array, integer: bool) -> np.ndarray:
     # Less the leading sign's weight, what is left counts the dots alone when nothing else is there.
     dots = sums - np.where(leading_sign, np.uint16(1 << 5), np.uint16(0))
     longest = LONGEST_PLAIN_INTEGER if integer else LONGEST_PLAIN_NUMBER
-    plain = (dots <= (0 if integer else 1)) & (lengths <= longest) & (lengths > dots + leading_sign)
+    digits = lengths - dots - leading_sign
+    plain = (dots <= (0 if integer else 1)) & (lengths <= longest) & (digits > 0)
+    # Up to 15 significant digits a double is one exact scaling away from the text, so Arrow's and
+    # pandas' parsers agree to the bit; pandas misrounds some longer ones (1000000000000000.5).
+    plain &= digits <= SIGNIFICANT_DIGITS
     return plain & _present(chunk) if chunk.null_count else plain
 
 

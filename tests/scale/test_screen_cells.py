@@ -18,6 +18,10 @@ from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.scale.screen import Screened, iso_dates, plain_number_shape, screen_batch
 from linter.table import Table, first_row_header
 
+# The suite's examples repeat on every run (a CI failure can be reproduced); the "long" profile of
+# tests/conftest.py draws fresh ones.
+LONG_RUN = settings.default.max_examples > 100
+
 MISSING = ("", "NA", "-999")
 VARIABLES = {
     "result": Variable(
@@ -209,7 +213,7 @@ def judged_alike(cells: list[str | None], variable: Variable) -> None:
 
 
 @pytest.mark.parametrize("name", list(VARIABLES))
-@settings(max_examples=25, deadline=None)
+@settings(max_examples=25, deadline=None, derandomize=not LONG_RUN)
 @given(data=st.data())
 def test_a_cell_the_screen_passes_is_one_the_engine_accepts(name: str, data: st.DataObject) -> None:
     variable = VARIABLES[name]
@@ -219,7 +223,8 @@ def test_a_cell_the_screen_passes_is_one_the_engine_accepts(name: str, data: st.
 
 @given(st.lists(number_texts(), min_size=1, max_size=20))
 @example(["1.5", "15e-1", "<1.5", " 1.50 ", "+1.5"])  # one key value written five ways
-@settings(max_examples=40, deadline=None)
+@example(["+1000000000000000.5"])  # 17 significant digits: pandas reads ...0.4, Arrow ...0.5
+@settings(max_examples=40, deadline=None, derandomize=not LONG_RUN)
 def test_number_keys_are_typed_as_the_engine_types_them(cells: list[str]) -> None:
     judged_alike(cells, VARIABLES["result"])
 
@@ -227,8 +232,9 @@ def test_number_keys_are_typed_as_the_engine_types_them(cells: list[str]) -> Non
 def test_the_screen_passes_plain_forms_and_leaves_the_rest() -> None:
     # The property above would also hold for a screen that passes nothing: pin down what passes.
     numbers = pa.array(
-        ["12.5", "-3", "+.5", "7.", "1e5", "1.2.3", "--1", "١٢", "", ".", "5-", "1" * 31, "1" * 32]
+        ["12.5", "-3", "+.5", "7.", "1e5", "1.2.3", "--1", "١٢", "", ".", "5-", "1" * 15, "1" * 16]
     )
+    # At most 15 significant digits pass (see SIGNIFICANT_DIGITS): longer ones go to the engine.
     assert plain_number_shape(numbers, integer=False).tolist() == [True] * 4 + [False] * 7 + [True, False]
     integers = pa.array(["-12", "12.0", "1" * 15, "1" * 16, "+", "0"])
     assert plain_number_shape(integers, integer=True).tolist() == [True, False, True, False, False, True]
