@@ -22,6 +22,7 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
+from linter.scale.memory import reuse_freed_memory
 from linter.scale.screen import unscreenable
 from linter.scale.stream import KEYS_IN_MEMORY_BYTES, LineScan, StreamResult, screen_stream
 from linter.table import Table
@@ -157,6 +158,7 @@ def read_screened(
     plain = plain_file(path)
     if plain is None:
         return None
+    reuse_freed_memory()
     scan = LineScan()
 
     def rows_read(rows: int) -> None:

@@ -12,10 +12,12 @@ from __future__ import annotations
 
 import hashlib
 import tempfile
+import threading
 from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Any
+from queue import Full, Queue
+from typing import Any, TypeVar
 
 import numpy as np
 import pyarrow as pa
@@ -231,6 +233,48 @@ class HashSpill:
         return np.sort(np.concatenate(found)) if found else np.array([], np.int64)
 
 
+T = TypeVar("T")
+
+
+def read_ahead(items: Iterator[T], depth: int = 1) -> Iterator[T]:
+    """`items`, produced in a thread up to `depth` ahead of the consumer.
+
+    Reading and parsing the next batch (Arrow releases the GIL) overlaps with judging this one;
+    at most `depth + 1` batches are in memory. An error in the producer is raised here, in order.
+    """
+    queue: Queue[tuple[bool, Any]] = Queue(maxsize=depth)
+    stop = threading.Event()
+
+    def produce() -> None:
+        try:
+            for item in items:
+                while not stop.is_set():
+                    try:
+                        queue.put((True, item), timeout=0.1)
+                        break
+                    except Full:
+                        continue
+                if stop.is_set():
+                    return
+            queue.put((False, None))
+        except BaseException as error:  # handed to the consumer, which raises it
+            queue.put((False, error))
+
+    worker = threading.Thread(target=produce, name="weir-read-ahead", daemon=True)
+    worker.start()
+    try:
+        while True:
+            more, item = queue.get()
+            if not more:
+                if item is not None:
+                    raise item
+                return
+            yield item
+    finally:
+        stop.set()
+        worker.join()
+
+
 def _take(table: pa.Table, positions: np.ndarray) -> pa.Table:
     return table.take(pa.array(positions, pa.int64()))
 
@@ -259,7 +303,7 @@ def screen_stream(
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
         spill: HashSpill | None = None
-        for piece in text_batches(path, delimiter, width, scan=scan):
+        for piece in read_ahead(text_batches(path, delimiter, width, scan=scan)):
             batch = piece.table
             spans.append(piece.span)
             if not names:

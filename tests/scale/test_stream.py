@@ -136,3 +136,31 @@ def test_line_scan_counts_lines_and_hashes_the_bytes_it_is_shown():
     bare = stream.LineScan()
     bare.add(b"a,b\r1,2\n")
     assert not bare.plain and not bare.rows_agree(1)
+
+
+def test_read_ahead_keeps_order_raises_in_order_and_stops_with_its_consumer():
+    assert list(stream.read_ahead(iter(range(50)), depth=2)) == list(range(50))
+
+    def failing():
+        yield 1
+        yield 2
+        raise ValueError("broken batch")
+
+    seen: list[int] = []
+    with pytest.raises(ValueError, match="broken batch"):
+        for item in stream.read_ahead(failing()):
+            seen.append(item)
+    assert seen == [1, 2]
+    produced: list[int] = []
+
+    def endless():
+        n = 0
+        while True:
+            produced.append(n)
+            yield n
+            n += 1
+
+    ahead = stream.read_ahead(endless(), depth=1)
+    assert next(ahead) == 0
+    ahead.close()  # the consumer stops: the producer thread must end, not block forever
+    assert len(produced) <= 4
