@@ -21,13 +21,12 @@ from __future__ import annotations
 import argparse
 import json
 import os
-import subprocess
 import sys
 import textwrap
 from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).parent))
-from scale import PEAK_RESIDENT_MB
+from scale import PEAK_RESIDENT_MB, best_of_processes
 
 BATCH_ROWS = 310_000
 """About the rows of one 16 MB batch of the scale benchmark's file."""
@@ -102,22 +101,7 @@ def measure(how: str, rows: int, share: float, repeat: int, source: str | None) 
     environment = dict(os.environ)
     if source is not None:
         environment["PYTHONPATH"] = source
-    best: dict[str, float] | None = None
-    for _ in range(repeat):
-        done = subprocess.run(
-            [sys.executable, "-c", MEASURE, str(rows), str(share), str(BATCH_ROWS), how],
-            capture_output=True,
-            text=True,
-            check=False,
-            env=environment,
-        )
-        if done.returncode != 0:
-            raise SystemExit(f"{how} failed: {done.stderr.strip().splitlines()[-1:]}")
-        result = json.loads(done.stdout.strip().splitlines()[-1])
-        if best is None or result["seconds"] < best["seconds"]:
-            best = {**result, "peak_mb": max(result["peak_mb"], best["peak_mb"] if best else 0.0)}
-    assert best is not None
-    return best
+    return best_of_processes([MEASURE, str(rows), str(share), str(BATCH_ROWS), how], how, repeat, environment)
 
 
 def main() -> None:

@@ -222,24 +222,29 @@ MEASURE = PEAK_RESIDENT_MB + textwrap.dedent(
 )
 
 
-def measure(path: Path, contract: Path, how: str, repeat: int) -> dict[str, float]:
-    """Best time of `repeat` fresh processes, with the largest peak memory among them."""
+def best_of_processes(
+    arguments: list[str], label: str, repeat: int, environment: dict[str, str] | None = None
+) -> dict[str, float]:
+    """Run `python -c MEASURING_SOURCE ...` `repeat` times in fresh processes; the fastest run's
+    result, with the largest peak memory among the runs."""
     best: dict[str, float] | None = None
     for _ in range(repeat):
         done = subprocess.run(
-            [sys.executable, "-c", MEASURE, str(path), str(contract), how],
-            capture_output=True,
-            text=True,
-            check=False,
+            [sys.executable, "-c", *arguments], capture_output=True, text=True, check=False, env=environment
         )
         if done.returncode != 0:
-            raise SystemExit(f"{how} failed: {done.stderr.strip().splitlines()[-1:]}")
+            raise SystemExit(f"{label} failed: {done.stderr.strip().splitlines()[-1:]}")
         result = json.loads(done.stdout.strip().splitlines()[-1])
         if best is None or result["seconds"] < best["seconds"]:
             peak = max(result["peak_mb"], best["peak_mb"] if best else 0.0)
             best = {**result, "peak_mb": peak}
     assert best is not None
     return best
+
+
+def measure(path: Path, contract: Path, how: str, repeat: int) -> dict[str, float]:
+    """Best time of `repeat` fresh processes, with the largest peak memory among them."""
+    return best_of_processes([MEASURE, str(path), str(contract), how], how, repeat)
 
 
 def polars_available() -> bool:

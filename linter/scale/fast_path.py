@@ -18,7 +18,6 @@ from pathlib import PurePath
 
 import pandas as pd
 import pyarrow as pa
-import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
@@ -66,22 +65,6 @@ def plain_head(path: str) -> tuple[str, str] | None:
         return None
     delimiter = choose_delimiter(sample, complete=False, prefer_tab=PurePath(path).suffix.lower() == ".tsv")
     return delimiter, sample.split("\n", 1)[0]
-
-
-def read_text_columns(path: str, delimiter: str, width: int) -> pa.Table | None:
-    """Every cell as text (empty -> null), header row included as row 0; None if Arrow refuses."""
-    names = [f"c{i}" for i in range(width)]
-    try:
-        return pacsv.read_csv(
-            path,
-            read_options=pacsv.ReadOptions(column_names=names, block_size=8 << 20),
-            parse_options=pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
-            convert_options=pacsv.ConvertOptions(
-                column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
-            ),
-        )
-    except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
-        return None
 
 
 def grid_of(columns: pa.Table) -> pd.DataFrame:

@@ -14,8 +14,9 @@ from linter.contract.load import load_contract
 from linter.findings import Finding
 from linter.report.model import Report
 from linter.scale import fast_path
-from linter.scale.fast_path import read_screened, read_text_columns
+from linter.scale.fast_path import read_screened
 from linter.scale.screen import duplicated_rows
+from linter.scale.stream import text_batches
 
 # Rules that judge cells and keys row by row: the fast path must reproduce them exactly.
 ROW_RULES = ("values.", "keys.", "columns.", "header.")
@@ -84,8 +85,7 @@ def test_arrow_cells_equal_python_csv_on_rfc4180_examples(tmp_path):
     text = 'aaa,"b,bb",ccc\nzzz,"y""yy",xxx\n"",plain,"q"\n'
     path = tmp_path / "rfc.csv"
     path.write_text(text, encoding="utf-8")
-    arrow = read_text_columns(str(path), ",", 3)
-    assert arrow is not None
+    arrow = pa.concat_tables(piece.table for piece in text_batches(str(path), ",", 3))
     expected = [[c if c != "" else None for c in row] for row in csv.reader(text.splitlines())]
     assert [list(r.values()) for r in arrow.to_pylist()] == expected
 
