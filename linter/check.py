@@ -22,7 +22,7 @@ from linter.report.excerpt import EXCERPT_ROWS, attach_excerpts
 from linter.report.model import Report, TableResult
 from linter.rules.registry import CONTRACT_ONLY, INSPECTORS, ROW_WISE, SUBMISSION_INSPECTORS
 from linter.rules.subject import Subject
-from linter.scale.fast_path import read_screened
+from linter.scale.fast_path import Part, read_screened
 from linter.table import Frame, Table, first_row_header
 from linter.template.returned import sheet_owner, template_parts_removed
 
@@ -42,35 +42,50 @@ class Governed:
     """A table read from a submitted file, with the contract table that governs it (if any)."""
 
     table: Table
+    """The whole table; for a pre-screened file its header and leading rows (the sample)."""
     contract: Contract | None
     rules: TableContract | None
     sha256: str
     rows: int | None = None
-    """Body rows in the file when `table` holds only the rows a pre-screen kept (large files)."""
-    sample: Table | None = None
-    """For a pre-screened file, its header and leading rows: what whole-table inspectors see,
-    while `table` holds the rows the screen could not pass, for the row-wise ones."""
+    """Body rows in the file when `table` holds only the leading rows a pre-screen kept."""
+    parts: tuple[Part, ...] | None = None
+    """For a pre-screened file, what the row-wise inspectors judge instead of `table`."""
 
     def subjects(self, others: Mapping[str, Frame] | None = None) -> Subjects:
         """What row-wise and whole-table inspectors see (one subject unless pre-screened)."""
-        rows = Subject(self.table, first_row_header(self.table), self.rules, others or {})
-        if self.sample is None:
-            return Subjects(rows, rows)
-        return Subjects(rows, Subject(self.sample, first_row_header(self.sample), self.rules, others or {}))
+        whole = Subject(self.table, first_row_header(self.table), self.rules, others or {})
+        if self.parts is None or self.rules is None:
+            return Subjects(whole)
+        rules = self.rules
+        return Subjects(
+            whole,
+            tuple(
+                Subject(p.table, first_row_header(p.table), narrowed(rules, p.columns), others or {})
+                for p in self.parts
+            ),
+        )
+
+
+def narrowed(rules: TableContract, columns: tuple[str, ...]) -> TableContract:
+    """The table contract with only `columns` to judge; the key stays only on the key part."""
+    variables = tuple(v for v in rules.variables if v.name in columns)
+    keyed = any(v.name in rules.keys for v in variables)
+    return replace(rules, variables=variables, keys=rules.keys if keyed else ())
 
 
 @dataclass(frozen=True)
 class Subjects:
-    """One table as its inspectors see it: the same subject twice unless the file was pre-screened."""
+    """One table as its inspectors see it."""
 
-    rows: Subject
-    """For row-wise inspectors: every row, or the rows a pre-screen could not pass."""
     whole: Subject
     """For the inspectors that judge the table as a whole: every row, or the leading sample."""
+    parts: tuple[Subject, ...] | None = None
+    """For the row-wise inspectors of a pre-screened file: each part's rows under the contract
+    narrowed to the part's columns; None when `whole` holds every row (then they judge it)."""
 
     def with_others(self, others: Mapping[str, Frame]) -> Subjects:
-        rows = replace(self.rows, others=others)
-        return Subjects(rows, rows if self.whole is self.rows else replace(self.whole, others=others))
+        parts = None if self.parts is None else tuple(replace(p, others=others) for p in self.parts)
+        return Subjects(replace(self.whole, others=others), parts)
 
 
 def submitted_files(paths: Iterable[str], max_depth: int = MAX_FOLDER_DEPTH) -> list[str]:
@@ -217,7 +232,7 @@ def read_governed(
             screened = read_screened(path, rules, progress=share)
         if screened is not None:
             governed = Governed(
-                screened.table, contract, rules, screened.sha256, screened.rows, screened.sample
+                screened.sample, contract, rules, screened.sha256, screened.rows, screened.parts
             )
             return FileOutcome((governed,))
     sha = file_sha256(path)
@@ -253,21 +268,22 @@ def needs_other_tables(rules: TableContract | None) -> bool:
 
 def inspected(seen: Subjects) -> list[Finding]:
     """Every inspector's findings on one table, excerpts attached from the rows each one saw."""
-    rules = seen.rows.contract
+    rules = seen.whole.contract
     keys = rules.keys if rules else ()
-    if seen.rows is seen.whole:
-        return list(attach_excerpts(run_inspectors(seen.rows), seen.rows.frame, EXCERPT_ROWS, keys))
+    if seen.parts is None:
+        return list(attach_excerpts(run_inspectors(seen.whole), seen.whole.frame, EXCERPT_ROWS, keys))
     # A row-wise inspector finds nothing in no rows: a clean large file needs no engine run.
-    judged = run_inspectors(seen.rows, row_wise=True) if len(seen.rows.frame.rows) else []
     found = [
-        *attach_excerpts(judged, seen.rows.frame, EXCERPT_ROWS, keys),
-        *attach_excerpts(run_inspectors(seen.whole, row_wise=False), seen.whole.frame, EXCERPT_ROWS, keys),
+        f
+        for part in seen.parts
+        for f in attach_excerpts(run_inspectors(part, row_wise=True), part.frame, EXCERPT_ROWS, keys)
     ]
+    found += attach_excerpts(run_inspectors(seen.whole, row_wise=False), seen.whole.frame, EXCERPT_ROWS, keys)
     return sorted(found, key=sort_key)
 
 
 def table_result(g: Governed, seen: Subjects, bounds: Limits) -> TableResult:
-    frame = seen.rows.frame
+    frame = seen.whole.frame
     try:
         with time_limit(bounds.seconds_per_file):
             findings = tuple(inspected(seen))
@@ -330,7 +346,7 @@ def check_paths(
     by_name: dict[str, Frame] = {}
     for g, _ in governed:
         if g.rules is not None:
-            by_name.setdefault(g.rules.name, seen[id(g)].rows.frame)
+            by_name.setdefault(g.rules.name, seen[id(g)].whole.frame)
     for g, done in governed:
         results.append(
             done if done is not None else table_result(g, seen[id(g)].with_others(by_name), bounds)

@@ -107,7 +107,7 @@ def screen_with_dask(
         sample,
         len(to_judge),
     )
-    return screened_table(plain, found, scan.sha256)
+    return screened_table(plain, found, scan.sha256, contract)
 
 
 def _meta(contract: TableContract, names: list[str], labels: list[str]) -> pd.DataFrame:

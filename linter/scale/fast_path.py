@@ -10,12 +10,14 @@ bytes that are not UTF-8) returns None and the file takes the ordinary reader in
 from __future__ import annotations
 
 import csv
+import functools
 import io
 import os
-from collections.abc import Callable
+from collections.abc import Callable, Iterable
 from dataclasses import dataclass
 from pathlib import PurePath
 
+import numpy as np
 import pandas as pd
 import pyarrow as pa
 
@@ -33,11 +35,22 @@ SAMPLE_ROWS = 2000
 
 
 @dataclass(frozen=True)
+class Part:
+    """Rows of a pre-screened file on which only some columns need judging."""
+
+    columns: tuple[str, ...]
+    """The contract variables to judge (the key columns together, any other column on its own)."""
+    table: Table
+    """Header row, the leading sample and the rows where one of `columns` holds a cell the screen
+    could not pass (for the key columns also every row whose key another row shares)."""
+
+
+@dataclass(frozen=True)
 class ScreenedFile:
     """A large file reduced to what needs judging, and what it was reduced from."""
 
-    table: Table
-    """Header row and the rows the engine must judge, with the provider's line numbers."""
+    parts: tuple[Part, ...]
+    """What the row-wise inspectors must judge; none when the screen passed every cell."""
     sample: Table
     """Header row and the file's leading rows, for the inspectors that look at the whole table."""
     rows: int
@@ -46,6 +59,11 @@ class ScreenedFile:
     """Body rows the screen sent to the engine (the sample not counted)."""
     sha256: str
     """Of the whole file, computed in the same pass."""
+
+    @property
+    def judged_rows(self) -> tuple[int, ...]:
+        """Provider row numbers that some part judges, in file order."""
+        return tuple(sorted({n for p in self.parts for n in p.table.row_numbers[1:]}))
 
 
 def plain_head(path: str) -> tuple[str, str] | None:
@@ -94,22 +112,50 @@ def plain_file(path: str) -> PlainFile | None:
     return PlainFile(path, delimiter, len(header))
 
 
-def screened_table(plain: PlainFile, found: StreamResult, sha256: str) -> ScreenedFile:
-    """The rows to judge, and the leading sample, each under the header as an ordinary `Table`.
+def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: TableContract) -> ScreenedFile:
+    """The parts to judge, and the leading sample, each under the header as an ordinary `Table`.
 
-    With nothing to judge the row-wise inspectors see the header alone; otherwise they see the
-    sample too, because some findings quote a good value of the same column as an example, and
-    the file's first good values are in the sample, as they are for the ordinary reader.
+    A clean cell yields no finding from any row-wise rule, so each column is judged only where its
+    own cell is in doubt: the key columns together (with every row whose key is shared), each other
+    column on its own. A part holds the sample too, because some findings quote a good value of
+    the same column as an example, and the file's first good values are in the sample, as they are
+    for the ordinary reader.
     """
-    sample = [i for i, p in enumerate(found.positions) if p < found.sample]
-    judged = list(range(len(found.positions))) if found.judged else []
+    positions = np.asarray(found.positions, np.int64)
+    sample = np.flatnonzero(positions < found.sample)
     return ScreenedFile(
-        _table_of(plain, found, judged), _table_of(plain, found, sample), found.rows, found.suspect, sha256
+        tuple(
+            Part(columns, _table_of(plain, found, np.union1d(sample, np.searchsorted(positions, judged))))
+            for columns, judged in parts_to_judge(found, rules)
+        ),
+        _table_of(plain, found, sample),
+        found.rows,
+        found.suspect,
+        sha256,
     )
 
 
-def _table_of(plain: PlainFile, found: StreamResult, chosen: list[int]) -> Table:
-    """The header and the kept rows at `chosen` (indices into `found.kept`) as a `Table`."""
+def parts_to_judge(found: StreamResult, rules: TableContract) -> list[tuple[tuple[str, ...], np.ndarray]]:
+    """(columns, sorted body positions) of every part with anything to judge."""
+    if found.cells is None:  # only whole rows are known: every column on every kept row
+        every = tuple(v.name for v in rules.variables)
+        return [(every, np.asarray(found.positions, np.int64))] if found.judged else []
+    keys = tuple(k for k in rules.keys if k in found.cells)
+    found_parts = [(keys, np.union1d(found.shared, _union(found.cells[k] for k in keys)))] if keys else []
+    found_parts += [
+        ((v.name,), found.cells[v.name])
+        for v in rules.variables
+        if v.name in found.cells and v.name not in rules.keys
+    ]
+    return [(columns, judged) for columns, judged in found_parts if len(judged)]
+
+
+def _union(parts: Iterable[np.ndarray]) -> np.ndarray:
+    return functools.reduce(np.union1d, parts, np.array([], np.int64))
+
+
+def _table_of(plain: PlainFile, found: StreamResult, chosen: np.ndarray) -> Table:
+    """The header and the kept rows at `chosen` (sorted indices into `found.kept`) as a `Table`."""
     header_grid = pd.DataFrame({i: pd.Series([n or None], dtype=object) for i, n in enumerate(found.names)})
     rows = found.kept.take(pa.array(chosen, pa.int64()))
     grid = pd.concat([header_grid, grid_of(rows)], ignore_index=True)
@@ -118,7 +164,7 @@ def _table_of(plain: PlainFile, found: StreamResult, chosen: list[int]) -> Table
         source=plain.path,
         sheet=None,
         grid=grid,
-        row_numbers=(1, *(found.positions[i] + 2 for i in chosen)),
+        row_numbers=(1, *(found.positions[int(i)] + 2 for i in chosen)),
         format="tsv" if plain.delimiter == "\t" else "csv",
         encoding="utf-8",
         delimiter=plain.delimiter,
@@ -161,4 +207,4 @@ def read_screened(
         )
     except (pa.ArrowInvalid, pa.ArrowNotImplementedError):
         return None  # ragged rows, quoted line breaks, bytes that are not UTF-8: the ordinary reader says
-    return screened_table(plain, found, scan.sha256)
+    return screened_table(plain, found, scan.sha256, contract)

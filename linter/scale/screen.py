@@ -10,7 +10,7 @@ run; a clean row yields no finding from any contract rule, so skipping it change
 from __future__ import annotations
 
 import os
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from concurrent.futures import ThreadPoolExecutor
 from dataclasses import dataclass
 
@@ -72,6 +72,8 @@ class Screened:
 
     suspect: pa.ChunkedArray | pa.Array
     """True where a row has a cell the screen could not pass."""
+    cells: Mapping[str, np.ndarray]
+    """Per present variable, True where its own cell is one the screen could not pass."""
     keys: pa.Table
     """The key columns as the engine compares them (typed where the engine types them)."""
 
@@ -494,8 +496,9 @@ def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
     clean = np.ones(batch.num_rows, bool)
     for column_clean, _ in judged:
         clean &= column_clean
+    cells = {v.name: ~column_clean for v, (column_clean, _) in zip(present, judged, strict=True)}
     keys = {v.name: key for v, (_, key) in zip(present, judged, strict=True) if v.name in contract.keys}
-    return Screened(pa.array(~clean), pa.table(keys) if keys else pa.table({}))
+    return Screened(pa.array(~clean), cells, pa.table(keys) if keys else pa.table({}))
 
 
 def plain_integers(indices: pa.Array) -> np.ndarray:

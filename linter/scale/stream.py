@@ -13,8 +13,8 @@ from __future__ import annotations
 import hashlib
 import tempfile
 import threading
-from collections.abc import Callable, Iterator, Sequence
-from dataclasses import dataclass
+from collections.abc import Callable, Iterator, Mapping, Sequence
+from dataclasses import dataclass, field
 from pathlib import Path
 from queue import Full, Queue
 from typing import Any, TypeVar
@@ -56,6 +56,11 @@ class StreamResult:
     """Leading body rows kept as the sample (positions 0 to sample - 1), judged or not."""
     judged: int
     """Kept rows the engine must judge (a suspect cell or a shared key)."""
+    cells: Mapping[str, np.ndarray] | None = None
+    """Per screened variable, the sorted body positions of its cells the screen could not pass;
+    None when only whole rows are known (then every variable is judged on every judged row)."""
+    shared: np.ndarray = field(default_factory=lambda: np.array([], np.int64))
+    """Sorted body positions of the rows whose whole key another row shares."""
 
 
 class LineScan:
@@ -300,6 +305,7 @@ def screen_stream(
     kept_positions: list[np.ndarray] = []
     key_parts: list[np.ndarray] = []  # 64-bit key hashes, 8 bytes a row instead of the key texts
     suspect_parts: list[np.ndarray] = []
+    cell_parts: dict[str, list[np.ndarray]] = {}
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
         spill: HashSpill | None = None
@@ -316,6 +322,8 @@ def screen_stream(
             screened = screen_batch(body, contract)
             suspect = np.flatnonzero(screened.suspect.to_numpy(zero_copy_only=False))
             suspect_parts.append(suspect + start)
+            for name, cells in screened.cells.items():
+                cell_parts.setdefault(name, []).append(np.flatnonzero(cells) + start)
             sample = np.arange(max(0, min(sample_rows - start, body.num_rows)))
             chosen = np.union1d(sample, suspect).astype(np.int64)
             if len(chosen):
@@ -356,6 +364,8 @@ def screen_stream(
         len(suspects),
         min(sample_rows, start),
         judged,
+        {name: np.concatenate(parts) for name, parts in cell_parts.items()},
+        duplicate.positions,
     )
 
 

@@ -42,7 +42,7 @@ def test_fast_path_finds_exactly_what_the_engine_finds(tmp_path, contract_file, 
     screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
     assert screened is not None and screened.rows == 600
     # The screen really skipped rows, so identity below is not just the same table twice.
-    assert len(screened.table.row_numbers) < 200
+    assert len(screened.judged_rows) < 200
     ordinary, fast = both_paths(path, contract_file, monkeypatch)
     expected = row_findings(ordinary)
     assert len({f.rule for f in expected}) >= 8  # the planted breaks reach many rules
@@ -51,12 +51,38 @@ def test_fast_path_finds_exactly_what_the_engine_finds(tmp_path, contract_file, 
     assert fast.failed == ordinary.failed
 
 
+def test_each_column_is_judged_only_where_its_own_cell_is_in_doubt(tmp_path, contract_file, monkeypatch):
+    rows = lab_rows(400, seed=11)
+    rows[50][4], rows[50][7] = "1,420", "PIKE"  # two broken cells in one row
+    rows[120][2] = "03/02/2026"
+    rows[300] = list(rows[200])  # a shared key ...
+    rows[300][1] = "vb-014"  # ... on a row whose site is broken too
+    rows[310][0] = ""  # an empty key cell
+    path = tmp_path / "results-2026-04.csv"
+    path.write_text(csv_text(rows), encoding="utf-8")
+    screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
+    assert screened is not None
+    sample = (2, 3, 4, 5, 6)  # provider line numbers of the five leading body rows
+    parts = {p.columns: p.table.row_numbers[1:] for p in screened.parts}
+    assert parts == {
+        ("sample_id", "analyte"): (*sample, 202, 302, 312),
+        ("site_id",): (*sample, 302),
+        ("sampled_on",): (*sample, 122),
+        ("result",): (*sample, 52),
+        ("lab",): (*sample, 52),
+    }
+    ordinary, fast = both_paths(path, contract_file, monkeypatch)
+    expected = row_findings(ordinary)
+    assert {f.rule for f in expected} >= {"keys.duplicate", "keys.missing", "values.not-in-code-list"}
+    assert row_findings(fast) == expected
+
+
 def test_clean_file_keeps_only_the_sample(tmp_path, contract_file, monkeypatch):
     path = tmp_path / "results-clean.csv"
     path.write_text(csv_text(lab_rows(300, seed=3)), encoding="utf-8")
     screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
     assert screened is not None
-    assert screened.suspect == 0 and screened.table.row_numbers == (1,)  # nothing to judge
+    assert screened.suspect == 0 and screened.parts == ()  # nothing to judge
     assert screened.sample.row_numbers == (1, 2, 3, 4, 5, 6)
     ordinary, fast = both_paths(path, contract_file, monkeypatch)
     assert row_findings(fast) == row_findings(ordinary) == []
