@@ -62,14 +62,14 @@ MEASURE = PEAK_RESIDENT_MB + textwrap.dedent(
         found = np.flatnonzero(frame.duplicated(keep=False).to_numpy())
         spent = time.perf_counter() - began
     elif how == "kept-keys":
-        from linter.scale.screen import duplicated_rows
+        from linter.scale.key_codes import duplicated_rows
         parts = [key_batch(s) for s in starts]
         began = time.perf_counter()
         found = duplicated_rows(pa.concat_tables(parts)).to_numpy()
         spent = time.perf_counter() - began
     else:
         from linter.scale.key_hash import repeated_values
-        from linter.scale.screen import key_codes, shared_codes
+        from linter.scale.key_codes import key_codes, shared_codes
         from linter.scale.stream import key_hashes
         hashes = []
         for start in starts:

@@ -164,16 +164,16 @@ def _members(values: np.ndarray, sorted_set: np.ndarray) -> np.ndarray:
     return sorted_set[found] == values
 
 
-def repeated_values(values: np.ndarray) -> np.ndarray:
+def repeated_values(values: np.ndarray, ordered: np.ndarray | None = None) -> np.ndarray:
     """True where a (non-negative) value occurs more than once.
 
-    One sort finds the repeated values. Searching every row among them is slow (a binary search
-    a row), so when they are few a small table of their low bits first picks the rows that may be
-    one of them, and only those are searched.
+    One sort finds the repeated values (`ordered`, when given, is `values` sorted already). Searching
+    every row among them is slow (a binary search a row), so when they are few a small table of
+    their low bits first picks the rows that may be one of them, and only those are searched.
     """
     if len(values) < 2:
         return np.zeros(len(values), bool)
-    ordered = np.sort(values)
+    ordered = np.sort(values) if ordered is None else ordered
     twice = ordered[1:] == ordered[:-1]
     if not twice.any():
         return np.zeros(len(values), bool)
@@ -188,3 +188,11 @@ def repeated_values(values: np.ndarray) -> np.ndarray:
     found = np.zeros(len(values), bool)
     found[maybe] = _members(values[maybe], repeats)
     return found
+
+
+def merged_runs(runs: list[np.ndarray]) -> np.ndarray:
+    """Sorted runs (one per batch) as one sorted array: a stable sort merges runs it finds in the
+    input (timsort for 64-bit values), far faster than sorting the whole again."""
+    if not runs:
+        return np.zeros(0, np.uint64)
+    return np.sort(np.concatenate(runs), kind="stable")

@@ -21,18 +21,15 @@ import pyarrow.compute as pc
 
 from linter.contract.convert import convert_column
 from linter.contract.model import TableContract, Variable, VarType
-from linter.scale.key_hash import repeated_values
+from linter.scale.cell_bytes import byte_table, cell_bytes, chunks, falsy, flat, present
+from linter.scale.kernels import PLAIN_NUMBER_BYTES, iso_dates, plain_number_shape
+from linter.scale.patterns import fixed_width_matches, position_tables
 
 SCREENED_TYPES = frozenset(
     {VarType.STRING, VarType.CATEGORY, VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN, VarType.DATE}
 )
 ISO_FORMS = (None, "%Y-%m-%d")
 BOOLEAN_WORDS = ("true", "false", "1", "0")
-# Longer digit strings may overflow int64 in one engine and not the other: leave them to pandera.
-LONGEST_PLAIN_INTEGER = 15
-COUNTED_SPAN = 2
-"""Folded key codes up to this many times the rows are counted in a table (8 bytes a code) instead
-of sorted: at twice the rows the table costs 16 bytes a row, as the sort's copy and mask do."""
 
 
 def whole_match(pattern: str) -> str:
@@ -78,56 +75,14 @@ class Screened:
     """The key columns as the engine compares them (typed where the engine types them)."""
 
 
-def _falsy(array: pa.Array | pa.ChunkedArray) -> pa.Array | pa.ChunkedArray:
-    return pc.fill_null(array, False)
-
-
-def _flat(mask: pa.Array | pa.ChunkedArray) -> np.ndarray:
-    """A boolean Arrow result as a numpy bool array (null counts as False)."""
-    return np.asarray(_falsy(mask).to_numpy(zero_copy_only=False), dtype=bool)
-
-
-def _chunks(text: pa.ChunkedArray | pa.Array) -> list[pa.Array]:
-    if isinstance(text, pa.ChunkedArray):
-        return list(text.chunks) if text.num_chunks else [pa.array([], text.type)]
-    return [text]
-
-
-def _present(chunk: pa.Array) -> np.ndarray:
-    """True where the cell is not null."""
-    if chunk.null_count == 0:
-        return np.ones(len(chunk), bool)
-    return np.asarray(chunk.is_valid().to_numpy(zero_copy_only=False), dtype=bool)
-
-
-def _cell_bytes(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
-    """(offsets, bytes) of one text chunk without copying: cell i is bytes[offsets[i]:offsets[i + 1]]."""
-    buffers = chunk.buffers()
-    if len(chunk) == 0 or buffers[1] is None:
-        return np.zeros(len(chunk) + 1, np.int64), np.zeros(0, np.uint8)
-    width = np.int64 if pa.types.is_large_string(chunk.type) else np.int32
-    offsets = np.frombuffer(buffers[1], width)[chunk.offset : chunk.offset + len(chunk) + 1].astype(np.int64)
-    first, last = int(offsets[0]), int(offsets[-1])
-    data = (
-        np.frombuffer(buffers[2], np.uint8)[first:last] if buffers[2] is not None else np.zeros(0, np.uint8)
-    )
-    return offsets - first, data
-
-
-def _byte_table(members: bytes) -> np.ndarray:
-    table = np.zeros(256, bool)
-    table[list(members)] = True
-    return table
-
-
 # Bytes that are certainly not whitespace to any trimming function: printable ASCII but the space.
-UNTRIMMED = _byte_table(bytes(range(0x21, 0x7F)))
+UNTRIMMED = byte_table(bytes(range(0x21, 0x7F)))
 
 
 def _needs_trim(chunk: pa.Array) -> bool:
     """Whether any non-empty cell starts or ends with a byte trimming might remove (null cells
     included: trimming where nothing needs it only costs time)."""
-    offsets, data = _cell_bytes(chunk)
+    offsets, data = cell_bytes(chunk)
     if len(data) == 0:
         return False
     starts, ends = offsets[:-1], offsets[1:]
@@ -138,7 +93,7 @@ def _needs_trim(chunk: pa.Array) -> bool:
 def trimmed_text(text: pa.ChunkedArray) -> pa.ChunkedArray:
     """Every cell trimmed as the engine trims it; a chunk with no cell to trim is kept as it is."""
     return pa.chunked_array(
-        [pc.utf8_trim_whitespace(c) if _needs_trim(c) else c for c in _chunks(text)], text.type
+        [pc.utf8_trim_whitespace(c) if _needs_trim(c) else c for c in chunks(text)], text.type
     )
 
 
@@ -148,7 +103,7 @@ def missing_cells(
     """Empty cells and cells whose trimmed text is a missing-value code, as `missing_mask` does."""
     trimmed = trimmed_text(text) if trimmed is None else trimmed
     codes_set = pa.array(sorted({c.strip() for c in codes}), pa.string())
-    return _flat(pc.or_(pc.is_null(text), _falsy(pc.is_in(trimmed, value_set=codes_set))))
+    return flat(pc.or_(pc.is_null(text), falsy(pc.is_in(trimmed, value_set=codes_set))))
 
 
 def _ns_bound(bound: float | str) -> int:
@@ -171,47 +126,6 @@ def _bound_ok(values: np.ndarray, variable: Variable, as_date: bool) -> np.ndarr
     return ok
 
 
-# Each byte of a plain number adds its weight to the cell's sum: dots count in bits 0-4, signs in
-# bits 5-9, anything else from bit 10 on; cells are at most 31 bytes, so the fields never carry
-# and every sum of a cell that short fits in 16 bits.
-LONGEST_PLAIN_NUMBER = 31
-SIGNIFICANT_DIGITS = 15
-NUMBER_WEIGHTS = np.full(256, 1 << 10, np.uint16)
-NUMBER_WEIGHTS[ord("0") : ord("9") + 1] = 0
-NUMBER_WEIGHTS[ord(".")] = 1
-NUMBER_WEIGHTS[[ord("+"), ord("-")]] = 1 << 5
-SIGNS = _byte_table(b"+-")
-PLAIN_NUMBER_BYTES = "+-.0123456789"
-"""A censored prefix starting with another character can never start a plain number."""
-
-
-def _cell_sums(weights: np.ndarray, offsets: np.ndarray) -> np.ndarray:
-    """Per cell, the sum of its bytes' weights, modulo 2**16 (exact for the cells that matter)."""
-    running = np.zeros(len(weights) + 1, np.uint16)
-    np.cumsum(weights, dtype=np.uint16, out=running[1:])
-    return running[offsets[1:]] - running[offsets[:-1]]
-
-
-def plain_number_shape(chunk: pa.Array, integer: bool) -> np.ndarray:
-    """True where the (trimmed) cell is ASCII digits with at most one leading sign and, for numbers,
-    at most one dot: a subset of `PLAIN_NUMBER` / `PLAIN_INTEGER` (exponents go to the engine)."""
-    offsets, data = _cell_bytes(chunk)
-    if len(data) == 0:
-        return np.zeros(len(chunk), bool)
-    lengths = np.diff(offsets)
-    sums = _cell_sums(NUMBER_WEIGHTS[data], offsets)
-    leading_sign = SIGNS[data.take(offsets[:-1], mode="clip")]
-    # Less the leading sign's weight, what is left counts the dots alone when nothing else is there.
-    dots = sums - np.where(leading_sign, np.uint16(1 << 5), np.uint16(0))
-    longest = LONGEST_PLAIN_INTEGER if integer else LONGEST_PLAIN_NUMBER
-    digits = lengths - dots - leading_sign
-    plain = (dots <= (0 if integer else 1)) & (lengths <= longest) & (digits > 0)
-    # Up to 15 significant digits a double is one exact scaling away from the text, so Arrow's and
-    # pandas' parsers agree to the bit; pandas misrounds some longer ones (1000000000000000.5).
-    plain &= digits <= SIGNIFICANT_DIGITS
-    return plain & _present(chunk) if chunk.null_count else plain
-
-
 def _with_validity(chunk: pa.Array, valid: np.ndarray) -> pa.Array:
     """The same text cells (same buffers, no copy) with null wherever `valid` is False."""
     bits = np.packbits(np.concatenate([np.zeros(chunk.offset, bool), valid]), bitorder="little")
@@ -226,122 +140,15 @@ def _numbers(trimmed: pa.ChunkedArray, variable: Variable) -> tuple[np.ndarray, 
     integer = variable.type is VarType.INTEGER
     plain_parts: list[np.ndarray] = []
     values_parts: list[pa.Array] = []
-    for chunk in _chunks(trimmed):
+    for chunk in chunks(trimmed):
         plain = plain_number_shape(chunk, integer)
         if variable.censored_prefix and variable.censored_prefix[0] in PLAIN_NUMBER_BYTES:
-            plain &= ~_flat(pc.starts_with(chunk, variable.censored_prefix))
+            plain &= ~flat(pc.starts_with(chunk, variable.censored_prefix))
         plain_parts.append(plain)
         values_parts.append(pc.cast(_with_validity(chunk, plain), pa.float64()))
     values = pa.chunked_array(values_parts, pa.float64())
     plain = np.concatenate(plain_parts)
     return plain, values, np.asarray(values.to_numpy(zero_copy_only=False), dtype=np.float64)
-
-
-# Pandas' nanosecond clock spans 1677-09-21 to 2262-04-11; the screen passes whole years inside it.
-FIRST_YEAR, LAST_YEAR = 1678, 2261
-NS_PER_DAY = 86_400 * 10**9
-
-
-def _days_since_1970(year: np.ndarray, month: np.ndarray, day: np.ndarray) -> np.ndarray:
-    """Days from 1970-01-01 of proleptic Gregorian dates (years from 1 on), in integers only."""
-    year = year - (month <= 2)
-    era = year // 400
-    of_era = year - era * 400
-    of_year = (153 * ((month + 9) % 12) + 2) // 5 + day - 1
-    return era * 146_097 + of_era * 365 + of_era // 4 - of_era // 100 + of_year - 719_468
-
-
-def _calendar() -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """Lookup tables by year (0-9999) and by month * 100 + day (0-9999): leap, year held, first day
-    of the year since 1970, real month and day (29 February included), day of a common year."""
-    years = np.arange(10_000)
-    leap = (years % 4 == 0) & ((years % 100 != 0) | (years % 400 == 0))
-    held = (years >= FIRST_YEAR) & (years <= LAST_YEAR)
-    ones = np.ones_like(years)
-    year_start = _days_since_1970(years, ones, ones)
-    month, day = np.divmod(np.arange(10_000), 100)
-    longest = np.array([0, 31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31])
-    real = (month >= 1) & (month <= 12) & (day >= 1) & (day <= longest[np.clip(month, 0, 12)])
-    common = np.full(10_000, 2001)
-    of_year = _days_since_1970(common, np.clip(month, 1, 12), day) - _days_since_1970(common, ones, ones)
-    of_year = np.where(real, of_year, 0)
-    of_year[LEAP_DAY] = 59  # 31 January days + 28 February days before it
-    return leap, held, year_start, real, of_year
-
-
-LEAP_DAY = 229
-"""29 February as month * 100 + day."""
-LEAP_YEAR, HELD_YEAR, YEAR_START, REAL_MONTH_DAY, DAY_OF_COMMON_YEAR = _calendar()
-
-
-def _lanes(text: bytes) -> int:
-    """Bytes as the little-endian integer they form in memory."""
-    return int.from_bytes(text, "little")
-
-
-# A date's first 8 bytes are read as one uint64 and its last 2 as one uint16. After an XOR with the
-# expected text ('0000-00-' and '00') a digit lane holds 0-9 and a dash lane 0; a lane holds a value
-# below 10 exactly when neither its own top bit nor that of its low 7 bits plus 0x76 is set.
-ZEROS_AND_DASHES = np.uint64(_lanes(b"0000-00-"))
-DASH_LANES = np.uint64(_lanes(b"\0\0\0\0\xff\0\0\xff"))
-LOW_BITS, BELOW_TEN, TOP_BITS = (np.uint64(_lanes(bytes([b]) * 8)) for b in (0x7F, 0x76, 0x80))
-
-
-def _digit_lanes(lanes: np.ndarray) -> np.ndarray:
-    """True where every byte lane of `lanes` (uint64 or uint16) holds a value from 0 to 9."""
-    kind = lanes.dtype.type
-    low, ten, top = (kind(int(c) & int(np.iinfo(kind).max)) for c in (LOW_BITS, BELOW_TEN, TOP_BITS))
-    return ((((lanes & low) + ten) | lanes) & top) == 0
-
-
-def _lane(lanes: np.ndarray, place: int) -> np.ndarray:
-    return ((lanes >> np.uint64(8 * place)) & np.uint64(0xFF)).astype(np.int32)
-
-
-def _date_text(chunk: pa.Array, shaped: np.ndarray) -> np.ndarray:
-    """The bytes of the cells where `shaped` (cells 10 bytes long) side by side, 10 per cell."""
-    offsets, data = _cell_bytes(chunk)
-    rows = np.flatnonzero(shaped)
-    if len(rows) * 10 == len(data):  # every byte belongs to a 10-byte cell: the data is the text
-        return data
-    windows = np.lib.stride_tricks.sliding_window_view(data, 10)
-    return np.ascontiguousarray(windows[offsets[rows]]).reshape(-1)
-
-
-def _read_dates(text: np.ndarray, count: int) -> tuple[np.ndarray, np.ndarray]:
-    """(real date, days since 1970) of `count` 10-byte texts in `text`, exactly YYYY-MM-DD."""
-    head = np.ndarray((count,), "<u8", buffer=text, offset=0, strides=(10,)) ^ ZEROS_AND_DASHES
-    tail = np.ndarray((count,), "<u2", buffer=text, offset=8, strides=(10,)) ^ np.uint16(_lanes(b"00"))
-    ok = _digit_lanes(head & ~DASH_LANES) & ((head & DASH_LANES) == 0) & _digit_lanes(tail)
-    year = _lane(head, 0) * 1000 + _lane(head, 1) * 100 + _lane(head, 2) * 10 + _lane(head, 3)
-    day = tail.astype(np.int32)
-    month_day = _lane(head, 5) * 1000 + _lane(head, 6) * 100 + (day & 0xFF) * 10 + (day >> 8)
-    year, month_day = np.where(ok, year, 0), np.where(ok, month_day, 0)
-    leap = LEAP_YEAR[year]
-    ok &= HELD_YEAR[year] & REAL_MONTH_DAY[month_day] & ((month_day != LEAP_DAY) | leap)
-    days = YEAR_START[year] + DAY_OF_COMMON_YEAR[month_day] + (leap & (month_day > LEAP_DAY))
-    return ok, days
-
-
-def iso_dates(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
-    """(real date, nanoseconds since 1970) of cells written exactly YYYY-MM-DD with ASCII digits,
-    a real day of a real month and a year the nanosecond clock holds; other cells get False, 0."""
-    offsets, _ = _cell_bytes(chunk)
-    shaped = _present(chunk) & (np.diff(offsets) == 10)
-    real = np.zeros(len(chunk), bool)
-    stamps = np.zeros(len(chunk), np.int64)
-    if not shaped.any():
-        return real, stamps
-    ok, days = _read_dates(_date_text(chunk, shaped), int(shaped.sum()))
-    rows = np.flatnonzero(shaped)
-    real[rows] = ok
-    stamps[rows] = np.where(ok, days * NS_PER_DAY, 0)
-    return real, stamps
-
-
-def _dates(text: pa.ChunkedArray) -> tuple[np.ndarray, np.ndarray]:
-    parts = [iso_dates(chunk) for chunk in _chunks(text)]
-    return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])
 
 
 TRIMMED_TYPES = frozenset({VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN})
@@ -352,7 +159,7 @@ def _trimmed_cells(trimmed: pa.ChunkedArray, variable: Variable) -> tuple[np.nda
     """(passes, typed value) of numbers, integers and booleans, judged on the trimmed text."""
     if variable.type is VarType.BOOLEAN:
         words = pc.utf8_lower(trimmed)
-        ok = _flat(pc.string_is_ascii(trimmed)) & _flat(pc.is_in(words, pa.array(BOOLEAN_WORDS)))
+        ok = flat(pc.string_is_ascii(trimmed)) & flat(pc.is_in(words, pa.array(BOOLEAN_WORDS)))
         # As a key, "1" and "true" are the same value to the engine.
         return ok, pc.is_in(words, pa.array(("true", "1")))
     plain, values, floats = _numbers(trimmed, variable)
@@ -373,17 +180,21 @@ def _typed_cells(
         return real & _bound_ok(stamps, variable, as_date=True), typed
     # Combined as Arrow bitmaps, turned into numpy once.
     ok = pc.is_valid(text)
-    if variable.pattern is not None:
+    fixed = None if variable.pattern is None else position_tables(variable.pattern)
+    if variable.pattern is not None and fixed is None:
         # RE2 and Python's re agree on ASCII text; other text goes to the engine.
         matched = pc.match_substring_regex(text, whole_match(variable.pattern))
-        ok = pc.and_(ok, pc.and_(_falsy(pc.string_is_ascii(text)), _falsy(matched)))
+        ok = pc.and_(ok, pc.and_(falsy(pc.string_is_ascii(text)), falsy(matched)))
     if variable.codes is not None:
-        ok = pc.and_(ok, _falsy(pc.is_in(text, pa.array(variable.codes.values, pa.string()))))
-    return _flat(ok), text
+        ok = pc.and_(ok, falsy(pc.is_in(text, pa.array(variable.codes.values, pa.string()))))
+    passes = flat(ok)
+    if fixed is not None:  # a fixed-width pattern: byte tables instead of a regex run per cell
+        passes &= fixed_width_matches(text, fixed)
+    return passes, text
 
 
 def _present_text(text: pa.ChunkedArray) -> np.ndarray:
-    return np.concatenate([_present(chunk) for chunk in _chunks(text)])
+    return np.concatenate([present(chunk) for chunk in chunks(text)])
 
 
 def _engine_keys(
@@ -421,7 +232,7 @@ def _keyed(
 ) -> pa.Array | pa.ChunkedArray:
     """Typed key values, with every present cell the screen could not type read by the engine instead:
     otherwise a key written `1.5e0` (engine 1.5, screen null) would hide its duplicate `1.5`."""
-    given_up = ~missing & ~_flat(pc.is_valid(typed))
+    given_up = ~missing & ~flat(pc.is_valid(typed))
     if not given_up.any():
         return typed
     rows = np.flatnonzero(given_up)
@@ -440,7 +251,7 @@ def _passing_never_missing(variable: Variable, codes: Sequence[str]) -> bool:
         return not _typed_cells(pa.chunked_array([stripped], pa.string()), variable)[0].any()
     if variable.codes is not None:
         written = pa.array(variable.codes.values, pa.string())
-        return not _flat(pc.is_in(pc.utf8_trim_whitespace(written), value_set=stripped)).any()
+        return not flat(pc.is_in(pc.utf8_trim_whitespace(written), value_set=stripped)).any()
     return False
 
 
@@ -480,7 +291,7 @@ def _judged(
 _pools: dict[int, ThreadPoolExecutor] = {}
 
 
-def _pool() -> ThreadPoolExecutor:
+def worker_pool() -> ThreadPoolExecutor:
     """One thread pool per process (a forked child must not use its parent's threads)."""
     pid = os.getpid()
     if pid not in _pools:
@@ -492,7 +303,7 @@ def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
     """Judge every present variable of one batch (columns named as in the header, all text)."""
     present = [v for v in contract.variables if v.name in batch.column_names]
     # Arrow kernels and numpy release the GIL, so columns are judged side by side on the available cores.
-    judged = list(_pool().map(lambda v: _judged(batch.column(v.name), v, contract), present))
+    judged = list(worker_pool().map(lambda v: _judged(batch.column(v.name), v, contract), present))
     clean = np.ones(batch.num_rows, bool)
     for column_clean, _ in judged:
         clean &= column_clean
@@ -501,57 +312,6 @@ def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
     return Screened(pa.array(~clean), cells, pa.table(keys) if keys else pa.table({}))
 
 
-def plain_integers(indices: pa.Array) -> np.ndarray:
-    """Dictionary indices (no nulls) as a NumPy view in their own width, without Arrow's slow
-    nullable conversion and without a copy."""
-    raw = np.frombuffer(indices.buffers()[1], dtype=indices.type.to_pandas_dtype())
-    return raw[indices.offset : indices.offset + len(indices)]
-
-
-def key_codes(keys: pa.Table) -> np.ndarray:
-    """A non-negative integer per row, equal exactly where the whole keys are equal (nulls equal to
-    nulls, as in pandas' `duplicated`).
-
-    Each column is dictionary-encoded and the codes are folded in column by column; when the
-    product of the dictionary sizes could overflow, the folded codes are renumbered first.
-    """
-    combined = np.zeros(keys.num_rows, np.int64)
-    span = 1
-    for name in keys.column_names:
-        column = keys.column(name)
-        if pa.types.is_floating(column.type):
-            column = pc.add(column, 0.0)  # -0.0 + 0.0 is 0.0: equal numbers, one code
-        # One chunk first: chunked input would get one dictionary per chunk.
-        encoded = pc.dictionary_encode(column.combine_chunks(), null_encoding="encode")
-        size = max(1, len(encoded.dictionary))
-        if span * size >= 1 << 62:
-            _, combined = np.unique(combined, return_inverse=True)
-            span = int(combined.max()) + 1 if len(combined) else 1
-        if size > 1:  # one value (or none) adds nothing to tell rows apart
-            combined *= size
-            combined += plain_integers(encoded.indices)
-        span *= size
-    return combined
-
-
-def shared_codes(codes: np.ndarray) -> np.ndarray:
-    """True where a (non-negative) code occurs more than once.
-
-    Codes spanning at most `COUNTED_SPAN` times the rows are counted in one table (one pass, no
-    sort); wider ones are sorted and only the repeated codes searched for.
-    """
-    if len(codes) < 2:
-        return np.zeros(len(codes), bool)
-    span = int(codes.max()) + 1
-    if span <= COUNTED_SPAN * len(codes):
-        return np.bincount(codes, minlength=span)[codes] > 1
-    return repeated_values(codes)
-
-
-def duplicated_rows(keys: pa.Table) -> pa.Array:
-    """Sorted row positions whose whole key is shared with another row."""
-    if keys.num_columns == 0 or keys.num_rows == 0:
-        return pa.array([], pa.int64())
-    codes = key_codes(keys)
-    shared = shared_codes(codes)
-    return pa.array(np.flatnonzero(shared), pa.int64())
+def _dates(text: pa.ChunkedArray) -> tuple[np.ndarray, np.ndarray]:
+    parts = [iso_dates(chunk) for chunk in chunks(text)]
+    return np.concatenate([p[0] for p in parts]), np.concatenate([p[1] for p in parts])

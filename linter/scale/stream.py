@@ -14,6 +14,7 @@ import hashlib
 import tempfile
 import threading
 from collections.abc import Callable, Iterator, Mapping, Sequence
+from concurrent.futures import Future
 from dataclasses import dataclass, field
 from pathlib import Path
 from queue import Full, Queue
@@ -25,8 +26,9 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.read.limits import DEFAULT_LIMITS
-from linter.scale.key_hash import repeated_values, row_hashes
-from linter.scale.screen import key_codes, screen_batch, shared_codes
+from linter.scale.key_codes import key_codes, shared_codes
+from linter.scale.key_hash import merged_runs, repeated_values, row_hashes
+from linter.scale.screen import screen_batch, worker_pool
 from linter.table import unique_labels
 
 BATCH_BYTES = 16 * 1024 * 1024
@@ -304,6 +306,7 @@ def screen_stream(
     kept: list[pa.Table] = []
     kept_positions: list[np.ndarray] = []
     key_parts: list[np.ndarray] = []  # 64-bit key hashes, 8 bytes a row instead of the key texts
+    key_runs: list[Future[np.ndarray]] = []  # each part sorted on a worker while the pass goes on
     suspect_parts: list[np.ndarray] = []
     cell_parts: dict[str, list[np.ndarray]] = {}
     start = 0
@@ -332,6 +335,7 @@ def screen_stream(
             if screened.keys.num_columns:
                 if spill is None:
                     key_parts.append(key_hashes(screened.keys))
+                    key_runs.append(worker_pool().submit(np.sort, key_parts[-1]))
                 else:
                     spill.add(key_hashes(screened.keys), start)
             start += body.num_rows
@@ -339,7 +343,8 @@ def screen_stream(
                 progress(body.num_rows)
         if not scan.rows_agree(start):
             raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
-        duplicate = _exact_duplicates(key_parts, spill, path, contract, delimiter, width, labels, spans)
+        runs = [run.result() for run in key_runs]
+        duplicate = _exact_duplicates(key_parts, runs, spill, path, contract, delimiter, width, labels, spans)
     positions = np.concatenate([*kept_positions, np.array([], np.int64)])
     extra = np.setdiff1d(duplicate.positions, positions)
     tables = [
@@ -379,6 +384,7 @@ class Duplicates:
 
 def _exact_duplicates(
     key_parts: list[np.ndarray],
+    key_runs: list[np.ndarray],
     spill: HashSpill | None,
     path: str,
     contract: TableContract,
@@ -394,7 +400,7 @@ def _exact_duplicates(
     if spill is None:
         if not key_parts:
             return empty
-        candidates = np.flatnonzero(repeated_values(np.concatenate(key_parts)))
+        candidates = np.flatnonzero(repeated_values(np.concatenate(key_parts), merged_runs(key_runs)))
     else:
         candidates = spill.candidates()
     if not len(candidates):

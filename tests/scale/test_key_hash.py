@@ -11,9 +11,9 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from linter.scale import screen
-from linter.scale.key_hash import column_hashes, repeated_values, row_hashes
-from linter.scale.screen import duplicated_rows, key_codes, shared_codes
+from linter.scale import key_codes as key_code_module
+from linter.scale.key_codes import duplicated_rows, key_codes, shared_codes
+from linter.scale.key_hash import column_hashes, merged_runs, repeated_values, row_hashes
 
 
 def repeated_by_counting(values: list[object]) -> list[bool]:
@@ -81,7 +81,7 @@ def test_shared_codes_counted_or_sorted_agree_with_counting(codes):
 def test_wide_and_narrow_code_spans_give_the_same_rows(monkeypatch):
     keys = pa.table({"site": ["VB-001", "VB-002", "VB-001", None, None], "depth": [1.0, 2.0, 1.0, -0.0, 0.0]})
     counted = duplicated_rows(keys).to_pylist()
-    monkeypatch.setattr(screen, "COUNTED_SPAN", 0)  # every span is "wide": the sort decides
+    monkeypatch.setattr(key_code_module, "COUNTED_SPAN", 0)  # every span is "wide": the sort decides
     assert duplicated_rows(keys).to_pylist() == counted == [0, 2, 3, 4]
 
 
@@ -128,3 +128,12 @@ def test_few_repeats_among_many_values_are_filtered_then_searched_exactly():
     values[999] = values[998]
     assert repeated_values(values).tolist() == repeated_by_counting(values.tolist())
     assert repeated_values(values).sum() == 5
+
+
+@given(st.lists(st.lists(st.integers(0, 40), max_size=30), max_size=6))
+def test_batches_sorted_apart_and_merged_find_the_same_repeats(batches):
+    parts = [np.array(b, np.uint64) for b in batches]
+    values = np.concatenate([*parts, np.zeros(0, np.uint64)])
+    merged = merged_runs([np.sort(p) for p in parts])
+    assert merged.tolist() == sorted(values.tolist())  # Reference: Python's sorted
+    assert repeated_values(values, merged).tolist() == repeated_by_counting(values.tolist())

@@ -15,7 +15,8 @@ from hypothesis import strategies as st
 
 from linter.contract.engine import CheckedTable, run_contract
 from linter.contract.model import CodeList, TableContract, Variable, VarType
-from linter.scale.screen import Screened, iso_dates, plain_number_shape, screen_batch
+from linter.scale.kernels import iso_dates, plain_number_shape
+from linter.scale.screen import Screened, screen_batch
 from linter.table import Table, first_row_header
 
 # The suite's examples repeat on every run (a CI failure can be reproduced); the "long" profile of

@@ -1,0 +1,64 @@
+"""Arrow text columns seen as bytes, without copying: what the byte kernels of the screen read."""
+
+from __future__ import annotations
+
+import numpy as np
+import pyarrow as pa
+import pyarrow.compute as pc
+
+
+def falsy(array: pa.Array | pa.ChunkedArray) -> pa.Array | pa.ChunkedArray:
+    """A boolean Arrow result with null read as False."""
+    return pc.fill_null(array, False)
+
+
+def flat(mask: pa.Array | pa.ChunkedArray) -> np.ndarray:
+    """A boolean Arrow result as a numpy bool array (null counts as False)."""
+    return np.asarray(falsy(mask).to_numpy(zero_copy_only=False), dtype=bool)
+
+
+def chunks(text: pa.ChunkedArray | pa.Array) -> list[pa.Array]:
+    if isinstance(text, pa.ChunkedArray):
+        return list(text.chunks) if text.num_chunks else [pa.array([], text.type)]
+    return [text]
+
+
+def present(chunk: pa.Array) -> np.ndarray:
+    """True where the cell is not null."""
+    if chunk.null_count == 0:
+        return np.ones(len(chunk), bool)
+    return np.asarray(chunk.is_valid().to_numpy(zero_copy_only=False), dtype=bool)
+
+
+def cell_bytes(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
+    """(offsets, bytes) of one text chunk without copying: cell i is bytes[offsets[i]:offsets[i + 1]]."""
+    buffers = chunk.buffers()
+    if len(chunk) == 0 or buffers[1] is None:
+        return np.zeros(len(chunk) + 1, np.int64), np.zeros(0, np.uint8)
+    width = np.int64 if pa.types.is_large_string(chunk.type) else np.int32
+    offsets = np.frombuffer(buffers[1], width)[chunk.offset : chunk.offset + len(chunk) + 1].astype(np.int64)
+    first, last = int(offsets[0]), int(offsets[-1])
+    data = (
+        np.frombuffer(buffers[2], np.uint8)[first:last] if buffers[2] is not None else np.zeros(0, np.uint8)
+    )
+    return offsets - first, data
+
+
+def byte_table(members: bytes) -> np.ndarray:
+    """A 256-entry lookup table, True at the given bytes."""
+    table = np.zeros(256, bool)
+    table[list(members)] = True
+    return table
+
+
+def fixed_width_text(chunk: pa.Array, shaped: np.ndarray, width: int) -> np.ndarray:
+    """The bytes of the cells where `shaped` (cells exactly `width` bytes long), side by side:
+    a (cells, width) uint8 matrix, a view of the chunk itself when every cell is such a cell."""
+    offsets, data = cell_bytes(chunk)
+    rows = np.flatnonzero(shaped)
+    if len(rows) * width == len(data):  # every byte belongs to a cell of that width: the data is the text
+        return data.reshape(-1, width) if width else np.zeros((len(rows), 0), np.uint8)
+    if width == 0:
+        return np.zeros((len(rows), 0), np.uint8)
+    windows = np.lib.stride_tricks.sliding_window_view(data, width)
+    return np.ascontiguousarray(windows[offsets[rows]])
