@@ -23,7 +23,7 @@ test: venv
 lint: venv
 	$(BIN)/ruff check linter tests benchmarks fuzz
 	$(BIN)/ruff format --check linter tests benchmarks fuzz
-	$(BIN)/mypy linter
+	$(BIN)/mypy linter benchmarks
 
 format: venv
 	$(BIN)/ruff format linter tests benchmarks

@@ -53,7 +53,7 @@ def invented_chemistry(rows: int, seed: int = 7) -> pd.DataFrame:
     )
 
 
-def timed(task):  # type: ignore[no-untyped-def]
+def timed(task):
     started = time.perf_counter()
     value = task()
     return time.perf_counter() - started, value

@@ -68,7 +68,7 @@ def invented_table(rows: int, seed: int = 1) -> pd.DataFrame:
     return pd.DataFrame(columns)
 
 
-def timed(label: str, work):  # type: ignore[no-untyped-def]
+def timed(label: str, work):
     start = time.perf_counter()
     result = work()
     seconds = time.perf_counter() - start

@@ -41,7 +41,7 @@ def write_wide(path: Path, rows: int) -> None:
         handle.write("Note: provisional counts" + "," * len(years) + "\n")
 
 
-def timed(label: str, action):  # type: ignore[no-untyped-def]
+def timed(label: str, action):
     start = time.perf_counter()
     result = action()
     seconds = time.perf_counter() - start

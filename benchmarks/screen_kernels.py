@@ -32,7 +32,7 @@ from linter.contract.convert import PLAIN_INTEGER, PLAIN_NUMBER
 from linter.contract.dates import ISO_DATE
 from linter.contract.load import load_contract
 from linter.contract.model import TableContract, Variable, VarType
-from linter.scale import screen
+from linter.scale import kernels, screen
 from linter.scale.stream import text_batches
 
 # The regex screen as it was before the byte kernels, kept here as the baseline.
@@ -69,7 +69,7 @@ def regex_typed(text: pa.ChunkedArray, variable: Variable) -> tuple[pa.ChunkedAr
         shape = PLAIN_INTEGER if kind is VarType.INTEGER else PLAIN_NUMBER
         plain = _falsy(pc.match_substring_regex(trimmed, shape))
         if kind is VarType.INTEGER:
-            plain = pc.and_(plain, pc.less_equal(pc.utf8_length(trimmed), screen.LONGEST_PLAIN_INTEGER))
+            plain = pc.and_(plain, pc.less_equal(pc.utf8_length(trimmed), kernels.LONGEST_PLAIN_INTEGER))
         if variable.censored_prefix:
             plain = pc.and_(plain, pc.invert(_falsy(pc.starts_with(trimmed, variable.censored_prefix))))
         values = pc.cast(pc.if_else(plain, trimmed, pa.scalar(None, pa.string())), pa.float64())
@@ -121,7 +121,7 @@ def regex_screen_batch(batch: pa.Table, contract: TableContract) -> screen.Scree
     for clean, _ in judged:
         suspect = pc.or_(suspect, pc.invert(clean))
     keys = {v.name: key for v, (_, key) in zip(present, judged, strict=True) if v.name in contract.keys}
-    return screen.Screened(suspect, pa.table(keys) if keys else pa.table({}))
+    return screen.Screened(suspect, {}, pa.table(keys) if keys else pa.table({}))
 
 
 # Measuring.
@@ -131,7 +131,7 @@ def batches_of(rows: int, broken: float, folder: Path) -> list[pa.Table]:
     """The invented results as the fast path reads them: header-less text batches, empty cells null."""
     path = folder / "results.csv"
     write_csv(synthetic_results(rows, broken, seed=rows), path)
-    found = list(text_batches(str(path), ",", 8))
+    found = [piece.table for piece in text_batches(str(path), ",", 8)]
     path.unlink()
     labels = [str(v) for v in found[0].slice(0, 1).to_pylist()[0].values()]
     found[0] = found[0].slice(1)

@@ -52,7 +52,8 @@ def written(subject: Subject, column: str, rows: Iterable[int]) -> list[str]:
     """The cells of `column` at provider `rows` exactly as written ('' for an empty cell)."""
     positions = pd.Index(subject.frame.rows, dtype="int64").get_indexer(pd.Index(list(rows), dtype="int64"))
     cells = subject.frame.body[column].iloc[positions]
-    return ["" if pd.isna(cell) else str(cell) for cell in cells.tolist()]
+    # Body cells are text or None; `cell != cell` also catches a NaN that slipped in.
+    return ["" if cell is None or cell != cell else str(cell) for cell in cells.tolist()]
 
 
 def examples_from(values: Iterable[str]) -> tuple[str, ...]:

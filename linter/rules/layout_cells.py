@@ -196,6 +196,8 @@ def _crossed_codes(label: str, texts: list[str]) -> dict[str, object] | None:
     if all(is_unit(t) for t in set(texts)):
         return None  # `mg/L` is one unit, not the codes `mg` and `L`
     for sep in SEPARATORS:
+        if not all(t.count(sep) == 1 for t in texts):
+            continue  # stops at the first text without exactly one separator, before any split
         parts = [t.split(sep) for t in texts]
         if not all(len(p) == 2 and p[0].strip() and p[1].strip() for p in parts):
             continue

@@ -87,9 +87,8 @@ def plain_head(path: str) -> tuple[str, str] | None:
 
 def grid_of(columns: pa.Table) -> pd.DataFrame:
     """Arrow text columns as the reader's grid: object cells, None where empty, positional labels."""
-    return pd.DataFrame(
-        {i: pd.Series(columns.column(i).to_pylist(), dtype=object) for i in range(columns.num_columns)}
-    )
+    cells = (columns.column(i).to_numpy(zero_copy_only=False) for i in range(columns.num_columns))
+    return pd.DataFrame({i: pd.Series(column, dtype=object) for i, column in enumerate(cells)})
 
 
 @dataclass(frozen=True)
