@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import pandas as pd
 
@@ -20,6 +21,10 @@ NUMBER_WITH_UNIT = r"^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*([A-Za-zµμ
 # the upper- and title-case forms are what spreadsheet programs write (common practice, no source).
 TRUE_WORDS = frozenset({"true", "1"})
 FALSE_WORDS = frozenset({"false", "0"})
+
+
+RULE_OF_PROBLEM = {str(problem): problem.rule for problem in Problem}
+"""Looked up as a mapping: a Python call per failing cell was most of the cost on large files."""
 
 
 @dataclass(frozen=True)
@@ -40,6 +45,13 @@ class Converted:
     @property
     def failed(self) -> pd.Series:
         return self.reason.notna()
+
+    @cached_property
+    def rules(self) -> pd.Series:
+        """The rule id of each failing cell, failing cells only (most cells are fine): every
+        conversion rule asks, so it is worked out once."""
+        failed = self.reason[self.reason.notna()]
+        return failed.map(RULE_OF_PROBLEM)
 
 
 def _or_none(series: pd.Series) -> pd.Series:

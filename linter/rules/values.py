@@ -4,8 +4,6 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-import pandas as pd
-
 from linter.contract.convert import Converted
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
@@ -129,23 +127,13 @@ def problem_hint(problem: Problem, found: str, suggestion: object, variable: Var
     return hints.get(problem, f"correct {found!r}")
 
 
-RULE_OF_PROBLEM = {str(problem): problem.rule for problem in Problem}
-"""Looked up as a mapping: a Python call per failing cell was most of the cost on large files."""
-
-
-def _rule_of(reason: pd.Series) -> pd.Series:
-    """The rule id of each failing cell (only failing cells are kept: most cells are fine)."""
-    failed = reason[reason.notna()]
-    return failed.map(RULE_OF_PROBLEM)
-
-
 def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
     result = engine_result(subject)
     if result is None or subject.contract is None:
         return
     for name, converted in result.converted.items():
         variable = subject.contract.variable(name)
-        rules = _rule_of(converted.reason)
+        rules = converted.rules
         mine = converted.reason[rules.index[rules == rule]]
         if variable is None or mine.empty:
             continue

@@ -116,15 +116,21 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
 
     A clean cell yields no finding from any row-wise rule, so each column is judged only where its
     own cell is in doubt: the key columns together (with every row whose key is shared), each other
-    column on its own. A part holds the sample too, because some findings quote a good value of
-    the same column as an example, and the file's first good values are in the sample, as they are
-    for the ordinary reader.
+    column on its own. A part with a patterned column holds the sample too, because a pattern
+    finding quotes a good value of the same column as an example, and the file's first good values
+    are in the sample, as they are for the ordinary reader.
     """
     positions = np.asarray(found.positions, np.int64)
     sample = np.flatnonzero(positions < found.sample)
+    patterned = {v.name for v in rules.variables if v.pattern is not None}
+
+    def rows_of(columns: tuple[str, ...], judged: np.ndarray) -> np.ndarray:
+        rows = np.searchsorted(positions, judged)
+        return np.union1d(sample, rows) if patterned.intersection(columns) else rows
+
     return ScreenedFile(
         tuple(
-            Part(columns, _table_of(plain, found, np.union1d(sample, np.searchsorted(positions, judged))))
+            Part(columns, _table_of(plain, found, rows_of(columns, judged)))
             for columns, judged in parts_to_judge(found, rules)
         ),
         _table_of(plain, found, sample),
