@@ -11,6 +11,8 @@ is dropped).
 from __future__ import annotations
 
 import hashlib
+import itertools
+import os
 import tempfile
 import threading
 from collections.abc import Callable, Iterator, Mapping, Sequence
@@ -34,8 +36,13 @@ from linter.table import unique_labels
 BATCH_BYTES = 16 * 1024 * 1024
 KEYS_IN_MEMORY_BYTES = 512 * 1024 * 1024
 """Files larger than this find duplicate keys through spilled 64-bit hashes instead of kept keys."""
-PARTITION_ROWS = 4_000_000
-"""Rows per hash partition, so one partition (16 bytes a row) stays near 64 MB."""
+PARTITION_ROWS = 1_000_000
+"""Rows per hash partition, about: one partition (16 bytes a row) is read back at a time, so the
+partitions grow in number, not in size, with the file, and memory stays flat."""
+FEWEST_PARTITIONS = 64
+MOST_PARTITIONS = 512
+"""Each partition is an open file while the pass runs; 512 stays well inside the usual limit of
+1,024 open files, and keeps a partition near 16 MB up to files of about 500 million rows."""
 LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
 """UTF-8 needs at most 4 bytes a character."""
 
@@ -220,13 +227,17 @@ class HashSpill:
         pairs = np.empty((len(hashes), 2), np.uint64)
         pairs[:, 0] = hashes
         pairs[:, 1] = np.arange(start, start + len(hashes), dtype=np.uint64)
-        part = (
-            (hashes >> np.uint64(64 - self.bits)).astype(np.int64)
-            if self.bits
-            else np.zeros(len(hashes), int)
-        )
-        for index in np.unique(part):
-            pairs[part == index].tofile(self.files[index])
+        if not self.bits:
+            pairs.tofile(self.files[0])
+            return
+        part = (hashes >> np.uint64(64 - self.bits)).astype(np.uint16)
+        # One stable sort by partition (a radix sort for 16-bit keys), then one write a partition.
+        order = np.argsort(part, kind="stable")
+        grouped = pairs[order]
+        bounds = np.searchsorted(part[order], np.arange(len(self.files) + 1))
+        for index, (lower, upper) in enumerate(itertools.pairwise(bounds)):
+            if upper > lower:
+                grouped[lower:upper].tofile(self.files[index])
 
     def candidates(self) -> np.ndarray:
         """Positions whose hash occurs more than once (true duplicates and the rare collision)."""
@@ -238,6 +249,14 @@ class HashSpill:
             if repeated.any():
                 found.append(pairs[repeated, 1].astype(np.int64))
         return np.sort(np.concatenate(found)) if found else np.array([], np.int64)
+
+
+def spill_partitions(path: str, first: Span) -> int:
+    """How many hash partitions keep each near `PARTITION_ROWS` rows, estimated from the file's
+    size and the first piece's bytes per row, within `FEWEST_PARTITIONS` and `MOST_PARTITIONS`."""
+    per_row = first.size / max(1, first.rows)
+    rows = os.path.getsize(path) / max(1.0, per_row)
+    return int(min(MOST_PARTITIONS, max(FEWEST_PARTITIONS, rows // PARTITION_ROWS + 1)))
 
 
 T = TypeVar("T")
@@ -320,7 +339,7 @@ def screen_stream(
                 labels = unique_labels(list(names))
                 batch = batch.slice(1)
                 if not keys_in_memory:
-                    spill = HashSpill(Path(spill_folder), 64)
+                    spill = HashSpill(Path(spill_folder), spill_partitions(path, piece.span))
             body = batch.rename_columns(labels)
             screened = screen_batch(body, contract)
             suspect = np.flatnonzero(screened.suspect.to_numpy(zero_copy_only=False))

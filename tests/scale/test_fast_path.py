@@ -9,7 +9,7 @@ import pyarrow as pa
 import pytest
 from scale_lab_data import csv_text, lab_rows
 
-from linter.check import check_paths
+from linter.check import check_paths, narrowed
 from linter.contract.load import load_contract
 from linter.findings import Finding
 from linter.report.model import Report
@@ -155,3 +155,12 @@ def test_typed_keys_compare_as_the_engine_compares_them(tmp_path, monkeypatch):
     expected = row_findings(ordinary)
     assert [f.place.rows for f in expected if f.rule == "keys.duplicate"] == [(2, 3), (5, 6)]
     assert row_findings(fast) == expected
+
+
+def test_a_part_is_judged_under_the_contract_narrowed_to_its_columns(contract_file):
+    rules = load_contract(str(contract_file)).tables[0]
+    keyed, result = narrowed(rules, ("sample_id", "analyte")), narrowed(rules, ("result",))
+    assert [v.name for v in keyed.variables] == ["sample_id", "analyte"] and keyed.keys == rules.keys
+    # Without the key a lone column cannot be a duplicate, and its own rules are unchanged.
+    assert [v.name for v in result.variables] == ["result"] and result.keys == ()
+    assert result.variables[0] == rules.variable("result")

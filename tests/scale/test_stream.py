@@ -3,13 +3,14 @@
 from __future__ import annotations
 
 import numpy as np
+import pandas as pd
 import pytest
 from scale_lab_data import csv_text, lab_rows
 
 from linter.check import check_paths
 from linter.contract.load import load_contract
 from linter.scale import fast_path, stream
-from linter.scale.stream import HashSpill, key_hashes, screen_stream
+from linter.scale.stream import HashSpill, Span, key_hashes, screen_stream
 
 
 @pytest.fixture
@@ -164,3 +165,28 @@ def test_read_ahead_keeps_order_raises_in_order_and_stops_with_its_consumer():
     assert next(ahead) == 0
     ahead.close()  # the consumer stops: the producer thread must end, not block forever
     assert len(produced) <= 4
+
+
+def test_spilled_hashes_land_in_the_partition_of_their_top_bits_and_are_all_found(tmp_path):
+    rng = np.random.default_rng(5)
+    hashes = rng.integers(0, 2**63, 5000, dtype=np.int64).view(np.uint64) * np.uint64(2)
+    hashes[4000:] = hashes[:1000]  # 1,000 keys written twice, in a later batch
+    spill = HashSpill(tmp_path, 16)
+    for start in range(0, 5000, 1000):
+        spill.add(hashes[start : start + 1000], start)
+    found = spill.candidates()
+    # Reference: pandas' duplicated, counting every member of a repeated group.
+    expected = np.flatnonzero(pd.Series(hashes).duplicated(keep=False).to_numpy())
+    assert found.tolist() == expected.tolist() and len(found) == 2000
+    for index, handle in enumerate(spill.files):
+        pairs = np.fromfile(handle.name, np.uint64).reshape(-1, 2)
+        assert ((pairs[:, 0] >> np.uint64(60)) == index).all()
+
+
+def test_partitions_grow_in_number_with_the_file(tmp_path):
+    path = tmp_path / "big.csv"
+    with open(path, "wb") as handle:
+        handle.truncate(400 * 100_000_000)  # 40 GB of (sparse) bytes, 400 bytes a row
+    first = Span(0, 400 * 1000, 1, 1000)
+    assert stream.spill_partitions(str(path), first) == 101  # 100M rows, 1M rows a partition
+    assert stream.spill_partitions(str(path), Span(0, 4 * 1000, 1, 1000)) == stream.MOST_PARTITIONS
