@@ -164,20 +164,20 @@ def _members(values: np.ndarray, sorted_set: np.ndarray) -> np.ndarray:
     return sorted_set[found] == values
 
 
-def repeated_values(values: np.ndarray, ordered: np.ndarray | None = None) -> np.ndarray:
-    """True where a (non-negative) value occurs more than once.
-
-    One sort finds the repeated values (`ordered`, when given, is `values` sorted already). Searching
-    every row among them is slow (a binary search a row), so when they are few a small table of
-    their low bits first picks the rows that may be one of them, and only those are searched.
-    """
-    if len(values) < 2:
-        return np.zeros(len(values), bool)
-    ordered = np.sort(values) if ordered is None else ordered
+def repeats_of(ordered: np.ndarray) -> np.ndarray:
+    """The distinct values that occur more than once in sorted `ordered`, sorted."""
     twice = ordered[1:] == ordered[:-1]
-    if not twice.any():
+    return np.unique(ordered[1:][twice]) if twice.any() else ordered[:0]
+
+
+def members_of(values: np.ndarray, repeats: np.ndarray) -> np.ndarray:
+    """True where a value is one of `repeats` (sorted, distinct).
+
+    Searching every row among them is slow (a binary search a row), so when they are few a small
+    table of their low bits first picks the rows that may be one of them, and only those are searched.
+    """
+    if not len(repeats):
         return np.zeros(len(values), bool)
-    repeats = np.unique(ordered[1:][twice])
     if len(repeats) * FEW_REPEATS > len(values):
         return _members(values, repeats)
     bits = min(LOW_BITS, max(8, int(len(repeats) * 16).bit_length()))
@@ -190,9 +190,19 @@ def repeated_values(values: np.ndarray, ordered: np.ndarray | None = None) -> np
     return found
 
 
+def repeated_values(values: np.ndarray) -> np.ndarray:
+    """True where a (non-negative) value occurs more than once: one sort finds the repeated values."""
+    if len(values) < 2:
+        return np.zeros(len(values), bool)
+    return members_of(values, repeats_of(np.sort(values)))
+
+
 def merged_runs(runs: list[np.ndarray]) -> np.ndarray:
     """Sorted runs (one per batch) as one sorted array: a stable sort merges runs it finds in the
-    input (timsort for 64-bit values), far faster than sorting the whole again."""
+    input (timsort for 64-bit values), far faster than sorting the whole again; in place, so the
+    only new memory is the one joined array."""
     if not runs:
         return np.zeros(0, np.uint64)
-    return np.sort(np.concatenate(runs), kind="stable")
+    merged = np.concatenate(runs)
+    merged.sort(kind="stable")
+    return merged

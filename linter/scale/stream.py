@@ -29,7 +29,7 @@ import pyarrow.csv as pacsv
 from linter.contract.model import TableContract
 from linter.read.limits import DEFAULT_LIMITS
 from linter.scale.key_codes import key_codes, shared_codes
-from linter.scale.key_hash import merged_runs, repeated_values, row_hashes
+from linter.scale.key_hash import members_of, merged_runs, repeated_values, repeats_of, row_hashes
 from linter.scale.screen import screen_batch, worker_pool
 from linter.table import unique_labels
 
@@ -419,7 +419,11 @@ def _exact_duplicates(
     if spill is None:
         if not key_parts:
             return empty
-        candidates = np.flatnonzero(repeated_values(np.concatenate(key_parts), merged_runs(key_runs)))
+        repeats = repeats_of(merged_runs(key_runs))
+        starts = np.cumsum([0, *(len(part) for part in key_parts[:-1])])
+        # Looked up batch by batch: joining the hashes again would only cost another copy.
+        found = [np.flatnonzero(members_of(p, repeats)) + at for p, at in zip(key_parts, starts, strict=True)]
+        candidates = np.concatenate(found)
     else:
         candidates = spill.candidates()
     if not len(candidates):

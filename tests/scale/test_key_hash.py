@@ -13,7 +13,14 @@ from hypothesis import strategies as st
 
 from linter.scale import key_codes as key_code_module
 from linter.scale.key_codes import duplicated_rows, key_codes, shared_codes
-from linter.scale.key_hash import column_hashes, merged_runs, repeated_values, row_hashes
+from linter.scale.key_hash import (
+    column_hashes,
+    members_of,
+    merged_runs,
+    repeated_values,
+    repeats_of,
+    row_hashes,
+)
 
 
 def repeated_by_counting(values: list[object]) -> list[bool]:
@@ -136,4 +143,4 @@ def test_batches_sorted_apart_and_merged_find_the_same_repeats(batches):
     values = np.concatenate([*parts, np.zeros(0, np.uint64)])
     merged = merged_runs([np.sort(p) for p in parts])
     assert merged.tolist() == sorted(values.tolist())  # Reference: Python's sorted
-    assert repeated_values(values, merged).tolist() == repeated_by_counting(values.tolist())
+    assert members_of(values, repeats_of(merged)).tolist() == repeated_by_counting(values.tolist())
