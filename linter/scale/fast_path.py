@@ -41,8 +41,9 @@ class Part:
     columns: tuple[str, ...]
     """The contract variables to judge (the key columns together, any other column on its own)."""
     table: Table
-    """Header row, the leading sample and the rows where one of `columns` holds a cell the screen
-    could not pass (for the key columns also every row whose key another row shares)."""
+    """Header row and the rows where one of `columns` holds a cell the screen could not pass (for
+    the key columns also every row whose key another row shares), with the leading sample when
+    one of `columns` has a pattern."""
 
 
 @dataclass(frozen=True)
