@@ -51,10 +51,10 @@ def byte_table(members: bytes) -> np.ndarray:
     return table
 
 
-def fixed_width_text(chunk: pa.Array, shaped: np.ndarray, width: int) -> np.ndarray:
-    """The bytes of the cells where `shaped` (cells exactly `width` bytes long), side by side:
-    a (cells, width) uint8 matrix, a view of the chunk itself when every cell is such a cell."""
-    offsets, data = cell_bytes(chunk)
+def fixed_width_text(offsets: np.ndarray, data: np.ndarray, shaped: np.ndarray, width: int) -> np.ndarray:
+    """The bytes of the cells where `shaped` (cells exactly `width` bytes long; `offsets` and `data`
+    from `cell_bytes`), side by side: a (cells, width) uint8 matrix, a view of the chunk's own
+    bytes when every cell is such a cell."""
     rows = np.flatnonzero(shaped)
     if len(rows) * width == len(data):  # every byte belongs to a cell of that width: the data is the text
         return data.reshape(-1, width) if width else np.zeros((len(rows), 0), np.uint8)

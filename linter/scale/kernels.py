@@ -136,13 +136,13 @@ def _read_dates(text: np.ndarray, count: int) -> tuple[np.ndarray, np.ndarray]:
 def iso_dates(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
     """(real date, nanoseconds since 1970) of cells written exactly YYYY-MM-DD with ASCII digits,
     a real day of a real month and a year the nanosecond clock holds; other cells get False, 0."""
-    offsets, _ = cell_bytes(chunk)
+    offsets, data = cell_bytes(chunk)
     shaped = present(chunk) & (np.diff(offsets) == 10)
     real = np.zeros(len(chunk), bool)
     stamps = np.zeros(len(chunk), np.int64)
     if not shaped.any():
         return real, stamps
-    ok, days = _read_dates(fixed_width_text(chunk, shaped, 10).reshape(-1), int(shaped.sum()))
+    ok, days = _read_dates(fixed_width_text(offsets, data, shaped, 10).reshape(-1), int(shaped.sum()))
     rows = np.flatnonzero(shaped)
     real[rows] = ok
     stamps[rows] = np.where(ok, days * NS_PER_DAY, 0)

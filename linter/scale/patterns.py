@@ -117,12 +117,12 @@ def _byte_range(table: np.ndarray) -> tuple[int, int] | None:
 
 def _chunk_matches(chunk: pa.Array, tables: np.ndarray) -> np.ndarray:
     width = len(tables)
-    offsets, _ = cell_bytes(chunk)
+    offsets, data = cell_bytes(chunk)
     shaped = (np.diff(offsets) == width) & present(chunk)
     matched = np.zeros(len(chunk), bool)
     if not shaped.any():
         return matched
-    text = fixed_width_text(chunk, shaped, width)
+    text = fixed_width_text(offsets, data, shaped, width)
     # One contiguous row of bytes per position: each test below is then one plain pass.
     places = np.ascontiguousarray(text.T)
     ok = np.ones(len(text), bool)
