@@ -56,9 +56,9 @@ def fixed_width_text(offsets: np.ndarray, data: np.ndarray, shaped: np.ndarray, 
     from `cell_bytes`), side by side: a (cells, width) uint8 matrix, a view of the chunk's own
     bytes when every cell is such a cell."""
     rows = np.flatnonzero(shaped)
-    if len(rows) * width == len(data):  # every byte belongs to a cell of that width: the data is the text
-        return data.reshape(-1, width) if width else np.zeros((len(rows), 0), np.uint8)
     if width == 0:
         return np.zeros((len(rows), 0), np.uint8)
+    if len(rows) * width == len(data):  # every byte belongs to a cell of that width: the data is the text
+        return data.reshape(-1, width)
     windows = np.lib.stride_tricks.sliding_window_view(data, width)
     return np.ascontiguousarray(windows[offsets[rows]])

@@ -115,7 +115,7 @@ def _byte_range(table: np.ndarray) -> tuple[int, int] | None:
     return None
 
 
-def _chunk_matches(chunk: pa.Array, tables: np.ndarray) -> np.ndarray:
+def _chunk_matches(chunk: pa.Array, tables: np.ndarray, runs: list[tuple[int, int] | None]) -> np.ndarray:
     width = len(tables)
     offsets, data = cell_bytes(chunk)
     shaped = (np.diff(offsets) == width) & present(chunk)
@@ -126,8 +126,7 @@ def _chunk_matches(chunk: pa.Array, tables: np.ndarray) -> np.ndarray:
     # One contiguous row of bytes per position: each test below is then one plain pass.
     places = np.ascontiguousarray(text.T)
     ok = np.ones(len(text), bool)
-    for place, table in enumerate(tables):
-        run = _byte_range(table)
+    for place, (table, run) in enumerate(zip(tables, runs, strict=True)):
         if run is None:
             ok &= table[places[place]]
         else:  # a literal or a range such as 0-9: one wrapping subtraction and compare
@@ -139,5 +138,6 @@ def _chunk_matches(chunk: pa.Array, tables: np.ndarray) -> np.ndarray:
 
 def fixed_width_matches(text: pa.ChunkedArray | pa.Array, tables: np.ndarray) -> np.ndarray:
     """True where the cell is present, ASCII and matched whole by the pattern of `tables`."""
-    parts = [_chunk_matches(chunk, tables) for chunk in chunks(text)]
+    runs = [_byte_range(table) for table in tables]  # once per column, not once per chunk
+    parts = [_chunk_matches(chunk, tables, runs) for chunk in chunks(text)]
     return np.concatenate(parts) if parts else np.zeros(0, bool)
