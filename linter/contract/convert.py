@@ -2,9 +2,10 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, fields, replace
 from functools import cached_property
 
+import numpy as np
 import pandas as pd
 
 from linter.contract.dates import convert_dates, convert_datetimes
@@ -45,6 +46,13 @@ class Converted:
     @property
     def failed(self) -> pd.Series:
         return self.reason.notna()
+
+    def spread(self, positions: np.ndarray, index: pd.Index) -> Converted:
+        """Each field taken at `positions` (one per cell of a column of `index`): the cells of a
+        column read once per distinct text, then laid out again cell by cell."""
+        return replace(
+            self, **{f.name: getattr(self, f.name).take(positions).set_axis(index) for f in fields(self)}
+        )
 
     @cached_property
     def rules(self) -> pd.Series:
@@ -144,9 +152,36 @@ def _booleans(text: pd.Series, present: pd.Series) -> tuple[pd.Series, pd.Series
     return values, reason, suggestion.where(reason.notna())
 
 
+READ_PER_DISTINCT_TYPES = frozenset(
+    {VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN, VarType.DATE, VarType.DATETIME}
+)
+"""Types whose reading explains a failing cell by trying forms one after another: worth reading
+each distinct text once (a column repeats its values, its mistakes most of all)."""
+DISTINCT_SHARE = 0.5
+"""Read per distinct text when at most this share of the cells are distinct."""
+FEWEST_CELLS_PER_DISTINCT = 64
+"""Shorter columns are read as they are: counting their distinct texts would cost more than it saves."""
+
+
 def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str, ...]) -> Converted:
-    """Read `text` (cells as written, None when empty) as `variable` declares; never raises on a cell."""
+    """Read `text` (cells as written, None when empty) as `variable` declares; never raises on a cell.
+
+    Reading a cell depends on its text alone, and every decision taken for a column as a whole
+    (e.g. date-times with UTC offsets compared in UTC) on the set of its texts, so a column with
+    few distinct texts is read once per text and spread back: the result is the same."""
     raw = text.astype(object).where(text.notna(), None)
+    if variable.type in READ_PER_DISTINCT_TYPES and len(raw) >= FEWEST_CELLS_PER_DISTINCT:
+        codes, distinct = pd.factorize(raw, use_na_sentinel=True)
+        if len(distinct) <= DISTINCT_SHARE * len(raw):
+            empty = bool((codes < 0).any())
+            cells = pd.Series([*distinct, *([None] if empty else [])], dtype=object)
+            once = read_cells(cells, variable, file_missing)
+            return once.spread(np.where(codes < 0, len(distinct), codes), text.index)
+    return read_cells(raw, variable, file_missing)
+
+
+def read_cells(raw: pd.Series, variable: Variable, file_missing: tuple[str, ...]) -> Converted:
+    """`convert_column` on cells already as object texts or None."""
     # pandas' pyarrow-backed "str" dtype runs the regular expressions below in C, not per cell in Python.
     text = raw.astype("str")
     missing = missing_mask(text, tuple(file_missing) + tuple(variable.missing))

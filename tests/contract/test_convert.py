@@ -10,7 +10,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from linter.contract.convert import convert_column, unit_key
+from linter.contract.convert import convert_column, read_cells, unit_key
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
 
@@ -212,3 +212,38 @@ def test_integers_beyond_64_bits_are_named_not_a_crash(cell, fits):
     else:
         assert converted.reason.tolist()[0] == Problem.INTEGER_TOO_LARGE
         assert pd.isna(converted.values.tolist()[0])
+
+
+# Cells a provider writes in a typed column, good and bad, including whole-column cases
+# (UTC offsets beside local times) and integers beyond float64's exact range.
+WRITTEN_CELLS = [
+    "0.25", " 7 ", "3e-2", "1,234", "1,5", "12 mg/L", "3 ug/L", "<0.05", "<", "about 3", "NA", "-999",
+    "", "   ", "9007199254740993", "99999999999999999999", "2.5", "-3", "true", "FALSE", "yes", "0",
+    "2026-03-02", "2026-02-30", "03/02/2026", "13/02/2026", "20260302", "2026-061", "2026-W10-1",
+    "2026-03", "2 Mar 2026", "2026-03-02T10:15:00", "2026-03-02T10:15:00+02:00", "02/03/2026 10:15",
+    "2026-03-02 10:15", None,
+]
+READ_TYPES = [
+    Variable("result", VarType.NUMBER, unit="mg/L", censored_prefix="<"),
+    Variable("replicate", VarType.INTEGER),
+    Variable("filtered", VarType.BOOLEAN),
+    SAMPLED_ON,
+    Variable("sampled_on_day_first", VarType.DATE, date_format="%d/%m/%Y"),
+    Variable("taken_at", VarType.DATETIME),
+]
+
+
+@settings(max_examples=60, deadline=None)
+@given(
+    st.sampled_from(READ_TYPES),
+    st.lists(st.sampled_from(WRITTEN_CELLS), min_size=2 * len(WRITTEN_CELLS), max_size=400),
+)
+def test_reading_each_distinct_text_once_gives_the_cell_by_cell_result(variable, cells):
+    # At most half the cells are distinct, so convert_column reads each text once and spreads it
+    # back; read_cells reads them cell by cell. Every field must agree, index and dtype included.
+    index = pd.Index(range(100, 100 + len(cells)))
+    column = pd.Series(cells, index=index, dtype=object)
+    once = convert_column(column, variable, MISSING)
+    each = read_cells(column, variable, MISSING)
+    for name in ("values", "missing", "censored", "reason", "suggestion"):
+        pd.testing.assert_series_equal(getattr(once, name), getattr(each, name), check_names=False)
