@@ -144,18 +144,19 @@ def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[t
 def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> pd.DataFrame:
     cases = error.failure_cases
     cases = cases[cases["index"].notna()].reset_index(drop=True)
-    # Vectorised: a file can fail a check on every row, so no per-case Python here.
-    numbers = pd.to_numeric(cases["check_number"], errors="coerce").astype("Int64")
-    known = pd.DataFrame(
-        [(column, number, kind) for (column, number), kind in kinds.items()],
-        columns=["column", "number", "kind"],
-    ).astype({"column": object, "number": "Int64"})
-    lookup = pd.DataFrame({"column": cases["column"].astype(object), "number": numbers})
-    by_number = lookup.merge(known, how="left", on=["column", "number"])["kind"]
+    # Vectorised: a file can fail a check on every row, so no per-case Python here; the kind of a
+    # numbered check is looked up per (column, number) pair, of which a schema has only a few.
+    columns = cases["column"].astype(object)
+    numbers = pd.to_numeric(cases["check_number"], errors="coerce")
+    pairs = pd.MultiIndex.from_arrays([columns, numbers])
+    known = pd.Series(list(kinds.values()), index=pd.MultiIndex.from_tuples(list(kinds), names=[None, None]))
+    by_number = pd.Series(
+        known.reindex(pairs).to_numpy() if len(known) else None, index=cases.index, dtype=object
+    )
     by_name = cases["check"].astype(object).map(KINDS_BY_PANDERA_NAME)
     table = pd.DataFrame(
         {
-            "column": cases["column"].astype(object),
+            "column": columns,
             "kind": by_name.fillna(by_number).fillna("other").astype(object),
             "row": cases["index"].astype(int),
             "value": cases["failure_case"],
