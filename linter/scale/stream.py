@@ -363,20 +363,27 @@ def screen_stream(
         if not scan.rows_agree(start):
             raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
         runs = [run.result() for run in key_runs]
-        duplicate = _exact_duplicates(key_parts, runs, spill, path, contract, delimiter, width, labels, spans)
-    positions = np.concatenate([*kept_positions, np.array([], np.int64)])
+        positions = np.concatenate([*kept_positions, np.array([], np.int64)])
+        first_pass = (
+            pa.concat_tables(kept)
+            if kept
+            else pa.table({label: pa.array([], pa.string()) for label in labels})
+        )
+        found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
+        duplicate = _exact_duplicates(key_parts, runs, spill, contract, found_rows)
     extra = np.setdiff1d(duplicate.positions, positions)
-    tables = [
-        *kept,
-        *([duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra)))] if len(extra) else []),
-    ]
+    merged = pa.concat_tables(
+        [
+            first_pass,
+            *(
+                [duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra)))]
+                if len(extra)
+                else []
+            ),
+        ]
+    )
     every = np.concatenate([positions, extra]).astype(np.int64)
     order = np.argsort(every, kind="stable")
-    merged = (
-        pa.concat_tables(tables)
-        if tables
-        else pa.table({label: pa.array([], pa.string()) for label in labels})
-    )
     ordered = every[order]
     suspects = np.concatenate([*suspect_parts, np.array([], np.int64)])
     judged = len(np.union1d(suspects, duplicate.positions))
@@ -401,20 +408,65 @@ class Duplicates:
     """Those rows (all columns; empty when the first pass already kept every column needed)."""
 
 
+@dataclass(frozen=True)
+class Rows:
+    """Where whole body rows can be found again after the first pass: among the rows it kept, or
+    in the file at the lines its spans locate."""
+
+    path: str
+    delimiter: str
+    width: int
+    labels: list[str]
+    spans: Sequence[Span]
+    kept: pa.Table
+    kept_at: np.ndarray
+    """Sorted body position of each row of `kept`."""
+
+    def at(self, positions: np.ndarray) -> pa.Table:
+        """The rows at sorted `positions`: taken from the kept rows where the first pass kept them
+        (shared keys are often on rows already in doubt), the others cut from the file."""
+        inside = np.isin(positions, self.kept_at)
+        tables = [self.kept.take(pa.array(np.searchsorted(self.kept_at, positions[inside]), pa.int64()))]
+        if not inside.all():
+            tables.append(self._read(positions[~inside]))
+        # Kept rows first, then read ones: put back in the order of `positions`.
+        order = np.argsort(np.concatenate([positions[inside], positions[~inside]]), kind="stable")
+        return _take(pa.concat_tables(tables), order)
+
+    def _read(self, positions: np.ndarray) -> pa.Table:
+        """The rows at sorted `positions`, only their lines cut from the file and parsed."""
+        lines = positions + 1  # body row p is physical line p + 1, the header being line 0
+        options = text_options(self.delimiter, self.width)
+        found: list[pa.Table] = []
+        with open(self.path, "rb") as handle:
+            for span in self.spans:
+                lower, upper = np.searchsorted(lines, [span.first_line, span.first_line + span.rows])
+                if upper == lower:
+                    continue
+                handle.seek(span.offset)
+                data = handle.read(span.size)
+                ends = np.flatnonzero(np.frombuffer(data, np.uint8) == ord("\n"))
+                if not data.endswith(b"\n"):
+                    ends = np.append(ends, len(data) - 1)  # the file's last line has no line end
+                starts = np.concatenate([[0], ends[:-1] + 1])
+                wanted = lines[lower:upper] - span.first_line
+                chosen = b"".join(data[starts[i] : ends[i] + 1] for i in wanted)
+                if not chosen.endswith(b"\n"):
+                    chosen += b"\n"
+                found.append(pacsv.read_csv(pa.BufferReader(chosen), *options).rename_columns(self.labels))
+        return pa.concat_tables(found)
+
+
 def _exact_duplicates(
     key_parts: list[np.ndarray],
     key_runs: list[np.ndarray],
     spill: HashSpill | None,
-    path: str,
     contract: TableContract,
-    delimiter: str,
-    width: int,
-    labels: list[str],
-    spans: Sequence[Span],
+    rows_of: Rows,
 ) -> Duplicates:
     """Rows sharing a key: rows whose kept or spilled hash repeats, verified on the rows themselves."""
     empty = Duplicates(
-        np.array([], np.int64), pa.table({label: pa.array([], pa.string()) for label in labels})
+        np.array([], np.int64), pa.table({label: pa.array([], pa.string()) for label in rows_of.labels})
     )
     if spill is None:
         if not key_parts:
@@ -428,35 +480,9 @@ def _exact_duplicates(
         candidates = spill.candidates()
     if not len(candidates):
         return empty
-    rows = _rows_at(path, delimiter, width, labels, candidates, spans)
+    rows = rows_of.at(candidates)
     # Verify: only candidates whose keys are really equal (as the engine compares them) stay,
     # so a hash collision is dropped. Only the key columns need judging again.
     keys = screen_batch(rows.select([n for n in rows.column_names if n in contract.keys]), contract).keys
     real = shared_codes(key_codes(keys))
     return Duplicates(candidates[real], rows.filter(pa.array(real)))
-
-
-def _rows_at(
-    path: str, delimiter: str, width: int, labels: list[str], positions: np.ndarray, spans: Sequence[Span]
-) -> pa.Table:
-    """The whole body rows at sorted `positions`: only their lines are cut from the file and parsed."""
-    lines = positions + 1  # body row p is physical line p + 1, the header being line 0
-    options = text_options(delimiter, width)
-    found: list[pa.Table] = []
-    with open(path, "rb") as handle:
-        for span in spans:
-            lower, upper = np.searchsorted(lines, [span.first_line, span.first_line + span.rows])
-            if upper == lower:
-                continue
-            handle.seek(span.offset)
-            data = handle.read(span.size)
-            ends = np.flatnonzero(np.frombuffer(data, np.uint8) == ord("\n"))
-            if not data.endswith(b"\n"):
-                ends = np.append(ends, len(data) - 1)  # the file's last line has no line end
-            starts = np.concatenate([[0], ends[:-1] + 1])
-            wanted = lines[lower:upper] - span.first_line
-            chosen = b"".join(data[starts[i] : ends[i] + 1] for i in wanted)
-            if not chosen.endswith(b"\n"):
-                chosen += b"\n"
-            found.append(pacsv.read_csv(pa.BufferReader(chosen), *options).rename_columns(labels))
-    return pa.concat_tables(found)
