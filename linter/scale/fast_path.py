@@ -13,7 +13,7 @@ import csv
 import functools
 import io
 import os
-from collections.abc import Callable, Iterable
+from collections.abc import Callable, Collection, Iterable
 from dataclasses import dataclass
 from pathlib import PurePath
 
@@ -43,7 +43,8 @@ class Part:
     table: Table
     """Header row and the rows where one of `columns` holds a cell the screen could not pass (for
     the key columns also every row whose key another row shares), with the leading sample when
-    one of `columns` has a pattern."""
+    one of `columns` has a pattern. Only `columns` and the key columns are filled in: the other
+    cells are left empty, as no row-wise rule of the part reads them."""
 
 
 @dataclass(frozen=True)
@@ -86,10 +87,17 @@ def plain_head(path: str) -> tuple[str, str] | None:
     return delimiter, sample.split("\n", 1)[0]
 
 
-def grid_of(columns: pa.Table) -> pd.DataFrame:
-    """Arrow text columns as the reader's grid: object cells, None where empty, positional labels."""
-    cells = (columns.column(i).to_numpy(zero_copy_only=False) for i in range(columns.num_columns))
-    return pd.DataFrame({i: pd.Series(column, dtype=object) for i, column in enumerate(cells)})
+def grid_of(columns: pa.Table, shown: Collection[int] | None = None) -> pd.DataFrame:
+    """Arrow text columns as the reader's grid: object cells, None where empty, positional labels.
+
+    Columns not `shown` (when given) are left empty: nothing that judges the grid reads them."""
+
+    def cells(i: int) -> np.ndarray:
+        if shown is not None and i not in shown:
+            return np.full(columns.num_rows, None, dtype=object)
+        return columns.column(i).to_numpy(zero_copy_only=False)
+
+    return pd.DataFrame({i: pd.Series(cells(i), dtype=object) for i in range(columns.num_columns)})
 
 
 @dataclass(frozen=True)
@@ -129,9 +137,15 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
         rows = np.searchsorted(positions, judged)
         return np.union1d(sample, rows) if patterned.intersection(columns) else rows
 
+    def read_by(columns: tuple[str, ...]) -> set[int]:
+        """Positions of the columns the row-wise rules of a part read: its own, and the key
+        columns that every excerpt shows."""
+        wanted = set(columns) | set(rules.keys)
+        return {i for i, label in enumerate(found.kept.column_names) if label in wanted}
+
     return ScreenedFile(
         tuple(
-            Part(columns, _table_of(plain, found, rows_of(columns, judged)))
+            Part(columns, _table_of(plain, found, rows_of(columns, judged), read_by(columns)))
             for columns, judged in parts_to_judge(found, rules)
         ),
         _table_of(plain, found, sample),
@@ -160,11 +174,14 @@ def _union(parts: Iterable[np.ndarray]) -> np.ndarray:
     return functools.reduce(np.union1d, parts, np.array([], np.int64))
 
 
-def _table_of(plain: PlainFile, found: StreamResult, chosen: np.ndarray) -> Table:
-    """The header and the kept rows at `chosen` (sorted indices into `found.kept`) as a `Table`."""
+def _table_of(
+    plain: PlainFile, found: StreamResult, chosen: np.ndarray, shown: Collection[int] | None = None
+) -> Table:
+    """The header and the kept rows at `chosen` (sorted indices into `found.kept`) as a `Table`,
+    with only the `shown` columns filled in (all when None)."""
     header_grid = pd.DataFrame({i: pd.Series([n or None], dtype=object) for i, n in enumerate(found.names)})
     rows = found.kept.take(pa.array(chosen, pa.int64()))
-    grid = pd.concat([header_grid, grid_of(rows)], ignore_index=True)
+    grid = pd.concat([header_grid, grid_of(rows, shown)], ignore_index=True)
     grid.columns = pd.RangeIndex(grid.shape[1])
     return Table(
         source=plain.path,
