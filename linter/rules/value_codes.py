@@ -59,7 +59,8 @@ def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], li
         by_key = {variant_key(code): code for code in variable.codes.values}
         rows = [int(r) for r in failing["row"]]
         found = written(subject, name, rows)
-        variants = {f: by_key[variant_key(f)] for f in found if variant_key(f) in by_key}
+        keys = {f: variant_key(f) for f in dict.fromkeys(found)}  # a wrong code repeats: once each
+        variants = {f: by_key[key] for f, key in keys.items() if key in by_key}
         variant_rows = [r for r, f in zip(rows, found, strict=True) if f in variants]
         unknown_rows = [r for r, f in zip(rows, found, strict=True) if f not in variants]
         yield variable, variants, variant_rows, unknown_rows
