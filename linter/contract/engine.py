@@ -5,7 +5,9 @@ from __future__ import annotations
 import re
 from collections.abc import Collection, Mapping
 from dataclasses import dataclass
+from functools import cached_property
 
+import numpy as np
 import pandas as pd
 import pandera.pandas as pa
 from pandera.errors import SchemaErrors
@@ -41,8 +43,14 @@ class CheckedTable:
     """(column, kind, pandera's error) for checks that raised instead of judging the cells."""
 
     def failing(self, column: str, kind: str) -> pd.DataFrame:
-        rows = self.failures
-        return rows[(rows["column"] == column) & (rows["kind"] == kind)]
+        """The failure table's rows for one check of one column."""
+        return self._by_check.get((column, kind), self.failures.iloc[:0])
+
+    @cached_property
+    def _by_check(self) -> dict[tuple[str, str], pd.DataFrame]:
+        """Every rule family asks for its own checks, column by column: grouped once."""
+        groups = self.failures.groupby(["column", "kind"], sort=False)
+        return {(str(column), str(kind)): rows for (column, kind), rows in groups}
 
     def raise_if_unrun(self, kind: str) -> None:
         """Raise when a check of `kind` never ran, so it surfaces as that inspector's failure, not silence."""
@@ -175,14 +183,72 @@ def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
         converted[variable.name] = convert_column(text, variable, contract.missing)
     typed = pd.DataFrame({name: c.values for name, c in converted.items()}, index=index)
     schema, kinds = compile_schema(contract, converted)
-    failures = pd.DataFrame({name: pd.Series(dtype=object) for name in FAILURE_COLUMNS})
-    unrun: tuple[tuple[str, str, str], ...] = ()
+    failures, unrun = validated(schema, typed, kinds)
+    return CheckedTable(converted, typed, failures, unrun)
+
+
+NO_FAILURES = pd.DataFrame({name: pd.Series(dtype=object) for name in FAILURE_COLUMNS})
+DISTINCT_SHARE = 0.5
+"""A one-column table is validated once per distinct value when at most this share of its values
+are distinct (see `validated`)."""
+
+
+def validated(
+    schema: pa.DataFrameSchema,
+    typed: pd.DataFrame,
+    kinds: Mapping[tuple[str, int], str],
+    per_value: bool = True,
+) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
+    """Pandera's verdict on the typed table: Weir's failure table, and the checks that never ran.
+
+    Every check of a column without a key (range, pattern, codes, nullable, type) judges each value
+    on its own, so a one-column table with few distinct values (the doubtful cells of one column
+    in a large file) is validated on the first row of each value, and each failure then stands for
+    every row holding that value: pandera's work, and its failure cases, grow with the values."""
+    values = _first_of_each_value(schema, typed) if per_value else None
     try:
-        schema.validate(typed, lazy=True)
+        schema.validate(typed if values is None else typed.iloc[values.first], lazy=True)
     except SchemaErrors as error:
         failures = _failure_table(error, kinds)
-        unrun = _unrun(error, kinds)
-    return CheckedTable(converted, typed, failures, unrun)
+        return (failures if values is None else values.spread(failures, typed.index)), _unrun(error, kinds)
+    return NO_FAILURES.copy(), ()
+
+
+@dataclass(frozen=True)
+class _Values:
+    """Which rows of a one-column table hold the same value."""
+
+    group: np.ndarray
+    """Per row, the number of its value (all missing values share one number)."""
+    first: np.ndarray
+    """Position of the first row of each value, in the order the values first appear."""
+
+    def spread(self, failures: pd.DataFrame, index: pd.Index) -> pd.DataFrame:
+        """The failures of the first rows, each repeated for every row holding the same value."""
+        order = np.argsort(self.group, kind="stable")  # rows of each value together, in file order
+        bounds = np.searchsorted(self.group[order], np.arange(self.group.max() + 2))
+        value = self.group[index.get_indexer(pd.Index(failures["row"], dtype="int64"))]
+        counts = bounds[value + 1] - bounds[value]
+        case = np.repeat(np.arange(len(failures)), counts)
+        # For case i, positions bounds[value[i]] ... bounds[value[i] + 1] - 1 of `order`.
+        starts = np.repeat(bounds[value] - np.cumsum(counts) + counts, counts)
+        rows = index.to_numpy()[order[starts + np.arange(len(case))]]
+        spread = failures.iloc[case].assign(row=rows)
+        # Pandera lists each check's failing rows in row order, one check after another.
+        block = spread.groupby(["column", "kind"], sort=False).ngroup().to_numpy()
+        return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
+
+
+def _first_of_each_value(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> _Values | None:
+    """The rows that stand for the others in `validated`, or None to validate every row."""
+    if typed.shape[1] != 1 or schema.unique or len(typed) < 2:
+        return None
+    codes, distinct = pd.factorize(typed.iloc[:, 0], use_na_sentinel=True)
+    if len(distinct) > DISTINCT_SHARE * len(typed):
+        return None
+    group = np.where(codes < 0, len(distinct), codes)
+    _, first = np.unique(group, return_index=True)
+    return _Values(group, np.sort(first))
 
 
 _last: tuple[TableContract, Frame, CheckedTable] | None = None

@@ -5,8 +5,10 @@ from __future__ import annotations
 import pandas as pd
 import pandera.pandas as pa
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
-from linter.contract.engine import FAILURE_COLUMNS, checked, compile_schema, run_contract
+from linter.contract.engine import FAILURE_COLUMNS, checked, compile_schema, run_contract, validated
 from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.table import Table, first_row_header
 
@@ -105,3 +107,39 @@ def test_the_engine_runs_once_per_table() -> None:
     shared = frame()
     assert checked(CONTRACT, shared) is checked(CONTRACT, shared)
     assert checked(CONTRACT, frame()) is not checked(CONTRACT, shared)
+
+
+ONE_COLUMN = [
+    Variable("site_id", pattern=r"^VB-\d{3}$", nullable=False),
+    Variable("analyte", VarType.CATEGORY, codes=CodeList(("NITRATE", "PHOSPHATE"))),
+    Variable("result", VarType.NUMBER, minimum=0, maximum=50, nullable=False),
+    Variable("replicate", VarType.INTEGER, minimum=1, maximum=3),
+    Variable("sampled_on", VarType.DATE, minimum="2026-01-01", maximum="2026-12-31", nullable=False),
+]
+WRITTEN = {
+    "site_id": ["VB-001", "VB-01", "vb-001", "VB-001 ", None, "VB-999"],
+    "analyte": ["NITRATE", "nitrate", "SULPHATE", None, "PHOSPHATE"],
+    "result": ["0.5", "60", "-3", None, "about 3", "50", "1,5"],
+    "replicate": ["1", "3", "7", "2.5", None, "0"],
+    "sampled_on": ["2026-03-02", "2025-12-31", "2027-01-01", None, "03/02/2026", "2026-02-30"],
+}
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.sampled_from(ONE_COLUMN), st.data())
+def test_one_column_validated_once_per_value_fails_the_same_cells(variable, data) -> None:
+    # A one-column table with repeated values is validated on the first row of each value and its
+    # failures spread back; validating every row must give the same failure table, row for row.
+    cells = data.draw(st.lists(st.sampled_from(WRITTEN[variable.name]), min_size=16, max_size=200))
+    gaps = data.draw(st.lists(st.integers(1, 3), min_size=len(cells), max_size=len(cells)))
+    lines = (1, *(1 + sum(gaps[: i + 1]) for i in range(len(cells))))
+    table = Table(
+        "part.csv", None, pd.DataFrame([[variable.name], *[[c] for c in cells]], dtype=object), lines
+    )
+    contract = TableContract("part", "one cell", (), (variable,), missing=("",))
+    converted = run_contract(contract, first_row_header(table))
+    schema, kinds = compile_schema(contract, {variable.name})
+    once, unrun_once = validated(schema, converted.typed, kinds)
+    every, unrun_every = validated(schema, converted.typed, kinds, per_value=False)
+    pd.testing.assert_frame_equal(once, every)
+    assert unrun_once == unrun_every
