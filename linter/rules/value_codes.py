@@ -57,7 +57,7 @@ def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], li
         if variable is None or variable.codes is None or failing.empty:
             continue
         by_key = {variant_key(code): code for code in variable.codes.values}
-        rows = [int(r) for r in failing["row"]]
+        rows = failing["row"].astype("int64").tolist()
         found = written(subject, name, rows)
         keys = {f: variant_key(f) for f in dict.fromkeys(found)}  # a wrong code repeats: once each
         variants = {f: by_key[key] for f, key in keys.items() if key in by_key}

@@ -59,7 +59,7 @@ def pattern_mismatch(subject: Subject) -> Iterator[Finding]:
         failing = result.failing(name, "pattern")
         if variable is None or variable.pattern is None or failing.empty:
             continue
-        rows = [int(r) for r in failing["row"]]
+        rows = failing["row"].astype("int64").tolist()
         found = written(subject, name, rows)
         example = _matching_example(converted, set(rows), re.compile(variable.pattern))
         yield column_finding(

@@ -137,7 +137,7 @@ def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
         mine = converted.reason[rules.index[rules == rule]]
         if variable is None or mine.empty:
             continue
-        rows = [int(r) for r in mine.index]
+        rows = mine.index.astype("int64").tolist()
         hints: list[str] = []
         kinds: dict[str, int] = {}
         for problem, cells in mine.groupby(mine):
@@ -240,7 +240,7 @@ def out_of_range(subject: Subject) -> Iterator[Finding]:
         failing = result.failing(name, "range")
         if variable is None or failing.empty:
             continue
-        rows = [int(r) for r in failing["row"]]
+        rows = failing["row"].astype("int64").tolist()
         bounds = " and ".join(
             text
             for text in (
