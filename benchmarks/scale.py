@@ -52,8 +52,31 @@ BROKEN = {
 }
 
 
-def synthetic_results(rows: int, broken: float, seed: int) -> pa.Table:
-    """A tidy 8-column submission; `broken` is the share of rows with one planted bad cell."""
+VARIED = {
+    "site_id": [("vb-{:03d}", 1000), ("VB-{:02d}", 100)],
+    "sampled_on": [("{:02d}/03/2026", 29), ("2026-02-3{:d}", 2)],
+    "result": [("1,{:03d}", 1000), ("-{:d}.5", 1000), ("about {:d}", 1000)],
+    "replicate": [("{:d}.5", 4), ("{:d}7", 10)],
+}
+"""Mistakes of the same kinds with a number in them (below the given bound) that varies from cell
+to cell, as mistyped values do: `--mistakes varied` plants these, so few cells share a wrong value."""
+
+
+def mistakes(name: str, count: int, rng: np.random.Generator, varied: bool) -> np.ndarray:
+    """`count` wrong cells for the column `name`: one of its typical mistakes each, or (varied, where
+    the column has such forms) one of its mistake forms with a random number filled in."""
+    if not varied or name not in VARIED:
+        return np.array(BROKEN[name])[rng.integers(0, len(BROKEN[name]), count)]
+    forms = VARIED[name]
+    chosen = rng.integers(0, len(forms), count)
+    numbers = rng.integers(0, 1 << 30, count)
+    cells = [forms[f][0].format(int(n) % forms[f][1]) for f, n in zip(chosen, numbers, strict=True)]
+    return np.array(cells, dtype=object)
+
+
+def synthetic_results(rows: int, broken: float, seed: int, varied: bool = False) -> pa.Table:
+    """A tidy 8-column submission; `broken` is the share of rows with one planted bad cell (a
+    typical mistake, or with `varied` one whose wrong value differs from cell to cell)."""
     rng = np.random.default_rng(seed)
     number = np.arange(rows)
     months = rng.integers(1, 13, rows)
@@ -82,7 +105,7 @@ def synthetic_results(rows: int, broken: float, seed: int) -> pa.Table:
         which = rng.integers(0, len(names), len(hit))
         for index, name in enumerate(names):
             where = hit[which == index]
-            values = np.array(BROKEN[name])[rng.integers(0, len(BROKEN[name]), len(where))]
+            values = mistakes(name, len(where), rng, varied)
             column = table.column(name).to_numpy(zero_copy_only=False).astype(object)
             column[where] = values
             table = table.set_column(table.column_names.index(name), name, pa.array(column, pa.string()))
@@ -264,6 +287,12 @@ def main() -> None:
     parser.add_argument("--rows", type=int, nargs="+", default=[1_000_000, 5_000_000])
     parser.add_argument("--repeat", type=int, default=2)
     parser.add_argument("--broken", type=float, default=0.01, help="share of broken rows in the variant")
+    parser.add_argument(
+        "--mistakes",
+        choices=["typical", "varied"],
+        default="typical",
+        help="broken cells drawn from a few typical wrong values, or varied from cell to cell",
+    )
     parser.add_argument("--keep", action="store_true", help="keep the generated files")
     parser.add_argument(
         "--before", action="store_true", help="also time Weir without the fast path (slow: use few rows)"
@@ -278,7 +307,9 @@ def main() -> None:
         clean = folder / f"results-{rows}.csv"
         broken = folder / f"results-{rows}-broken.csv"
         write_csv(synthetic_results(rows, 0.0, seed=rows), clean)
-        write_csv(synthetic_results(rows, options.broken, seed=rows), broken)
+        write_csv(
+            synthetic_results(rows, options.broken, seed=rows, varied=options.mistakes == "varied"), broken
+        )
         size_mb = os.stat(clean).st_size / 1e6
         times = {how: measure(clean, contract, how, options.repeat) for how in contenders}
         weir = measure(clean, contract, "weir", options.repeat)
