@@ -301,6 +301,10 @@ def read_ahead(items: Iterator[T], depth: int = 1) -> Iterator[T]:
         worker.join()
 
 
+def _no_rows(labels: Sequence[str]) -> pa.Table:
+    return pa.table({label: pa.array([], pa.string()) for label in labels})
+
+
 def _take(table: pa.Table, positions: np.ndarray) -> pa.Table:
     return table.take(pa.array(positions, pa.int64()))
 
@@ -364,24 +368,12 @@ def screen_stream(
             raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
         runs = [run.result() for run in key_runs]
         positions = np.concatenate([*kept_positions, np.array([], np.int64)])
-        first_pass = (
-            pa.concat_tables(kept)
-            if kept
-            else pa.table({label: pa.array([], pa.string()) for label in labels})
-        )
+        first_pass = pa.concat_tables(kept) if kept else _no_rows(labels)
         found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
         duplicate = _exact_duplicates(key_parts, runs, spill, contract, found_rows)
     extra = np.setdiff1d(duplicate.positions, positions)
-    merged = pa.concat_tables(
-        [
-            first_pass,
-            *(
-                [duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra)))]
-                if len(extra)
-                else []
-            ),
-        ]
-    )
+    extra_rows = duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra), pa.int64()))
+    merged = pa.concat_tables([first_pass, extra_rows])
     every = np.concatenate([positions, extra]).astype(np.int64)
     order = np.argsort(every, kind="stable")
     ordered = every[order]
@@ -465,9 +457,7 @@ def _exact_duplicates(
     rows_of: Rows,
 ) -> Duplicates:
     """Rows sharing a key: rows whose kept or spilled hash repeats, verified on the rows themselves."""
-    empty = Duplicates(
-        np.array([], np.int64), pa.table({label: pa.array([], pa.string()) for label in rows_of.labels})
-    )
+    empty = Duplicates(np.array([], np.int64), _no_rows(rows_of.labels))
     if spill is None:
         if not key_parts:
             return empty
