@@ -33,7 +33,7 @@ from linter.contract.dates import ISO_DATE
 from linter.contract.load import load_contract
 from linter.contract.model import TableContract, Variable, VarType
 from linter.scale import kernels, screen
-from linter.scale.stream import text_batches
+from linter.scale.pieces import text_batches
 
 # The regex screen as it was before the byte kernels, kept here as the baseline.
 

@@ -20,8 +20,9 @@ from linter.contract.model import TableContract
 from linter.errors import WeirError
 from linter.scale import fast_path
 from linter.scale.fast_path import ScreenedFile, plain_file, screened_table
+from linter.scale.pieces import scan_lines
 from linter.scale.screen import screen_batch, unscreenable
-from linter.scale.stream import StreamResult, scan_lines
+from linter.scale.stream import StreamResult
 from linter.table import unique_labels
 
 BLOCK_BYTES = 64 * 1024 * 1024

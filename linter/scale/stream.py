@@ -1,50 +1,32 @@
 """Screen a delimited file batch by batch in bounded memory, keys across batches included.
 
-Column checks run per batch (`screen.screen_batch`). Keys need the whole file: each batch's keys
-are hashed to 64 bits (`key_hash`); below `KEYS_IN_MEMORY_BYTES` the hashes are kept in memory
-(8 bytes a row), above it they are spilled to partition files by their top bits and each partition
-is searched for repeated hashes on its own. Either way a second pass reads back the candidate rows
-and compares their keys exactly, so only keys that are really equal are reported (a hash collision
-is dropped).
+Column checks run per batch (`screen.screen_batch`) on the pieces `pieces.text_batches` reads.
+Keys need the whole file: each batch's keys are hashed to 64 bits (`key_hash`); below
+`spill.KEYS_IN_MEMORY_BYTES` the hashes are kept in memory (8 bytes a row), above it they are
+spilled to partition files (`spill.HashSpill`). Either way the candidate rows are found again
+(`Rows`) and their keys compared exactly, so only keys that are really equal are reported (a
+hash collision is dropped).
 """
 
 from __future__ import annotations
 
-import hashlib
-import itertools
-import os
 import tempfile
-import threading
-from collections.abc import Callable, Iterator, Mapping, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from concurrent.futures import Future
 from dataclasses import dataclass, field
 from pathlib import Path
-from queue import Full, Queue
-from typing import Any, TypeVar
 
 import numpy as np
 import pyarrow as pa
 import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
-from linter.read.limits import DEFAULT_LIMITS
 from linter.scale.key_codes import key_codes, shared_codes
-from linter.scale.key_hash import members_of, merged_runs, repeated_values, repeats_of, row_hashes
+from linter.scale.key_hash import members_of, merged_runs, repeats_of, row_hashes
+from linter.scale.pieces import LineScan, Span, read_ahead, text_batches, text_options
 from linter.scale.screen import screen_batch, worker_pool
+from linter.scale.spill import HashSpill, spill_partitions
 from linter.table import unique_labels
-
-BATCH_BYTES = 16 * 1024 * 1024
-KEYS_IN_MEMORY_BYTES = 512 * 1024 * 1024
-"""Files larger than this find duplicate keys through spilled 64-bit hashes instead of kept keys."""
-PARTITION_ROWS = 1_000_000
-"""Rows per hash partition, about: one partition (16 bytes a row) is read back at a time, so the
-partitions grow in number, not in size, with the file, and memory stays flat."""
-FEWEST_PARTITIONS = 64
-MOST_PARTITIONS = 512
-"""Each partition is an open file while the pass runs; 512 stays well inside the usual limit of
-1,024 open files, and keeps a partition near 16 MB up to files of about 500 million rows."""
-LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
-"""UTF-8 needs at most 4 bytes a character."""
 
 Progress = Callable[[int], None]
 """Told the number of body rows just screened."""
@@ -72,233 +54,12 @@ class StreamResult:
     """Sorted body positions of the rows whose whole key another row shares."""
 
 
-class LineScan:
-    """What reading a file's bytes once tells: its SHA-256, and whether Arrow's rows are its lines.
-
-    Fed every block as it is read, so the hash and the line counts cost no pass of their own.
-    NUL bytes, carriage returns that do not all end lines (CRLF), or a count of lines that differs
-    from the rows parsed mean the file takes the ordinary reader, which reports such things.
-    """
-
-    def __init__(self) -> None:
-        self.digest = hashlib.sha256()
-        self.bytes = 0
-        self.newlines = 0
-        self.returns = 0
-        self.line_returns = 0
-        """Carriage returns directly followed by a line feed."""
-        self.nuls = False
-        self.ends_with_newline = False
-        self.ends_with_return = False
-
-    def add(self, data: bytes | bytearray, start: int = 0, end: int | None = None) -> None:
-        """Take in `data[start:end]` (a range, so a reused read buffer is never copied)."""
-        end = len(data) if end is None else end
-        if end <= start:
-            return
-        self.digest.update(memoryview(data)[start:end])
-        self.bytes += end - start
-        self.newlines += data.count(b"\n", start, end)
-        # `find` is a fast byte search; counting is only needed in files that have the byte at all.
-        if data.find(b"\r", start, end) >= 0:
-            self.returns += data.count(b"\r", start, end)
-            self.line_returns += data.count(b"\r\n", start, end)
-        if self.ends_with_return and data[start] == ord("\n"):
-            self.line_returns += 1  # a CRLF split between two blocks
-        self.nuls = self.nuls or data.find(b"\x00", start, end) >= 0
-        self.ends_with_newline = data[end - 1] == ord("\n")
-        self.ends_with_return = data[end - 1] == ord("\r")
-
-    @property
-    def plain(self) -> bool:
-        """No NUL bytes, and either no carriage return or CRLF at the end of every line."""
-        return not self.nuls and self.returns == self.line_returns and self.returns in (0, self.newlines)
-
-    def rows_agree(self, body_rows: int) -> bool:
-        """One parsed row per physical line proves every row number exact (no blank or split lines)."""
-        lines = self.newlines + (0 if self.ends_with_newline else 1)
-        return self.plain and body_rows >= 1 and lines == body_rows + 1
-
-    @property
-    def sha256(self) -> str:
-        return self.digest.hexdigest()
-
-
-def scan_lines(path: str) -> LineScan:
-    """A `LineScan` of the whole file, for readers that do not go through `text_batches`."""
-    scan = LineScan()
-    with open(path, "rb") as handle:
-        for block in iter(lambda: handle.read(BATCH_BYTES), b""):
-            scan.add(block)
-    return scan
-
-
-@dataclass(frozen=True)
-class Span:
-    """Where one batch's lines lie in the file, so its rows can be read again without a full pass."""
-
-    offset: int
-    """Byte offset of the batch's first line."""
-    size: int
-    """Bytes of whole lines in the batch."""
-    first_line: int
-    """0-based physical line of the batch's first row (the header is line 0)."""
-    rows: int
-
-
-@dataclass(frozen=True)
-class Piece:
-    """One batch of text cells and where its lines lie in the file."""
-
-    table: pa.Table
-    span: Span
-
-
-def text_options(delimiter: str, width: int) -> tuple[Any, Any, Any]:
-    """Arrow's read, parse and convert options for text cells (empty -> null), with no header."""
-    names = [f"c{i}" for i in range(width)]
-    return (
-        pacsv.ReadOptions(column_names=names),
-        pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
-        pacsv.ConvertOptions(
-            column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
-        ),
-    )
-
-
-def text_batches(
-    path: str, delimiter: str, width: int, block: int | None = None, scan: LineScan | None = None
-) -> Iterator[Piece]:
-    """Batches of text cells (empty -> null), the header line included as the first row.
-
-    The file is cut at line ends and each piece parsed on its own: with line breaks inside cells
-    refused (`newlines_in_values=False`) that is exactly how Arrow splits records anyway, and only
-    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound). Every
-    block read is shown to `scan`; a NUL byte stops the pass at once.
-    """
-    block = BATCH_BYTES if block is None else block
-    options = text_options(delimiter, width)
-    # One buffer for the whole pass: a fresh 16 MB object per read cost more in page faults than
-    # the copy itself. It holds the unfinished last line of one read plus the next read.
-    buffer = bytearray(LONGEST_LINE_BYTES + block)
-    view = memoryview(buffer)
-    have = offset = line = 0
-    with open(path, "rb") as handle:
-        while True:
-            read = handle.readinto(view[have : have + block])
-            if scan is not None:
-                scan.add(buffer, have, have + read)
-                if scan.nuls:
-                    raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
-            filled = have + read
-            cut = filled if not read else buffer.rfind(b"\n", 0, filled) + 1
-            if filled - cut > LONGEST_LINE_BYTES:
-                # The ordinary reader refuses such a line with a finding; let it.
-                raise pa.ArrowInvalid("a line longer than the reader's limit")
-            if cut:
-                # Arrow copies the cells into its own arrays, so the buffer may be reused at once.
-                table = pacsv.read_csv(pa.BufferReader(pa.py_buffer(view[:cut])), *options)
-                yield Piece(table, Span(offset, cut, line, table.num_rows))
-                offset += cut
-                line += table.num_rows
-                buffer[: filled - cut] = bytes(view[cut:filled])  # the unfinished line (may overlap)
-            have = filled - cut
-            if not read:
-                return
-
-
 def key_hashes(keys: pa.Table) -> np.ndarray:
     """A 64-bit hash per row of the whole key; equal keys hash equal, unequal ones almost never.
 
     A row's hash depends on that row alone (`key_hash.row_hashes`), so batches hashed apart agree.
     """
     return row_hashes(keys)
-
-
-class HashSpill:
-    """64-bit key hashes and row positions written to partition files by the hash's top bits."""
-
-    def __init__(self, folder: Path, partitions: int) -> None:
-        self.bits = max(0, int(np.ceil(np.log2(max(partitions, 1)))))
-        # Closed in `candidates`, which every caller reaches (the folder is temporary anyway).
-        self.files = [open(folder / f"keys-{i}.bin", "ab") for i in range(1 << self.bits)]  # noqa: SIM115
-
-    def add(self, hashes: np.ndarray, start: int) -> None:
-        pairs = np.empty((len(hashes), 2), np.uint64)
-        pairs[:, 0] = hashes
-        pairs[:, 1] = np.arange(start, start + len(hashes), dtype=np.uint64)
-        if not self.bits:
-            pairs.tofile(self.files[0])
-            return
-        part = (hashes >> np.uint64(64 - self.bits)).astype(np.uint16)
-        # One stable sort by partition (a radix sort for 16-bit keys), then one write a partition.
-        order = np.argsort(part, kind="stable")
-        grouped = pairs[order]
-        bounds = np.searchsorted(part[order], np.arange(len(self.files) + 1))
-        for index, (lower, upper) in enumerate(itertools.pairwise(bounds)):
-            if upper > lower:
-                grouped[lower:upper].tofile(self.files[index])
-
-    def candidates(self) -> np.ndarray:
-        """Positions whose hash occurs more than once (true duplicates and the rare collision)."""
-        found: list[np.ndarray] = []
-        for handle in self.files:
-            handle.close()
-            pairs = np.fromfile(handle.name, np.uint64).reshape(-1, 2)
-            repeated = repeated_values(pairs[:, 0])
-            if repeated.any():
-                found.append(pairs[repeated, 1].astype(np.int64))
-        return np.sort(np.concatenate(found)) if found else np.array([], np.int64)
-
-
-def spill_partitions(path: str, first: Span) -> int:
-    """How many hash partitions keep each near `PARTITION_ROWS` rows, estimated from the file's
-    size and the first piece's bytes per row, within `FEWEST_PARTITIONS` and `MOST_PARTITIONS`."""
-    per_row = first.size / max(1, first.rows)
-    rows = os.path.getsize(path) / max(1.0, per_row)
-    return int(min(MOST_PARTITIONS, max(FEWEST_PARTITIONS, rows // PARTITION_ROWS + 1)))
-
-
-T = TypeVar("T")
-
-
-def read_ahead(items: Iterator[T], depth: int = 1) -> Iterator[T]:
-    """`items`, produced in a thread up to `depth` ahead of the consumer.
-
-    Reading and parsing the next batch (Arrow releases the GIL) overlaps with judging this one;
-    at most `depth + 1` batches are in memory. An error in the producer is raised here, in order.
-    """
-    queue: Queue[tuple[bool, Any]] = Queue(maxsize=depth)
-    stop = threading.Event()
-
-    def produce() -> None:
-        try:
-            for item in items:
-                while not stop.is_set():
-                    try:
-                        queue.put((True, item), timeout=0.1)
-                        break
-                    except Full:
-                        continue
-                if stop.is_set():
-                    return
-            queue.put((False, None))
-        except BaseException as error:  # handed to the consumer, which raises it
-            queue.put((False, error))
-
-    worker = threading.Thread(target=produce, name="weir-read-ahead", daemon=True)
-    worker.start()
-    try:
-        while True:
-            more, item = queue.get()
-            if not more:
-                if item is not None:
-                    raise item
-                return
-            yield item
-    finally:
-        stop.set()
-        worker.join()
 
 
 def _no_rows(labels: Sequence[str]) -> pa.Table:

@@ -16,7 +16,7 @@ from linter.report.model import Report
 from linter.scale import fast_path
 from linter.scale.fast_path import read_screened
 from linter.scale.key_codes import duplicated_rows
-from linter.scale.stream import text_batches
+from linter.scale.pieces import text_batches
 
 # Rules that judge cells and keys row by row: the fast path must reproduce them exactly.
 ROW_RULES = ("values.", "keys.", "columns.", "header.")

@@ -9,8 +9,10 @@ from scale_lab_data import csv_text, lab_rows
 
 from linter.check import check_paths
 from linter.contract.load import load_contract
-from linter.scale import fast_path, stream
-from linter.scale.stream import HashSpill, Span, key_hashes, screen_stream
+from linter.scale import fast_path, pieces, spill, stream
+from linter.scale.pieces import Span
+from linter.scale.spill import HashSpill
+from linter.scale.stream import key_hashes, screen_stream
 
 
 @pytest.fixture
@@ -28,7 +30,7 @@ def findings_of(path, contract_file):
 def fast_findings(path, contract_file, monkeypatch, spill: bool):
     monkeypatch.setattr(fast_path, "FAST_PATH_BYTES", 0)
     monkeypatch.setattr(fast_path, "SAMPLE_ROWS", 3)
-    monkeypatch.setattr(stream, "BATCH_BYTES", 4096)  # many batches, keys repeated across them
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 4096)  # many batches, keys repeated across them
     if spill:
         monkeypatch.setattr(fast_path, "KEYS_IN_MEMORY_BYTES", 0)
     return findings_of(path, contract_file)
@@ -60,7 +62,7 @@ def test_keys_repeated_across_batches_are_found_exactly(tmp_path, contract_file,
     path.write_text(
         "sample_id,site_id,sampled_on,analyte,result,replicate,qualifier,lab\n" + "\n".join(lines) + "\n"
     )
-    monkeypatch.setattr(stream, "BATCH_BYTES", 4096)
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 4096)
     monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
     contract = load_contract(str(contract_file)).tables[0]
     found = screen_stream(str(path), contract, ",", 8, 0, keys_in_memory=not spill)
@@ -68,7 +70,7 @@ def test_keys_repeated_across_batches_are_found_exactly(tmp_path, contract_file,
 
 
 def test_progress_is_told_every_row_once(broken_file, contract_file, monkeypatch):
-    monkeypatch.setattr(stream, "BATCH_BYTES", 4096)
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 4096)
     told: list[int] = []
     contract = load_contract(str(contract_file)).tables[0]
     found = screen_stream(str(broken_file), contract, ",", 8, 3, told.append)
@@ -88,8 +90,8 @@ def test_equal_keys_hash_equal_and_spill_finds_them(tmp_path):
 
 
 def test_a_runaway_line_goes_to_the_ordinary_reader(tmp_path, contract_file, monkeypatch):
-    monkeypatch.setattr(stream, "BATCH_BYTES", 1024)
-    monkeypatch.setattr(stream, "LONGEST_LINE_BYTES", 4096)
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 1024)
+    monkeypatch.setattr(pieces, "LONGEST_LINE_BYTES", 4096)
     path = tmp_path / "results-runaway.csv"
     path.write_text("sample_id,lab\n" + "S" * 10_000 + ",HERON\n", encoding="utf-8")
     contract = load_contract(str(contract_file)).tables[0]
@@ -115,7 +117,7 @@ def test_rows_with_shared_keys_are_cut_from_where_the_first_pass_found_them(
 def test_a_nul_byte_stops_the_pass_and_leaves_the_file_to_the_ordinary_reader(
     tmp_path, contract_file, monkeypatch
 ):
-    monkeypatch.setattr(stream, "BATCH_BYTES", 1024)
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 1024)
     rows = lab_rows(300, seed=2)
     text = csv_text(rows)
     cut = len(text) // 2
@@ -128,19 +130,19 @@ def test_a_nul_byte_stops_the_pass_and_leaves_the_file_to_the_ordinary_reader(
 def test_line_scan_counts_lines_and_hashes_the_bytes_it_is_shown():
     import hashlib
 
-    scan = stream.LineScan()
+    scan = pieces.LineScan()
     for block in (b"a,b\r\n1,2\r", b"\n3,4\r\n"):
         scan.add(block)
     assert scan.newlines == 3 and scan.returns == 3 and scan.plain and scan.rows_agree(2)
     # Source: Python's hashlib (the same digest as hashing the whole file at once).
     assert scan.sha256 == hashlib.sha256(b"a,b\r\n1,2\r\n3,4\r\n").hexdigest()
-    bare = stream.LineScan()
+    bare = pieces.LineScan()
     bare.add(b"a,b\r1,2\n")
     assert not bare.plain and not bare.rows_agree(1)
 
 
 def test_read_ahead_keeps_order_raises_in_order_and_stops_with_its_consumer():
-    assert list(stream.read_ahead(iter(range(50)), depth=2)) == list(range(50))
+    assert list(pieces.read_ahead(iter(range(50)), depth=2)) == list(range(50))
 
     def failing():
         yield 1
@@ -149,7 +151,7 @@ def test_read_ahead_keeps_order_raises_in_order_and_stops_with_its_consumer():
 
     seen: list[int] = []
     with pytest.raises(ValueError, match="broken batch"):
-        for item in stream.read_ahead(failing()):
+        for item in pieces.read_ahead(failing()):
             seen.append(item)
     assert seen == [1, 2]
     produced: list[int] = []
@@ -161,7 +163,7 @@ def test_read_ahead_keeps_order_raises_in_order_and_stops_with_its_consumer():
             yield n
             n += 1
 
-    ahead = stream.read_ahead(endless(), depth=1)
+    ahead = pieces.read_ahead(endless(), depth=1)
     assert next(ahead) == 0
     ahead.close()  # the consumer stops: the producer thread must end, not block forever
     assert len(produced) <= 4
@@ -188,5 +190,5 @@ def test_partitions_grow_in_number_with_the_file(tmp_path):
     with open(path, "wb") as handle:
         handle.truncate(400 * 100_000_000)  # 40 GB of (sparse) bytes, 400 bytes a row
     first = Span(0, 400 * 1000, 1, 1000)
-    assert stream.spill_partitions(str(path), first) == 101  # 100M rows, 1M rows a partition
-    assert stream.spill_partitions(str(path), Span(0, 4 * 1000, 1, 1000)) == stream.MOST_PARTITIONS
+    assert spill.spill_partitions(str(path), first) == 101  # 100M rows, 1M rows a partition
+    assert spill.spill_partitions(str(path), Span(0, 4 * 1000, 1, 1000)) == spill.MOST_PARTITIONS
