@@ -11,6 +11,7 @@ import pandas as pd
 from linter.contract.dates import convert_dates, convert_datetimes
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
+from linter.contract.repeats import repeats
 
 PLAIN_NUMBER = r"^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$"
 PLAIN_INTEGER = r"^[+-]?\d+$"
@@ -157,8 +158,6 @@ READ_PER_DISTINCT_TYPES = frozenset(
 )
 """Types whose reading explains a failing cell by trying forms one after another: worth reading
 each distinct text once (a column repeats its values, its mistakes most of all)."""
-DISTINCT_SHARE = 0.5
-"""Read per distinct text when at most this share of the cells are distinct."""
 FEWEST_CELLS_PER_DISTINCT = 64
 """Shorter columns are read as they are: counting their distinct texts would cost more than it saves."""
 
@@ -170,14 +169,11 @@ def convert_column(text: pd.Series, variable: Variable, file_missing: tuple[str,
     (e.g. date-times with UTC offsets compared in UTC) on the set of its texts, so a column with
     few distinct texts is read once per text and spread back: the result is the same."""
     raw = text.astype(object).where(text.notna(), None)
-    if variable.type in READ_PER_DISTINCT_TYPES and len(raw) >= FEWEST_CELLS_PER_DISTINCT:
-        codes, distinct = pd.factorize(raw, use_na_sentinel=True)
-        if len(distinct) <= DISTINCT_SHARE * len(raw):
-            empty = bool((codes < 0).any())
-            cells = pd.Series([*distinct, *([None] if empty else [])], dtype=object)
-            once = read_cells(cells, variable, file_missing)
-            return once.spread(np.where(codes < 0, len(distinct), codes), text.index)
-    return read_cells(raw, variable, file_missing)
+    same = repeats(raw, FEWEST_CELLS_PER_DISTINCT) if variable.type in READ_PER_DISTINCT_TYPES else None
+    if same is None:
+        return read_cells(raw, variable, file_missing)
+    once = read_cells(pd.Series(same.values, dtype=object), variable, file_missing)
+    return once.spread(same.codes, text.index)
 
 
 def read_cells(raw: pd.Series, variable: Variable, file_missing: tuple[str, ...]) -> Converted:

@@ -14,6 +14,7 @@ from pandera.errors import SchemaErrors
 
 from linter.contract.convert import Converted, convert_column
 from linter.contract.model import TableContract, Variable, VarType
+from linter.contract.repeats import Repeats, repeats
 from linter.table import Frame
 
 FAILURE_COLUMNS = ("column", "kind", "row", "value")
@@ -188,9 +189,6 @@ def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
 
 
 NO_FAILURES = pd.DataFrame({name: pd.Series(dtype=object) for name in FAILURE_COLUMNS})
-DISTINCT_SHARE = 0.5
-"""A one-column table is validated once per distinct value when at most this share of its values
-are distinct (see `validated`)."""
 
 
 def validated(
@@ -205,50 +203,37 @@ def validated(
     on its own, so a one-column table with few distinct values (the doubtful cells of one column
     in a large file) is validated on the first row of each value, and each failure then stands for
     every row holding that value: pandera's work, and its failure cases, grow with the values."""
-    values = _first_of_each_value(schema, typed) if per_value else None
+    same = _one_column_repeats(schema, typed) if per_value else None
     try:
-        schema.validate(typed if values is None else typed.iloc[values.first], lazy=True)
+        schema.validate(typed if same is None else typed.iloc[same.first], lazy=True)
     except SchemaErrors as error:
         failures = _failure_table(error, kinds)
-        return (failures if values is None else values.spread(failures, typed.index)), _unrun(error, kinds)
+        return (failures if same is None else _spread(failures, same, typed.index)), _unrun(error, kinds)
     return NO_FAILURES.copy(), ()
 
 
-@dataclass(frozen=True)
-class _Values:
-    """Which rows of a one-column table hold the same value."""
-
-    group: np.ndarray
-    """Per row, the number of its value (all missing values share one number)."""
-    first: np.ndarray
-    """Position of the first row of each value, in the order the values first appear."""
-
-    def spread(self, failures: pd.DataFrame, index: pd.Index) -> pd.DataFrame:
-        """The failures of the first rows, each repeated for every row holding the same value."""
-        order = np.argsort(self.group, kind="stable")  # rows of each value together, in file order
-        bounds = np.searchsorted(self.group[order], np.arange(self.group.max() + 2))
-        value = self.group[index.get_indexer(pd.Index(failures["row"], dtype="int64"))]
-        counts = bounds[value + 1] - bounds[value]
-        case = np.repeat(np.arange(len(failures)), counts)
-        # For case i, positions bounds[value[i]] ... bounds[value[i] + 1] - 1 of `order`.
-        starts = np.repeat(bounds[value] - np.cumsum(counts) + counts, counts)
-        rows = index.to_numpy()[order[starts + np.arange(len(case))]]
-        spread = failures.iloc[case].assign(row=rows)
-        # Pandera lists each check's failing rows in row order, one check after another.
-        block = spread.groupby(["column", "kind"], sort=False).ngroup().to_numpy()
-        return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
+def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFrame:
+    """The failures of the first rows, each repeated for every row holding the same value."""
+    order = np.argsort(same.codes, kind="stable")  # rows of each value together, in file order
+    bounds = np.searchsorted(same.codes[order], np.arange(len(same.values) + 1))
+    value = same.codes[index.get_indexer(pd.Index(failures["row"], dtype="int64"))]
+    counts = bounds[value + 1] - bounds[value]
+    case = np.repeat(np.arange(len(failures)), counts)
+    # For case i, positions bounds[value[i]] ... bounds[value[i] + 1] - 1 of `order`.
+    starts = np.repeat(bounds[value] - np.cumsum(counts) + counts, counts)
+    rows = index.to_numpy()[order[starts + np.arange(len(case))]]
+    spread = failures.iloc[case].assign(row=rows)
+    # Pandera lists each check's failing rows in row order, one check after another.
+    block = spread.groupby(["column", "kind"], sort=False).ngroup().to_numpy()
+    return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
 
 
-def _first_of_each_value(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> _Values | None:
-    """The rows that stand for the others in `validated`, or None to validate every row."""
-    if typed.shape[1] != 1 or schema.unique or len(typed) < 2:
+def _one_column_repeats(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> Repeats | None:
+    """The repeats of a one-column table without a key, whose first rows stand for the others in
+    `validated`; None to validate every row."""
+    if typed.shape[1] != 1 or schema.unique:
         return None
-    codes, distinct = pd.factorize(typed.iloc[:, 0], use_na_sentinel=True)
-    if len(distinct) > DISTINCT_SHARE * len(typed):
-        return None
-    group = np.where(codes < 0, len(distinct), codes)
-    _, first = np.unique(group, return_index=True)
-    return _Values(group, np.sort(first))
+    return repeats(typed.iloc[:, 0], 2)
 
 
 _last: tuple[TableContract, Frame, CheckedTable] | None = None

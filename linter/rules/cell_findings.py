@@ -48,22 +48,28 @@ def header_place(subject: Subject, indexes: Sequence[int]) -> Place:
     )
 
 
-def written(subject: Subject, column: str, rows: Iterable[int]) -> list[str]:
-    """The cells of `column` at provider `rows` exactly as written ('' for an empty cell)."""
+def _cells_at(subject: Subject, column: str, rows: Iterable[int]) -> pd.Series:
     positions = pd.Index(subject.frame.rows, dtype="int64").get_indexer(pd.Index(list(rows), dtype="int64"))
-    cells = subject.frame.body[column].iloc[positions]
+    return subject.frame.body[column].iloc[positions]
+
+
+def _as_written(cells: pd.Series) -> list[str]:
     # Body cells are text or None; `cell != cell` also catches a NaN that slipped in.
     return ["" if cell is None or cell != cell else str(cell) for cell in cells.tolist()]
+
+
+def written(subject: Subject, column: str, rows: Iterable[int]) -> list[str]:
+    """The cells of `column` at provider `rows` exactly as written ('' for an empty cell)."""
+    return _as_written(_cells_at(subject, column, rows))
 
 
 def written_examples(subject: Subject, column: str, rows: Sequence[int]) -> tuple[str, ...]:
     """`examples_from` the cells of `column` at `rows` (in that order), read only as far as needed:
     a failing column often holds thousands of cells and a handful of distinct values."""
-    positions = pd.Index(subject.frame.rows, dtype="int64").get_indexer(pd.Index(list(rows), dtype="int64"))
     # First appearances in order; None and NaN drop as one, and '' is the only text an empty cell
     # shares, so one more than the examples wanted is always enough.
-    firsts = subject.frame.body[column].iloc[positions].drop_duplicates().head(MAX_EXAMPLES + 1)
-    return examples_from("" if cell is None or cell != cell else str(cell) for cell in firsts.tolist())
+    firsts = _cells_at(subject, column, rows).drop_duplicates().head(MAX_EXAMPLES + 1)
+    return examples_from(_as_written(firsts))
 
 
 def examples_from(values: Iterable[str]) -> tuple[str, ...]:
