@@ -72,6 +72,7 @@ def layout_detectors() -> list[Detector]:
         layout_header_rows,
         layout_headers,
         layout_index,
+        layout_lists,
         layout_margins,
         layout_repeated_header,
         layout_rows,
@@ -94,7 +95,7 @@ def layout_detectors() -> list[Detector]:
         layout_headers.find_repeated_groups,
         layout_headers.find_values_in_headers,
         layout_cells.find_packed_column,
-        layout_cells.find_list_cells,
+        layout_lists.find_list_cells,
         layout_rows.find_variables_in_rows,
     ]
 

@@ -12,6 +12,7 @@ from linter.rules import (  # noqa: F401
     layout_header_rows,
     layout_headers,
     layout_index,
+    layout_lists,
     layout_margins,
     layout_repeated_header,
     layout_rows,

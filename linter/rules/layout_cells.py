@@ -1,9 +1,11 @@
-"""Layout rules about cells holding more than one value: packed columns and list cells."""
+"""Layout rule about a column whose every cell joins several values: a packed column.
+
+Lists of items inside cells are the other way a cell holds more than one value (`layout_lists.py`).
+"""
 
 from __future__ import annotations
 
 import re
-from collections import Counter
 from collections.abc import Iterable
 
 from linter.contract.model import TableContract
@@ -45,39 +47,18 @@ PACKED_COLUMN = define_rule(
     """,
 )
 
-LIST_CELLS = define_rule(
-    "layout.list-cells",
-    "Lists inside cells",
-    Severity.ERROR,
-    """
-    Finds a column whose cells hold lists of items separated by `;`, `|` or `,`
-    (`mayfly; stonefly`). Counting, filtering or joining by an item is impossible while the
-    items share a cell. Fix: one row per item.
-
-    Bad:
-        site,taxa
-        VB-014,mayfly; stonefly
-
-    Good:
-        site,taxa
-        VB-014,mayfly
-        VB-014,stonefly
-    """,
-)
-
 NUM = r"[<>]?-?\d+(?:\.\d+)?"
 VALUE_UNIT = re.compile(rf"^\s*({NUM})\s*([A-Za-zµμ°%][A-Za-z0-9µμ°%/.²³]*)\s*$")
 RANGE_CELL = re.compile(r"^\s*(-?\d+(?:\.\d+)?)\s*(?:-|–|to)\s*(-?\d+(?:\.\d+)?)\s*$")
 YEAR_MONTH = re.compile(r"^\d{4}-\d{2}$")
 SEPARATORS = ("/", "|", "_", ":", " - ")
-LIST_SEPARATORS = (";", "|", ",", " / ")
-ONE_WORD = re.compile(r"^[A-Za-z][A-Za-z'-]{0,19}$")
 MATCH_SHARE = 0.9
 UNIT_VARIETY = 0.3
 """Share of distinct numbers that marks a column of measurements (class codes repeat a few)."""
 
 
-def _texts(frame: Frame, label: str) -> list[str]:
+def present_texts(frame: Frame, label: str) -> list[str]:
+    """The sampled non-blank cells of a column, as text."""
     return [str(v) for v in sample(frame.body[label]) if not blank(v)]
 
 
@@ -220,7 +201,7 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
     frame = frame_of(table)
     findings: list[Finding] = []
     for label in frame.labels:
-        texts = _texts(frame, label)
+        texts = present_texts(frame, label)
         if len(texts) < 2:
             continue
         found = (
@@ -259,79 +240,6 @@ def find_packed_column(table: Table, contract: TableContract | None = None) -> l
     return findings
 
 
-def _items_recur(texts: list[str], sep: str, items: list[str]) -> bool:
-    """Items of a real list recur in different company ("mayfly" alone, "mayfly; midge");
-    the parts of "Surname, Given" always come together in the same one cell."""
-    if len(set(items)) > 0.8 * len(items):
-        return False
-    cells_of: dict[str, set[str]] = {}
-    for text in set(texts):
-        for item in text.split(sep):
-            cells_of.setdefault(item.strip(), set()).add(text)
-    multi = [t for t in set(texts) if sep in t]
-    shared = [t for t in multi if any(len(cells_of[i.strip()]) >= 2 for i in t.split(sep))]
-    return len(shared) >= 0.5 * len(multi)
-
-
-def _one_word_items(sizes: Counter[int], items: list[str]) -> bool:
-    """On a table too small for items to recur: every item one word (`billing`, `gluten`), and
-    some cells hold a single item while others hold several. Free text splits into phrases."""
-    return sizes[1] > 0 and all(_one_word_or_list(item) for item in items)
-
-
-def _one_word_or_list(item: str) -> bool:
-    """One word, or a list of one-word items under another separator (`red, green; blue`)."""
-    if ONE_WORD.match(item):
-        return True
-    return any(
-        sep in item and all(ONE_WORD.match(part.strip()) for part in item.split(sep))
-        for sep in LIST_SEPARATORS
-    )
-
-
-def find_list_cells(table: Table, contract: TableContract | None = None) -> list[Finding]:
-    frame = frame_of(table)
-    findings: list[Finding] = []
-    for label in frame.labels:
-        texts = _texts(frame, label)
-        if len(texts) < 2 or any(cell_kind(t) == "number" for t in texts):
-            continue
-        for sep in LIST_SEPARATORS:
-            listed = [t for t in texts if sep in t]
-            if len(listed) < max(1, 0.2 * len(texts)):
-                continue
-            items = [item.strip() for t in texts for item in t.split(sep)]
-            if any(not item or len(item) > 40 or len(item.split()) > 4 for item in items):
-                continue
-            sizes = Counter(len(t.split(sep)) for t in texts)
-            if len(sizes) < 2:
-                continue
-            if not (_items_recur(texts, sep, items) or _one_word_items(sizes, items)):
-                continue
-            findings.append(
-                layout_finding(
-                    LIST_CELLS,
-                    table,
-                    f"The column '{label}' holds lists of items separated by '{sep}' "
-                    f"in {len(listed)} of {len(texts)} cells (e.g. '{listed[0]}').",
-                    f"Write one row per item of '{label}'.",
-                    {"step": "explode", "column": label, "separator": sep},
-                    rows=table.row_numbers[:1],
-                    columns=[label],
-                    letters=(frame.letter(label),),
-                    count=len(listed),
-                    examples=listed[:5],
-                )
-            )
-            break
-    return findings
-
-
 @inspector()
 def packed_column(subject: Subject) -> Iterable[Finding]:
     return find_packed_column(below_titles(subject.table), subject.contract)
-
-
-@inspector()
-def list_cells(subject: Subject) -> Iterable[Finding]:
-    return find_list_cells(below_titles(subject.table), subject.contract)
