@@ -202,7 +202,8 @@ def validated(
     Every check of a column without a key (range, pattern, codes, nullable, type) judges each value
     on its own, so a one-column table with few distinct values (the doubtful cells of one column
     in a large file) is validated on the first row of each value, and each failure then stands for
-    every row holding that value: pandera's work, and its failure cases, grow with the values."""
+    every row holding that value: pandera's work, and its failure cases, grow with the values.
+    With `per_value` False every row is validated (the result is the same; tests compare them)."""
     same = _one_column_repeats(schema, typed) if per_value else None
     try:
         schema.validate(typed if same is None else typed.iloc[same.first], lazy=True)
