@@ -4,8 +4,9 @@ from __future__ import annotations
 
 import numpy as np
 import pandas as pd
+import pyarrow as pa
 import pytest
-from scale_lab_data import csv_text, lab_rows
+from scale_lab_data import HEADER, csv_text, lab_rows
 
 from linter.check import check_paths
 from linter.contract.load import load_contract
@@ -78,8 +79,6 @@ def test_progress_is_told_every_row_once(broken_file, contract_file, monkeypatch
 
 
 def test_equal_keys_hash_equal_and_spill_finds_them(tmp_path):
-    import pyarrow as pa
-
     keys = pa.table({"a": ["x", "y", "x", None, None], "b": [1.0, 2.0, 1.0, -0.0, 0.0]})
     hashes = key_hashes(keys)
     assert hashes[0] == hashes[2] and hashes[3] == hashes[4] and len(set(hashes.tolist())) == 3
@@ -192,3 +191,26 @@ def test_partitions_grow_in_number_with_the_file(tmp_path):
     first = Span(0, 400 * 1000, 1, 1000)
     assert spill.spill_partitions(str(path), first) == 101  # 100M rows, 1M rows a partition
     assert spill.spill_partitions(str(path), Span(0, 4 * 1000, 1, 1000)) == spill.MOST_PARTITIONS
+
+
+def test_rows_found_again_come_from_the_kept_rows_or_the_file_in_order(tmp_path, monkeypatch):
+    # Body rows 0-299 in pieces of about 1 KB; rows 5, 150 and 299 were kept by the first pass
+    # (their copies are marked so it shows which were taken), the others must be cut from the file.
+    lines = [f"S{n:07d},VB-001,2026-03-02,NITRATE,1.5,1,,HERON" for n in range(300)]
+    path = tmp_path / "results-2026-06.csv"
+    path.write_text(HEADER + "\n" + "\n".join(lines) + "\n", encoding="utf-8")
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 1024)
+    spans = [piece.span for piece in pieces.text_batches(str(path), ",", 8)]
+    labels = HEADER.split(",")
+    kept_at = np.array([5, 150, 299])
+    kept = pa.table(
+        {
+            label: [f"kept-{p}" if label == "lab" else lines[p].split(",")[i] for p in kept_at]
+            for i, label in enumerate(labels)
+        }
+    )
+    rows = stream.Rows(str(path), ",", 8, labels, spans, kept, kept_at)
+    wanted = np.array([0, 5, 64, 150, 151, 298, 299])
+    found = rows.at(wanted)
+    assert found.column("sample_id").to_pylist() == [f"S{p:07d}" for p in wanted]
+    assert found.column("lab").to_pylist() == [f"kept-{p}" if p in kept_at else "HERON" for p in wanted]
