@@ -1,4 +1,5 @@
-"""Arrow text columns seen as bytes, without copying: what the byte kernels of the screen read."""
+"""Arrow text columns (and dictionary indices) seen as numpy arrays, without copying: what the
+byte kernels of the screen and the key hashes read."""
 
 from __future__ import annotations
 
@@ -42,6 +43,13 @@ def cell_bytes(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
         np.frombuffer(buffers[2], np.uint8)[first:last] if buffers[2] is not None else np.zeros(0, np.uint8)
     )
     return offsets - first, data
+
+
+def plain_integers(indices: pa.Array) -> np.ndarray:
+    """Dictionary indices (no nulls) as a NumPy view in their own width, without Arrow's slow
+    nullable conversion and without a copy."""
+    raw = np.frombuffer(indices.buffers()[1], dtype=indices.type.to_pandas_dtype())
+    return raw[indices.offset : indices.offset + len(indices)]
 
 
 def byte_table(members: bytes) -> np.ndarray:

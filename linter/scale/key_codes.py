@@ -6,18 +6,12 @@ import numpy as np
 import pyarrow as pa
 import pyarrow.compute as pc
 
+from linter.scale.cell_bytes import plain_integers
 from linter.scale.key_hash import repeated_values
 
 COUNTED_SPAN = 2
 """Folded key codes up to this many times the rows are counted in a table (8 bytes a code) instead
 of sorted: at twice the rows the table costs 16 bytes a row, as the sort's copy and mask do."""
-
-
-def plain_integers(indices: pa.Array) -> np.ndarray:
-    """Dictionary indices (no nulls) as a NumPy view in their own width, without Arrow's slow
-    nullable conversion and without a copy."""
-    raw = np.frombuffer(indices.buffers()[1], dtype=indices.type.to_pandas_dtype())
-    return raw[indices.offset : indices.offset + len(indices)]
 
 
 def key_codes(keys: pa.Table) -> np.ndarray:

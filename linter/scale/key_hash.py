@@ -14,6 +14,8 @@ import pandas as pd
 import pyarrow as pa
 import pyarrow.compute as pc
 
+from linter.scale.cell_bytes import plain_integers
+
 NULL_HASH = np.uint64(0x9E3779B97F4A7C15)
 """What a null cell hashes to (an odd constant; a value that happens to hash alike is verified away)."""
 FOLD = np.uint64(0x100000001B3)
@@ -117,9 +119,7 @@ def _dictionary_hashes(column: pa.Array) -> np.ndarray:
     words = encoded.dictionary.to_numpy(zero_copy_only=False)
     values = pd.util.hash_array(np.asarray(words, dtype=object), categorize=False)
     values = np.where(pd.isna(words), NULL_HASH, values).astype(np.uint64)
-    indices = encoded.indices
-    raw = np.frombuffer(indices.buffers()[1], dtype=indices.type.to_pandas_dtype())
-    return values[raw[indices.offset : indices.offset + len(indices)]]
+    return values[plain_integers(encoded.indices)]
 
 
 def _number_hashes(column: pa.Array) -> np.ndarray:
