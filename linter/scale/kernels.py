@@ -9,8 +9,9 @@ from __future__ import annotations
 
 import numpy as np
 import pyarrow as pa
+import pyarrow.compute as pc
 
-from linter.scale.cell_bytes import byte_table, cell_bytes, fixed_width_text, present
+from linter.scale.cell_bytes import byte_table, cell_bytes, fixed_width_text, present, with_validity
 
 # Longer digit strings may overflow int64 in one engine and not the other: leave them to pandera.
 LONGEST_PLAIN_INTEGER = 15
@@ -55,6 +56,52 @@ def plain_number_shape(chunk: pa.Array, integer: bool) -> np.ndarray:
     # pandas' parsers agree to the bit; pandas misrounds some longer ones (1000000000000000.5).
     plain &= digits <= SIGNIFICANT_DIGITS
     return plain & present(chunk) if chunk.null_count else plain
+
+
+def plain_numbers(
+    chunk: pa.Array, integer: bool, refused: np.ndarray | None = None
+) -> tuple[np.ndarray, pa.Array]:
+    """(plain, value as float64) of one chunk of trimmed number or integer cells: plain as in
+    `plain_number_shape`, never where `refused` (e.g. a censored prefix), and the value null
+    wherever the cell is not plain."""
+    quick = _plain_numbers_at_once(chunk, integer, refused)
+    if quick is not None:
+        return quick
+    plain = plain_number_shape(chunk, integer)
+    if refused is not None:
+        plain &= ~refused
+    return plain, pc.cast(with_validity(chunk, plain), pa.float64())
+
+
+def _plain_numbers_at_once(
+    chunk: pa.Array, integer: bool, refused: np.ndarray | None
+) -> tuple[np.ndarray, pa.Array] | None:
+    """The same answer as `plain_numbers` without a pass per cell byte, or None when it cannot tell.
+
+    When every byte of the chunk is a digit, a sign or (for numbers) a dot, and no cell is longer
+    than `SIGNIFICANT_DIGITS`, a cell is plain exactly when Arrow's number parser reads it (at most
+    one dot, a sign only in front, a digit somewhere: tests/scale/test_plain_numbers.py holds this
+    for every such text up to six bytes), so the parse the values need anyway decides; one cell
+    it refuses sends the chunk to `plain_number_shape`.
+    """
+    offsets, data = cell_bytes(chunk)
+    if not len(data) or data.min() < ord("+") or data.max() > ord("9"):
+        return None
+    # Between '+' and '9' lie also ',' and '/', and for integers the dot is not plain either.
+    if (data == ord(",")).any() or (data == ord("/")).any() or (integer and (data == ord(".")).any()):
+        return None
+    lengths = np.diff(offsets)
+    if lengths.max() > SIGNIFICANT_DIGITS:
+        return None
+    plain = lengths > 0
+    if chunk.null_count:
+        plain &= present(chunk)
+    if refused is not None:
+        plain &= ~refused
+    try:
+        return plain, pc.cast(with_validity(chunk, plain), pa.float64())
+    except pa.ArrowInvalid:
+        return None
 
 
 # Pandas' nanosecond clock spans 1677-09-21 to 2262-04-11; the screen passes whole years inside it.

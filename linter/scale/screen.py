@@ -22,7 +22,7 @@ import pyarrow.compute as pc
 from linter.contract.convert import convert_column
 from linter.contract.model import TableContract, Variable, VarType
 from linter.scale.cell_bytes import byte_table, cell_bytes, chunks, falsy, flat, present
-from linter.scale.kernels import PLAIN_NUMBER_BYTES, iso_dates, plain_number_shape
+from linter.scale.kernels import PLAIN_NUMBER_BYTES, iso_dates, plain_numbers
 from linter.scale.patterns import fixed_width_matches, position_tables
 
 SCREENED_TYPES = frozenset(
@@ -83,8 +83,8 @@ def _needs_trim(chunk: pa.Array) -> bool:
     """Whether any non-empty cell starts or ends with a byte trimming might remove (null cells
     included: trimming where nothing needs it only costs time)."""
     offsets, data = cell_bytes(chunk)
-    if len(data) == 0:
-        return False
+    if len(data) == 0 or (data.min() >= 0x21 and data.max() <= 0x7E):
+        return False  # not one byte of the chunk is one trimming removes
     starts, ends = offsets[:-1], offsets[1:]
     first, last = data.take(starts, mode="clip"), data.take(ends - 1, mode="clip")
     return bool(np.any((~UNTRIMMED[first] | ~UNTRIMMED[last]) & (ends > starts)))
@@ -126,28 +126,20 @@ def _bound_ok(values: np.ndarray, variable: Variable, as_date: bool) -> np.ndarr
     return ok
 
 
-def _with_validity(chunk: pa.Array, valid: np.ndarray) -> pa.Array:
-    """The same text cells (same buffers, no copy) with null wherever `valid` is False."""
-    bits = np.packbits(np.concatenate([np.zeros(chunk.offset, bool), valid]), bitorder="little")
-    buffers = chunk.buffers()
-    return pa.Array.from_buffers(
-        chunk.type, len(chunk), [pa.py_buffer(bits.tobytes()), buffers[1], buffers[2]], offset=chunk.offset
-    )
-
-
 def _numbers(trimmed: pa.ChunkedArray, variable: Variable) -> tuple[np.ndarray, pa.ChunkedArray, np.ndarray]:
     """(plain, value as the engine reads it, value as float64 with NaN) of number or integer cells."""
     integer = variable.type is VarType.INTEGER
-    plain_parts: list[np.ndarray] = []
-    values_parts: list[pa.Array] = []
-    for chunk in chunks(trimmed):
-        plain = plain_number_shape(chunk, integer)
-        if variable.censored_prefix and variable.censored_prefix[0] in PLAIN_NUMBER_BYTES:
-            plain &= ~flat(pc.starts_with(chunk, variable.censored_prefix))
-        plain_parts.append(plain)
-        values_parts.append(pc.cast(_with_validity(chunk, plain), pa.float64()))
-    values = pa.chunked_array(values_parts, pa.float64())
-    plain = np.concatenate(plain_parts)
+    prefix = variable.censored_prefix
+    judged = [
+        plain_numbers(
+            chunk,
+            integer,
+            flat(pc.starts_with(chunk, prefix)) if prefix and prefix[0] in PLAIN_NUMBER_BYTES else None,
+        )
+        for chunk in chunks(trimmed)
+    ]
+    values = pa.chunked_array([v for _, v in judged], pa.float64())
+    plain = np.concatenate([p for p, _ in judged])
     return plain, values, np.asarray(values.to_numpy(zero_copy_only=False), dtype=np.float64)
 
 
@@ -245,13 +237,17 @@ def _keyed(
 def _passing_never_missing(variable: Variable, codes: Sequence[str]) -> bool:
     """Whether no cell the screen passes can be a missing-value code: then only failing cells need
     the missing-value look-up. Passing numbers, booleans and dates are their own trimmed text, so
-    trying the codes themselves decides it; a passing category is one of its codes."""
+    trying the codes themselves decides it; a passing category is one of its codes. So is a text
+    matched by a fixed-width pattern that takes no byte trimming removes at either end."""
     stripped = pa.array(sorted({c.strip() for c in codes}), pa.string())
     if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN, VarType.DATE):
         return not _typed_cells(pa.chunked_array([stripped], pa.string()), variable)[0].any()
     if variable.codes is not None:
         written = pa.array(variable.codes.values, pa.string())
         return not flat(pc.is_in(pc.utf8_trim_whitespace(written), value_set=stripped)).any()
+    fixed = None if variable.pattern is None else position_tables(variable.pattern)
+    if fixed is not None and not (fixed[[0, -1]] & ~UNTRIMMED).any():
+        return not fixed_width_matches(stripped, fixed).any()
     return False
 
 

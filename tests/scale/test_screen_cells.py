@@ -256,3 +256,24 @@ def test_a_key_the_engine_cannot_read_sends_its_row_to_the_engine():
     result = screened(["12", "9" * 31, "1.5e0"], contract)
     assert result.suspect.to_pylist() == [False, True, True]
     assert result.keys.column("count").to_pylist() == [12.0, None, None]
+
+
+@pytest.mark.parametrize(
+    ("pattern", "cells", "suspect"),
+    [
+        (r"^VB-\d{3}$", ["VB-014", "NA", None], [False, True, True]),
+        # The pattern matches a missing-value code itself: passing cells are looked up too.
+        (r"^[A-Z]{2}$", ["AB", "NA"], [False, True]),
+        # A pattern taking a space at its ends passes ' NA', whose trimmed text is a missing code.
+        (r"^[A-Z ]{3}$", ["ABC", " NA", "NA "], [False, True, True]),
+    ],
+)
+def test_a_missing_code_in_a_required_patterned_column_is_never_passed(
+    pattern: str, cells: list[str | None], suspect: list[bool]
+) -> None:
+    variable = Variable("site_id", VarType.STRING, pattern=pattern, nullable=False)
+    contract = contract_of(variable, keyed=False)
+    assert screened(cells, contract).suspect.to_pylist() == suspect
+    engine = engine_view(cells, contract)
+    flagged = set(engine.failures["row"])
+    assert [row in flagged for row in engine.typed.index] == suspect  # the engine agrees
