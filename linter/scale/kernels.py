@@ -118,66 +118,69 @@ def _days_since_1970(year: np.ndarray, month: np.ndarray, day: np.ndarray) -> np
     return era * 146_097 + of_era * 365 + of_era // 4 - of_era // 100 + of_year - 719_468
 
 
-def _calendar() -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """Lookup tables by year (0-9999) and by month * 100 + day (0-9999): leap, year held, first day
-    of the year since 1970, real month and day (29 February included), day of a common year."""
+NOT_HELD = -1
+
+
+def _calendar() -> tuple[np.ndarray, np.ndarray]:
+    """Two lookup tables. By year (0-9999): twice the days from 1970 to its 1 January, plus 1 in
+    a leap year, or NOT_HELD when the nanosecond clock does not hold the year whole. By leap (0 or
+    1) * 10,000 + month * 100 + day: the days from 1 January to that day, or NOT_HELD when no
+    such day exists in such a year (30 February, 29 February of a common year, month 13)."""
     years = np.arange(10_000)
     leap = (years % 4 == 0) & ((years % 100 != 0) | (years % 400 == 0))
-    held = (years >= FIRST_YEAR) & (years <= LAST_YEAR)
     ones = np.ones_like(years)
     year_start = _days_since_1970(years, ones, ones)
+    held = (years >= FIRST_YEAR) & (years <= LAST_YEAR)
+    by_year = np.where(held, year_start * 2 + leap, NOT_HELD)
     month, day = np.divmod(np.arange(10_000), 100)
-    longest = np.array([0, 31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31])
-    real = (month >= 1) & (month <= 12) & (day >= 1) & (day <= longest[np.clip(month, 0, 12)])
-    common = np.full(10_000, 2001)
-    of_year = _days_since_1970(common, np.clip(month, 1, 12), day) - _days_since_1970(common, ones, ones)
-    of_year = np.where(real, of_year, 0)
-    of_year[LEAP_DAY] = 59  # 31 January days + 28 February days before it
-    return leap, held, year_start, real, of_year
+    by_day = np.full(20_000, NOT_HELD, np.int64)
+    for is_leap, of_a_year in ((0, 2001), (1, 2004)):
+        length = np.array([0, 31, 28 + is_leap, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31])
+        real = (month >= 1) & (month <= 12) & (day >= 1) & (day <= length[np.clip(month, 0, 12)])
+        year = np.full(10_000, of_a_year)
+        of_year = _days_since_1970(year, np.clip(month, 1, 12), day) - _days_since_1970(year, ones, ones)
+        by_day[is_leap * 10_000 : (is_leap + 1) * 10_000] = np.where(real, of_year, NOT_HELD)
+    return by_year, by_day
 
 
-LEAP_DAY = 229
-"""29 February as month * 100 + day."""
-LEAP_YEAR, HELD_YEAR, YEAR_START, REAL_MONTH_DAY, DAY_OF_COMMON_YEAR = _calendar()
+BY_YEAR, BY_DAY = _calendar()
 
 
-def _lanes(text: bytes) -> int:
-    """Bytes as the little-endian integer they form in memory."""
-    return int.from_bytes(text, "little")
+def _texts(text: np.ndarray, count: int, offset: int, kind: str) -> np.ndarray:
+    """From each of `count` 10-byte texts side by side in `text`, the bytes at `offset` read as one
+    little-endian unsigned integer of `kind` ('u1', 'u2', 'u4'): a strided view, no copy."""
+    return np.ndarray((count,), "<" + kind, buffer=text, offset=offset, strides=(10,))
 
 
-# A date's first 8 bytes are read as one uint64 and its last 2 as one uint16. After an XOR with the
-# expected text ('0000-00-' and '00') a digit lane holds 0-9 and a dash lane 0; a lane holds a value
-# below 10 exactly when neither its own top bit nor that of its low 7 bits plus 0x76 is set.
-ZEROS_AND_DASHES = np.uint64(_lanes(b"0000-00-"))
-DASH_LANES = np.uint64(_lanes(b"\0\0\0\0\xff\0\0\xff"))
-LOW_BITS, BELOW_TEN, TOP_BITS = (np.uint64(_lanes(bytes([b]) * 8)) for b in (0x7F, 0x76, 0x80))
+def _digits(lanes: np.ndarray, zeros: int, low: int, ten: int, top: int) -> tuple[np.ndarray, np.ndarray]:
+    """(every byte an ASCII digit, the digit values in their byte lanes) of a u2 or u4 array.
 
-
-def _digit_lanes(lanes: np.ndarray) -> np.ndarray:
-    """True where every byte lane of `lanes` (uint64 or uint16) holds a value from 0 to 9."""
+    After an XOR with '0' in every byte a digit lane holds 0-9; a lane holds a value below 10
+    exactly when neither its own top bit nor that of its low 7 bits plus 0x76 is set."""
     kind = lanes.dtype.type
-    low, ten, top = (kind(int(c) & int(np.iinfo(kind).max)) for c in (LOW_BITS, BELOW_TEN, TOP_BITS))
-    return ((((lanes & low) + ten) | lanes) & top) == 0
-
-
-def _lane(lanes: np.ndarray, place: int) -> np.ndarray:
-    return ((lanes >> np.uint64(8 * place)) & np.uint64(0xFF)).astype(np.int32)
+    values = lanes ^ kind(zeros)
+    return ((((values & kind(low)) + kind(ten)) | values) & kind(top)) == 0, values
 
 
 def _read_dates(text: np.ndarray, count: int) -> tuple[np.ndarray, np.ndarray]:
     """(real date, days since 1970) of `count` 10-byte texts in `text`, exactly YYYY-MM-DD."""
-    head = np.ndarray((count,), "<u8", buffer=text, offset=0, strides=(10,)) ^ ZEROS_AND_DASHES
-    tail = np.ndarray((count,), "<u2", buffer=text, offset=8, strides=(10,)) ^ np.uint16(_lanes(b"00"))
-    ok = _digit_lanes(head & ~DASH_LANES) & ((head & DASH_LANES) == 0) & _digit_lanes(tail)
-    year = _lane(head, 0) * 1000 + _lane(head, 1) * 100 + _lane(head, 2) * 10 + _lane(head, 3)
-    day = tail.astype(np.int32)
-    month_day = _lane(head, 5) * 1000 + _lane(head, 6) * 100 + (day & 0xFF) * 10 + (day >> 8)
-    year, month_day = np.where(ok, year, 0), np.where(ok, month_day, 0)
-    leap = LEAP_YEAR[year]
-    ok &= HELD_YEAR[year] & REAL_MONTH_DAY[month_day] & ((month_day != LEAP_DAY) | leap)
-    days = YEAR_START[year] + DAY_OF_COMMON_YEAR[month_day] + (leap & (month_day > LEAP_DAY))
-    return ok, days
+    year_ok, year_digits = _digits(
+        _texts(text, count, 0, "u4"), 0x30303030, 0x7F7F7F7F, 0x76767676, 0x80808080
+    )
+    month_ok, month_digits = _digits(_texts(text, count, 5, "u2"), 0x3030, 0x7F7F, 0x7676, 0x8080)
+    day_ok, day_digits = _digits(_texts(text, count, 8, "u2"), 0x3030, 0x7F7F, 0x7676, 0x8080)
+    dashes = (_texts(text, count, 4, "u1") == ord("-")) & (_texts(text, count, 7, "u1") == ord("-"))
+    ok = year_ok & month_ok & day_ok & dashes
+    # Digits first in the lowest byte: pairs of lanes become two-digit numbers, then one of four.
+    pairs = year_digits * np.uint32(10) + (year_digits >> np.uint32(8))
+    year = (pairs & np.uint32(0xFF)) * np.uint32(100) + ((pairs >> np.uint32(16)) & np.uint32(0xFF))
+    month = (month_digits & np.uint16(0xFF)) * np.uint16(10) + (month_digits >> np.uint16(8))
+    day = (day_digits & np.uint16(0xFF)) * np.uint16(10) + (day_digits >> np.uint16(8))
+    # Cells that are not all digits may hold anything in their lanes: look them up as year 0.
+    by_year = BY_YEAR[np.where(ok, year, 0)]
+    of_year = BY_DAY[np.where(ok, (by_year & 1) * 10_000 + month * 100 + day, 0)]
+    ok &= (by_year != NOT_HELD) & (of_year != NOT_HELD)
+    return ok, (by_year >> 1) + of_year
 
 
 def iso_dates(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
@@ -185,12 +188,16 @@ def iso_dates(chunk: pa.Array) -> tuple[np.ndarray, np.ndarray]:
     a real day of a real month and a year the nanosecond clock holds; other cells get False, 0."""
     offsets, data = cell_bytes(chunk)
     shaped = present(chunk) & (np.diff(offsets) == 10)
+    count = int(shaped.sum())
+    if count == 0:
+        return np.zeros(len(chunk), bool), np.zeros(len(chunk), np.int64)
+    ok, days = _read_dates(fixed_width_text(offsets, data, shaped, 10).reshape(-1), count)
+    stamps = np.where(ok, days * NS_PER_DAY, 0)
+    if count == len(chunk):  # the usual column of dates: no cell to leave out
+        return ok, stamps
     real = np.zeros(len(chunk), bool)
-    stamps = np.zeros(len(chunk), np.int64)
-    if not shaped.any():
-        return real, stamps
-    ok, days = _read_dates(fixed_width_text(offsets, data, shaped, 10).reshape(-1), int(shaped.sum()))
+    spread = np.zeros(len(chunk), np.int64)
     rows = np.flatnonzero(shaped)
     real[rows] = ok
-    stamps[rows] = np.where(ok, days * NS_PER_DAY, 0)
-    return real, stamps
+    spread[rows] = stamps
+    return real, spread
