@@ -12,16 +12,19 @@ from __future__ import annotations
 import hashlib
 import threading
 from collections.abc import Iterator
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import dataclass
 from queue import Full, Queue
 from typing import Any, TypeVar
 
+import numpy as np
 import pyarrow as pa
 import pyarrow.csv as pacsv
 
 from linter.read.limits import DEFAULT_LIMITS
 
 BATCH_BYTES = 16 * 1024 * 1024
+NEWLINE = ord("\n")
 LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
 """UTF-8 needs at most 4 bytes a character."""
 
@@ -52,7 +55,8 @@ class LineScan:
             return
         self.digest.update(memoryview(data)[start:end])
         self.bytes += end - start
-        self.newlines += data.count(b"\n", start, end)
+        # NumPy counts several times faster than `bytes.count`, and lets go of the GIL meanwhile.
+        self.newlines += int(np.count_nonzero(np.frombuffer(data, np.uint8, end - start, start) == NEWLINE))
         # `find` is a fast byte search; counting is only needed in files that have the byte at all.
         if data.find(b"\r", start, end) >= 0:
             self.returns += data.count(b"\r", start, end)
@@ -137,21 +141,30 @@ def text_batches(
     buffer = bytearray(LONGEST_LINE_BYTES + block)
     view = memoryview(buffer)
     have = offset = line = 0
-    with open(path, "rb") as handle:
+    # The scan (SHA-256 mostly) of each block runs beside Arrow's parse of it; both let go of the
+    # GIL, and the buffer is changed only once both are done.
+    with open(path, "rb") as handle, ThreadPoolExecutor(1, thread_name_prefix="weir-scan") as scanner:
         while True:
             read = handle.readinto(view[have : have + block])
-            if scan is not None:
-                scan.add(buffer, have, have + read)
-                if scan.nuls:
-                    raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
+            scanned = None if scan is None else scanner.submit(scan.add, buffer, have, have + read)
             filled = have + read
             cut = filled if not read else buffer.rfind(b"\n", 0, filled) + 1
+            table = None
+            if cut and filled - cut <= LONGEST_LINE_BYTES:
+                try:
+                    # Arrow copies the cells into its own arrays, so the buffer may be reused after.
+                    table = pacsv.read_csv(pa.BufferReader(pa.py_buffer(view[:cut])), *options)
+                finally:
+                    if scanned is not None:
+                        scanned.result()
+            elif scanned is not None:
+                scanned.result()
+            if scan is not None and scan.nuls:
+                raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
             if filled - cut > LONGEST_LINE_BYTES:
                 # The ordinary reader refuses such a line with a finding; let it.
                 raise pa.ArrowInvalid("a line longer than the reader's limit")
-            if cut:
-                # Arrow copies the cells into its own arrays, so the buffer may be reused at once.
-                table = pacsv.read_csv(pa.BufferReader(pa.py_buffer(view[:cut])), *options)
+            if table is not None:
                 yield Piece(table, Span(offset, cut, line, table.num_rows))
                 offset += cut
                 line += table.num_rows
