@@ -9,6 +9,8 @@ and its distinct values hashed one by one. A cell's hash never depends on the re
 
 from __future__ import annotations
 
+from concurrent.futures import Executor
+
 import numpy as np
 import pandas as pd
 import pyarrow as pa
@@ -195,6 +197,25 @@ def repeated_values(values: np.ndarray) -> np.ndarray:
     if len(values) < 2:
         return np.zeros(len(values), bool)
     return members_of(values, repeats_of(np.sort(values)))
+
+
+def repeats_across(runs: list[np.ndarray], ranges: int = 1, executor: Executor | None = None) -> np.ndarray:
+    """The distinct values that occur more than once in any of the sorted uint64 `runs`, sorted.
+
+    The runs are cut at the same values into `ranges` equal ranges of the 64-bit space (equal
+    values fall in the same range) and each range is merged and searched on its own, side by side
+    on `executor` when given: a hash is spread evenly, so each merge sorts a share of the values.
+    """
+    bounds = np.array([(1 << 64) // ranges * i for i in range(1, ranges)], np.uint64)
+    cuts = [np.concatenate([[0], np.searchsorted(run, bounds), [len(run)]]) for run in runs]
+
+    def repeats_in(place: int) -> np.ndarray:
+        return repeats_of(
+            merged_runs([run[c[place] : c[place + 1]] for run, c in zip(runs, cuts, strict=True)])
+        )
+
+    found = list(executor.map(repeats_in, range(ranges)) if executor else map(repeats_in, range(ranges)))
+    return np.concatenate([*found, np.zeros(0, np.uint64)])
 
 
 def merged_runs(runs: list[np.ndarray]) -> np.ndarray:

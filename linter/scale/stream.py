@@ -10,6 +10,7 @@ hash collision is dropped).
 
 from __future__ import annotations
 
+import os
 import tempfile
 from collections.abc import Callable, Mapping, Sequence
 from concurrent.futures import Future
@@ -22,7 +23,7 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.scale.key_codes import key_codes, shared_codes
-from linter.scale.key_hash import members_of, merged_runs, repeats_of, row_hashes
+from linter.scale.key_hash import members_of, repeats_across, row_hashes
 from linter.scale.pieces import LineScan, Span, read_ahead, text_batches, text_options
 from linter.scale.screen import screen_batch, worker_pool
 from linter.scale.spill import HashSpill, spill_partitions
@@ -222,7 +223,7 @@ def _exact_duplicates(
     if spill is None:
         if not key_parts:
             return empty
-        repeats = repeats_of(merged_runs(key_runs))
+        repeats = repeats_across(key_runs, os.cpu_count() or 1, worker_pool())
         starts = np.cumsum([0, *(len(part) for part in key_parts[:-1])])
         # Looked up batch by batch: joining the hashes again would only cost another copy.
         found = [np.flatnonzero(members_of(p, repeats)) + at for p, at in zip(key_parts, starts, strict=True)]

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from collections import Counter
+from concurrent.futures import ThreadPoolExecutor
 
 import numpy as np
 import pandas as pd
@@ -18,6 +19,7 @@ from linter.scale.key_hash import (
     members_of,
     merged_runs,
     repeated_values,
+    repeats_across,
     repeats_of,
     row_hashes,
 )
@@ -144,3 +146,21 @@ def test_batches_sorted_apart_and_merged_find_the_same_repeats(batches):
     merged = merged_runs([np.sort(p) for p in parts])
     assert merged.tolist() == sorted(values.tolist())  # Reference: Python's sorted
     assert members_of(values, repeats_of(merged)).tolist() == repeated_by_counting(values.tolist())
+
+
+EDGES = st.sampled_from([0, 1, (1 << 63) - 1, 1 << 63, (1 << 64) // 3, (1 << 64) - 1])
+"""Values at and beside the cuts between ranges, and the ends of the 64-bit space."""
+
+
+@given(
+    st.lists(st.lists(EDGES | st.integers(0, (1 << 64) - 1) | st.integers(0, 40), max_size=30), max_size=6),
+    st.integers(1, 5),
+)
+def test_repeats_found_range_by_range_are_the_repeats_of_all_the_values(batches, ranges):
+    parts = [np.array(b, np.uint64) for b in batches]
+    values = [v for b in batches for v in b]
+    with ThreadPoolExecutor(2) as pool:
+        found = repeats_across([np.sort(p) for p in parts], ranges, pool)
+    counts = Counter(values)
+    # Reference: counting with Python's Counter, sorted with Python's sorted.
+    assert found.tolist() == sorted(v for v, n in counts.items() if n > 1)
