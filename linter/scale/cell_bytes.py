@@ -68,6 +68,10 @@ def byte_table(members: bytes) -> np.ndarray:
     return table
 
 
+FEW_OTHER_WIDTHS = 8
+"""Cells of another width are "few" (cut out of the bytes) below one in this many cells."""
+
+
 def fixed_width_text(offsets: np.ndarray, data: np.ndarray, shaped: np.ndarray, width: int) -> np.ndarray:
     """The bytes of the cells where `shaped` (cells exactly `width` bytes long; `offsets` and `data`
     from `cell_bytes`), side by side: a (cells, width) uint8 matrix, a view of the chunk's own
@@ -77,5 +81,15 @@ def fixed_width_text(offsets: np.ndarray, data: np.ndarray, shaped: np.ndarray, 
         return np.zeros((len(rows), 0), np.uint8)
     if len(rows) * width == len(data):  # every byte belongs to a cell of that width: the data is the text
         return data.reshape(-1, width)
+    others = np.flatnonzero(~shaped)
+    if len(others) * FEW_OTHER_WIDTHS < len(shaped):
+        # Between two cells of another width the bytes are already cells of this width side by
+        # side: join those runs (one copy) instead of gathering every cell on its own.
+        starts = np.concatenate([[0], offsets[others + 1]])
+        ends = np.concatenate([offsets[others], [offsets[-1]]])
+        runs = [
+            data[start:end] for start, end in zip(starts.tolist(), ends.tolist(), strict=True) if end > start
+        ]
+        return np.concatenate(runs).reshape(-1, width)
     windows = np.lib.stride_tricks.sliding_window_view(data, width)
     return np.ascontiguousarray(windows[offsets[rows]])

@@ -78,30 +78,43 @@ def _plain_numbers_at_once(
 ) -> tuple[np.ndarray, pa.Array] | None:
     """The same answer as `plain_numbers` without a pass per cell byte, or None when it cannot tell.
 
-    When every byte of the chunk is a digit, a sign or (for numbers) a dot, and no cell is longer
-    than `SIGNIFICANT_DIGITS`, a cell is plain exactly when Arrow's number parser reads it (at most
-    one dot, a sign only in front, a digit somewhere: tests/scale/test_plain_numbers.py holds this
-    for every such text up to six bytes), so the parse the values need anyway decides; one cell
-    it refuses sends the chunk to `plain_number_shape`.
+    A cell holding a byte that is not a digit, a sign or (for numbers) a dot is not plain. Among
+    the others, when none is longer than `SIGNIFICANT_DIGITS`, a cell is plain exactly when Arrow's
+    number parser reads it (at most one dot, a sign only in front, a digit somewhere:
+    tests/scale/test_kernels.py holds this for every such text up to six bytes), so the parse the
+    values need anyway decides; one such cell it refuses sends the chunk to `plain_number_shape`.
     """
     offsets, data = cell_bytes(chunk)
-    if not len(data) or data.min() < ord("+") or data.max() > ord("9"):
-        return None
-    # Between '+' and '9' lie also ',' and '/', and for integers the dot is not plain either.
-    if (data == ord(",")).any() or (data == ord("/")).any() or (integer and (data == ord(".")).any()):
+    if not len(data):
         return None
     lengths = np.diff(offsets)
-    if lengths.max() > SIGNIFICANT_DIGITS:
-        return None
     plain = lengths > 0
     if chunk.null_count:
         plain &= present(chunk)
+    others = _other_bytes(data, integer)
+    if len(others):
+        plain[np.searchsorted(offsets, others, side="right") - 1] = False
+    if (plain & (lengths > SIGNIFICANT_DIGITS)).any():
+        return None
     if refused is not None:
         plain &= ~refused
     try:
         return plain, pc.cast(with_validity(chunk, plain), pa.float64())
     except pa.ArrowInvalid:
         return None
+
+
+def _other_bytes(data: np.ndarray, integer: bool) -> np.ndarray:
+    """Positions of the bytes that are not a digit, a sign or (for numbers) a dot, found with a
+    few byte-wide passes (no table look-up), the usual answer (none) with the fewest."""
+    # Between '+' and '9' lie also ',' and '/', and for integers the dot is not plain either.
+    inside = (ord(","), ord("/"), ord(".")) if integer else (ord(","), ord("/"))
+    if data.min() >= ord("+") and data.max() <= ord("9") and not any((data == b).any() for b in inside):
+        return np.zeros(0, np.int64)
+    other = (data < ord("+")) | (data > ord("9"))
+    for byte in inside:
+        other |= data == byte
+    return np.flatnonzero(other)
 
 
 # Pandas' nanosecond clock spans 1677-09-21 to 2262-04-11; the screen passes whole years inside it.
