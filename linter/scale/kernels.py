@@ -1,7 +1,8 @@
 """Byte kernels: plain numbers and ISO 8601 dates judged straight from Arrow's text buffers.
 
 Each kernel reads every cell's bytes with a few numpy passes over the whole chunk (no Python per
-cell) and is deliberately stricter than the engine: a cell it passes is one the engine reads to the
+cell; a chunk of number bytes is judged by Arrow's number parse, see `plain_numbers`) and is
+deliberately stricter than the engine: a cell it passes is one the engine reads to the
 same value; anything else is left for the engine to judge.
 """
 
