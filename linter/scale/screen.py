@@ -85,9 +85,10 @@ def _needs_trim(chunk: pa.Array) -> bool:
     offsets, data = cell_bytes(chunk)
     if len(data) == 0 or (data.min() >= 0x21 and data.max() <= 0x7E):
         return False  # not one byte of the chunk is one trimming removes
-    starts, ends = offsets[:-1], offsets[1:]
-    first, last = data.take(starts, mode="clip"), data.take(ends - 1, mode="clip")
-    return bool(np.any((~UNTRIMMED[first] | ~UNTRIMMED[last]) & (ends > starts)))
+    # Only the few bytes that are not printable ASCII can be trimmed: is one a cell's first or last?
+    odd = np.flatnonzero((data < 0x21) | (data > 0x7E))
+    cell = np.searchsorted(offsets, odd, side="right") - 1
+    return bool(np.any((odd == offsets[cell]) | (odd == offsets[cell + 1] - 1)))
 
 
 def trimmed_text(text: pa.ChunkedArray) -> pa.ChunkedArray:
@@ -234,6 +235,21 @@ def _keyed(
     return pc.if_else(pa.array(given_up), engine.take(pa.array(np.maximum(spread, 0))), typed)
 
 
+_never_missing: dict[tuple[str, tuple[str, ...]], bool] = {}
+NEVER_MISSING_KEPT = 1024
+
+
+def passing_never_missing(variable: Variable, codes: tuple[str, ...]) -> bool:
+    """`_passing_never_missing`, worked out once per variable rather than once per batch (the
+    variable's repr holds every field it depends on; variables hold dicts, so are not hashable)."""
+    key = (repr(variable), codes)
+    if key not in _never_missing:
+        if len(_never_missing) >= NEVER_MISSING_KEPT:  # a long-running gate meets many contracts
+            _never_missing.clear()
+        _never_missing[key] = _passing_never_missing(variable, codes)
+    return _never_missing[key]
+
+
 def _passing_never_missing(variable: Variable, codes: Sequence[str]) -> bool:
     """Whether no cell the screen passes can be a missing-value code: then only failing cells need
     the missing-value look-up. Passing numbers, booleans and dates are their own trimmed text, so
@@ -270,7 +286,7 @@ def _judged(
         trimmed_text(text) if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN) else text
     )
     passes, typed = _typed_cells(text, variable, trimmed)
-    if _passing_never_missing(variable, codes):
+    if passing_never_missing(variable, codes):
         missing = _missing_among(text, codes, ~passes)
     else:
         missing = missing_cells(text, codes, trimmed_text(text) if trimmed is text else trimmed)

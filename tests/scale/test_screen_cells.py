@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import pandas as pd
 import pyarrow as pa
+import pyarrow.compute as pc
 import pytest
 from hypothesis import example, given, settings
 from hypothesis import strategies as st
@@ -16,7 +17,7 @@ from hypothesis import strategies as st
 from linter.contract.engine import CheckedTable, run_contract
 from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.scale.kernels import iso_dates, plain_number_shape
-from linter.scale.screen import Screened, screen_batch
+from linter.scale.screen import Screened, screen_batch, trimmed_text
 from linter.table import Table, first_row_header
 
 # The suite's examples repeat on every run (a CI failure can be reproduced); the "long" profile of
@@ -277,3 +278,14 @@ def test_a_missing_code_in_a_required_patterned_column_is_never_passed(
     engine = engine_view(cells, contract)
     flagged = set(engine.failures["row"])
     assert [row in flagged for row in engine.typed.index] == suspect  # the engine agrees
+
+
+CELL_BYTES = st.sampled_from([" ", "\t", "\u00a0", "\u2003", "\x1c", "\n", "a", "7", "é", "-"])
+
+
+@given(st.lists(st.lists(st.text(CELL_BYTES, max_size=4) | st.none(), max_size=8), max_size=4))
+@settings(max_examples=300, deadline=None, derandomize=True)
+def test_a_chunk_left_untrimmed_has_no_cell_trimming_would_change(pieces: list[list[str | None]]) -> None:
+    column = pa.chunked_array([pa.array(piece, pa.string()) for piece in pieces], pa.string())
+    # Reference: Arrow's own whitespace trim applied to every cell of every chunk.
+    assert trimmed_text(column).to_pylist() == pc.utf8_trim_whitespace(column).to_pylist()
