@@ -125,13 +125,12 @@ def compile_schema(
         )
     keys = [k for k in contract.keys if k in present]
     whole_key = len(keys) == len(contract.keys) and bool(keys)
-    schema = pa.DataFrameSchema(
-        columns,
-        unique=keys if whole_key else None,
-        report_duplicates="all",
-        strict=False,
-    )
-    return schema, kinds
+    return _table_schema(columns, keys if whole_key else None), kinds
+
+
+def _table_schema(columns: Mapping[str, pa.Column], unique: list[str] | None) -> pa.DataFrameSchema:
+    """Weir's one way of asking pandera to judge a typed table: every failure, extra columns allowed."""
+    return pa.DataFrameSchema(dict(columns), unique=unique, report_duplicates="all", strict=False)
 
 
 def _kind_of(row: pd.Series, kinds: Mapping[tuple[str, int], str]) -> str:
@@ -199,18 +198,53 @@ def validated(
 ) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
     """Pandera's verdict on the typed table: Weir's failure table, and the checks that never ran.
 
-    Every check of a column without a key (range, pattern, codes, nullable, type) judges each value
-    on its own, so a one-column table with few distinct values (the doubtful cells of one column
-    in a large file) is validated on the first row of each value, and each failure then stands for
-    every row holding that value: pandera's work, and its failure cases, grow with the values.
-    With `per_value` False every row is validated (the result is the same; tests compare them)."""
-    same = _one_column_repeats(schema, typed) if per_value else None
+    Every check of a column (range, pattern, codes, nullable, type) judges each value on its own,
+    so a column with few distinct values (the doubtful cells of a large file, most of all) is
+    validated on its own, on the first row of each value, and each failure then stands for every
+    row holding that value: pandera's work, and its failure cases, grow with the values. The key's
+    uniqueness, and the columns without repeats, are judged on every row in one more run. With
+    `per_value` False the whole table is validated at once (the result is the same, row for row,
+    in the same order; tests compare them)."""
+    alone = _repeating_columns(schema, typed) if per_value else {}
+    if not alone:
+        return _run(schema, typed, kinds)
+    rest = _table_schema({n: c for n, c in schema.columns.items() if n not in alone}, schema.unique)
+    runs = [_run(rest, typed, kinds)] if rest.columns or rest.unique else []
+    for name, same in alone.items():
+        one = _table_schema({name: schema.columns[name]}, None)
+        failures, unrun = _run(one, typed[[name]].iloc[same.first], kinds)
+        runs.append((_spread(failures, same, typed.index), unrun))
+    return _in_pandera_order(runs, list(schema.columns))
+
+
+def _run(
+    schema: pa.DataFrameSchema, typed: pd.DataFrame, kinds: Mapping[tuple[str, int], str]
+) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
     try:
-        schema.validate(typed if same is None else typed.iloc[same.first], lazy=True)
+        schema.validate(typed, lazy=True)
     except SchemaErrors as error:
-        failures = _failure_table(error, kinds)
-        return (failures if same is None else _spread(failures, same, typed.index)), _unrun(error, kinds)
+        return _failure_table(error, kinds), _unrun(error, kinds)
     return NO_FAILURES.copy(), ()
+
+
+def _in_pandera_order(
+    runs: list[tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]], columns: list[str]
+) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
+    """Several runs' failures as one run of the whole schema lists them: the key's uniqueness (a
+    check of the whole table) first, then column by column in schema order."""
+
+    def block(column: str, kind: str) -> int:
+        return 0 if kind == "unique" else 1 + columns.index(column)
+
+    tables = [failures for failures, _ in runs if len(failures)]
+    if not tables:
+        failures = NO_FAILURES.copy()
+    else:
+        failures = pd.concat(tables, ignore_index=True)
+        blocks = [block(str(c), str(k)) for c, k in zip(failures["column"], failures["kind"], strict=True)]
+        failures = failures.iloc[np.argsort(blocks, kind="stable")].reset_index(drop=True)
+    unrun = sorted((u for _, found in runs for u in found), key=lambda u: block(u[0], u[1]))
+    return failures, tuple(unrun)
 
 
 def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFrame:
@@ -229,12 +263,17 @@ def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFr
     return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
 
 
-def _one_column_repeats(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> Repeats | None:
-    """The repeats of a one-column table without a key, whose first rows stand for the others in
-    `validated`; None to validate every row."""
-    if typed.shape[1] != 1 or schema.unique:
-        return None
-    return repeats(typed.iloc[:, 0], 2)
+SPLIT_FROM_ROWS = 4096
+"""A table of several columns is split into runs from this many rows on: each run costs pandera
+about a millisecond more, each failing cell judged once per value saves it a few microseconds."""
+
+
+def _repeating_columns(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> dict[str, Repeats]:
+    """The columns validated on their own, once per value, in `validated`, with their repeats."""
+    if typed.shape[1] > 1 and len(typed) < SPLIT_FROM_ROWS:
+        return {}
+    found = {name: repeats(typed[name], 2) for name in schema.columns if name in typed}
+    return {name: same for name, same in found.items() if same is not None}
 
 
 _last: tuple[TableContract, Frame, CheckedTable] | None = None
