@@ -89,17 +89,22 @@ def plain_head(path: str) -> tuple[str, str] | None:
     return delimiter, sample.split("\n", 1)[0]
 
 
-def grid_of(columns: pa.Table, shown: Collection[int] | None = None) -> pd.DataFrame:
-    """Arrow text columns as the reader's grid: object cells, None where empty, positional labels.
+def grid_of(header: tuple[str, ...], columns: pa.Table, shown: Collection[int] | None = None) -> pd.DataFrame:
+    """The header over Arrow text columns, as the reader's grid: object cells, None where empty,
+    positional labels.
 
-    Columns not `shown` (when given) are left empty: nothing that judges the grid reads them."""
+    Columns not `shown` (when given) are left empty below the header: nothing that judges the
+    grid reads them."""
 
     def cells(i: int) -> np.ndarray:
-        if shown is not None and i not in shown:
-            return np.full(columns.num_rows, None, dtype=object)
-        return columns.column(i).to_numpy(zero_copy_only=False)
+        column = np.empty(columns.num_rows + 1, dtype=object)
+        column[0] = header[i] or None
+        if shown is None or i in shown:
+            column[1:] = columns.column(i).to_numpy(zero_copy_only=False)
+        return column
 
-    return pd.DataFrame({i: pd.Series(cells(i), dtype=object) for i in range(columns.num_columns)})
+    width = columns.num_columns
+    return pd.DataFrame({i: pd.Series(cells(i), dtype=object, copy=False) for i in range(width)})
 
 
 @dataclass(frozen=True)
@@ -147,10 +152,10 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
 
     return ScreenedFile(
         tuple(
-            Part(columns, _table_of(plain, found, rows_of(columns, judged), read_by(columns)))
+            Part(columns, _table_of(plain, found, positions, rows_of(columns, judged), read_by(columns)))
             for columns, judged in parts_to_judge(found, rules)
         ),
-        _table_of(plain, found, sample),
+        _table_of(plain, found, positions, sample),
         found.rows,
         found.suspect,
         sha256,
@@ -177,19 +182,21 @@ def _union(parts: Iterable[np.ndarray]) -> np.ndarray:
 
 
 def _table_of(
-    plain: PlainFile, found: StreamResult, chosen: np.ndarray, shown: Collection[int] | None = None
+    plain: PlainFile,
+    found: StreamResult,
+    positions: np.ndarray,
+    chosen: np.ndarray,
+    shown: Collection[int] | None = None,
 ) -> Table:
-    """The header and the kept rows at `chosen` (sorted indices into `found.kept`) as a `Table`,
-    with only the `shown` columns filled in (all when None)."""
-    header_grid = pd.DataFrame({i: pd.Series([n or None], dtype=object) for i, n in enumerate(found.names)})
+    """The header and the kept rows at `chosen` (sorted indices into `found.kept`, whose body
+    `positions` are given) as a `Table`, with only the `shown` columns filled in (all when None)."""
     rows = found.kept.take(pa.array(chosen, pa.int64()))
-    grid = pd.concat([header_grid, grid_of(rows, shown)], ignore_index=True)
-    grid.columns = pd.RangeIndex(grid.shape[1])
+    lines = positions[chosen] + 2  # body position 0 is line 2, after the header
     return Table(
         source=plain.path,
         sheet=None,
-        grid=grid,
-        row_numbers=(1, *(found.positions[int(i)] + 2 for i in chosen)),
+        grid=grid_of(found.names, rows, shown),
+        row_numbers=(1, *lines.tolist()),
         format="tsv" if plain.delimiter == "\t" else "csv",
         encoding="utf-8",
         delimiter=plain.delimiter,
