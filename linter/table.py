@@ -89,6 +89,11 @@ class Frame:
         return tuple(str(c) for c in self.body.columns)
 
     @cached_property
+    def row_index(self) -> pd.Index:
+        """`rows` as an index: built (and its look-up table hashed) once, however often rules ask."""
+        return pd.Index(self.rows, dtype="int64")
+
+    @cached_property
     def positions(self) -> Mapping[str, int]:
         """Column label -> 0-based position; a lookup per letter keeps wide tables linear."""
         return {label: index for index, label in enumerate(self.labels)}

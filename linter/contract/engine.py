@@ -176,7 +176,7 @@ def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) ->
 def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
     """Convert every present variable, validate the typed table with pandera, collect every failure."""
     variables = present_variables(contract, frame)
-    index = pd.Index(frame.rows, dtype="int64")
+    index = frame.row_index
     converted: dict[str, Converted] = {}
     for variable in variables:
         text = frame.body[variable.name].set_axis(index)

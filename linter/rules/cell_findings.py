@@ -49,7 +49,7 @@ def header_place(subject: Subject, indexes: Sequence[int]) -> Place:
 
 
 def _cells_at(subject: Subject, column: str, rows: Iterable[int]) -> pd.Series:
-    positions = pd.Index(subject.frame.rows, dtype="int64").get_indexer(pd.Index(list(rows), dtype="int64"))
+    positions = subject.frame.row_index.get_indexer(pd.Index(list(rows), dtype="int64"))
     return subject.frame.body[column].iloc[positions]
 
 

@@ -121,7 +121,7 @@ def incomplete_grid(subject: Subject) -> Iterator[Finding]:
     over = list(contract.complete_over)
     if any(c not in result.converted for c in over):
         return
-    index = pd.Index(subject.frame.rows, dtype="int64")
+    index = subject.frame.row_index
     usable = pd.Series(True, index=index)
     for column in over:  # empty or unreadable cells are other findings; they do not define the grid
         usable &= ~result.converted[column].missing & result.converted[column].reason.isna()
