@@ -286,13 +286,17 @@ def _judged(
         trimmed_text(text) if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN) else text
     )
     passes, typed = _typed_cells(text, variable, trimmed)
-    if passing_never_missing(variable, codes):
+    is_key = variable.name in contract.keys
+    nullable = variable.nullable and not is_key
+    never_missing = passing_never_missing(variable, codes)
+    if never_missing and not nullable and not is_key:
+        return passes, typed  # a failing cell fails, missing or not; a passing one is never missing
+    if never_missing:
         missing = _missing_among(text, codes, ~passes)
     else:
         missing = missing_cells(text, codes, trimmed_text(text) if trimmed is text else trimmed)
-    nullable = variable.nullable and variable.name not in contract.keys
     clean = np.where(missing, nullable, passes)
-    if variable.name not in contract.keys:
+    if not is_key:
         return clean, typed
     keyed = pc.if_else(pa.array(missing), pa.scalar(None, typed.type), typed) if missing.any() else typed
     if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.DATE):
