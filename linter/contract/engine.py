@@ -213,7 +213,7 @@ def validated(
     for name, same in alone.items():
         one = _table_schema({name: schema.columns[name]}, None)
         failures, unrun = _run(one, typed[[name]].iloc[same.first], kinds)
-        runs.append((_spread(failures, same, typed.index), unrun))
+        runs.append((_spread(failures, same, typed.index) if len(failures) else failures, unrun))
     return _in_pandera_order(runs, list(schema.columns))
 
 
@@ -232,18 +232,17 @@ def _in_pandera_order(
 ) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
     """Several runs' failures as one run of the whole schema lists them: the key's uniqueness (a
     check of the whole table) first, then column by column in schema order."""
-
-    def block(column: str, kind: str) -> int:
-        return 0 if kind == "unique" else 1 + columns.index(column)
-
+    if len(runs) == 1:
+        return runs[0]
+    block = {column: number + 1 for number, column in enumerate(columns)}
     tables = [failures for failures, _ in runs if len(failures)]
-    if not tables:
-        failures = NO_FAILURES.copy()
-    else:
-        failures = pd.concat(tables, ignore_index=True)
-        blocks = [block(str(c), str(k)) for c, k in zip(failures["column"], failures["kind"], strict=True)]
+    failures = pd.concat(tables, ignore_index=True) if tables else NO_FAILURES.copy()
+    if len(tables) > 1:
+        of_column = failures["column"].map(block).fillna(len(block) + 1).to_numpy(dtype=np.int64)
+        blocks = np.where((failures["kind"] == "unique").to_numpy(), 0, of_column)
         failures = failures.iloc[np.argsort(blocks, kind="stable")].reset_index(drop=True)
-    unrun = sorted((u for _, found in runs for u in found), key=lambda u: block(u[0], u[1]))
+    unrun = [u for _, found in runs for u in found]
+    unrun.sort(key=lambda u: 0 if u[1] == "unique" else block.get(u[0], len(block) + 1))
     return failures, tuple(unrun)
 
 
