@@ -134,12 +134,8 @@ def _table_schema(columns: Mapping[str, pa.Column], unique: list[str] | None) ->
 
 
 def _kind_of(row: pd.Series, kinds: Mapping[tuple[str, int], str]) -> str:
-    if row["check"] in KINDS_BY_PANDERA_NAME:
-        return KINDS_BY_PANDERA_NAME[row["check"]]
     number = row["check_number"]
-    if number is None or pd.isna(number):
-        return "other"
-    return kinds.get((row["column"], int(number)), "other")
+    return _kind(str(row["column"]), row["check"], None if pd.isna(number) else float(number), kinds)
 
 
 def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[tuple[str, str, str], ...]:
@@ -151,26 +147,37 @@ def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[t
 
 def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> pd.DataFrame:
     cases = error.failure_cases
-    cases = cases[cases["index"].notna()].reset_index(drop=True)
-    # Vectorised: a file can fail a check on every row, so no per-case Python here; the kind of a
-    # numbered check is looked up per (column, number) pair, of which a schema has only a few.
-    columns = cases["column"].astype(object)
-    numbers = pd.to_numeric(cases["check_number"], errors="coerce")
-    pairs = pd.MultiIndex.from_arrays([columns, numbers])
-    known = pd.Series(list(kinds.values()), index=pd.MultiIndex.from_tuples(list(kinds), names=[None, None]))
-    by_number = pd.Series(
-        known.reindex(pairs).to_numpy() if len(known) else None, index=cases.index, dtype=object
-    )
-    by_name = cases["check"].astype(object).map(KINDS_BY_PANDERA_NAME)
-    table = pd.DataFrame(
+    cases = cases[cases["index"].notna()]
+    # Vectorised: a file can fail a check on every row, so no per-case Python here. A schema has
+    # only a few (column, check, number) triples: each is given its kind once, from its first case.
+    columns = cases["column"].to_numpy(dtype=object)
+    checks = cases["check"].to_numpy(dtype=object)
+    numbers = pd.to_numeric(cases["check_number"], errors="coerce").to_numpy(dtype=float)
+    triples = np.stack([pd.factorize(values)[0] for values in (columns, checks, numbers)])
+    _, firsts, which = np.unique(triples, axis=1, return_index=True, return_inverse=True)
+    kind_of = [_kind(str(columns[i]), checks[i], float(numbers[i]), kinds) for i in firsts.tolist()]
+    kind = np.array(kind_of, dtype=object)[which.reshape(-1)]
+    rows = cases["index"].to_numpy(dtype=np.int64)
+    # The first case of each (column, kind, row), in pandera's order.
+    cells = np.stack([triples[0], pd.factorize(kind)[0], rows])
+    first = np.sort(np.unique(cells, axis=1, return_index=True)[1])
+    return pd.DataFrame(
         {
-            "column": columns,
-            "kind": by_name.fillna(by_number).fillna("other").astype(object),
-            "row": cases["index"].astype(int),
-            "value": cases["failure_case"],
+            "column": pd.Series(columns[first], dtype=object),
+            "kind": pd.Series(kind[first], dtype=object),
+            "row": rows[first],
+            "value": cases["failure_case"].iloc[first].reset_index(drop=True),
         }
     )
-    return table.drop_duplicates(["column", "kind", "row"]).reset_index(drop=True)
+
+
+def _kind(column: str, check: object, number: float | None, kinds: Mapping[tuple[str, int], str]) -> str:
+    """Weir's check kind of one pandera check of a column (`number` None or NaN when it has none)."""
+    if check in KINDS_BY_PANDERA_NAME:
+        return KINDS_BY_PANDERA_NAME[str(check)]
+    if number is None or np.isnan(number):
+        return "other"
+    return kinds.get((column, int(number)), "other")
 
 
 def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
