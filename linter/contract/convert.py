@@ -79,32 +79,44 @@ def missing_mask(text: pd.Series, codes: tuple[str, ...]) -> pd.Series:
     return text.isna() | text.str.strip().isin(trimmed)
 
 
-def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tuple[pd.Series, pd.Series]:
-    """Why each of these (failing, trimmed) cells is not a plain number, and what to write instead."""
-    reason = pd.Series(None, index=trimmed.index, dtype=object)
-    suggestion = pd.Series(None, index=trimmed.index, dtype=object)
+def _matches(text: pd.Series, pattern: str) -> np.ndarray:
+    return text.str.match(pattern, na=False).to_numpy(dtype=bool)
+
+
+def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tuple[np.ndarray, np.ndarray]:
+    """Why each of these (failing, trimmed) cells is not a plain number, and what to write instead.
+
+    Filled in as numpy arrays: a pandas assignment through a mask costs a copy of the column."""
+    reason = np.full(len(trimmed), None, dtype=object)
+    suggestion = np.full(len(trimmed), None, dtype=object)
     if integer:
-        reason[trimmed.str.match(PLAIN_NUMBER, na=False)] = Problem.NOT_AN_INTEGER
-    thousands = reason.isna() & trimmed.str.match(THOUSANDS, na=False)
+        reason[_matches(trimmed, PLAIN_NUMBER)] = Problem.NOT_AN_INTEGER
+    thousands = _unexplained(reason) & _matches(trimmed, THOUSANDS)
     reason[thousands] = Problem.THOUSANDS_SEPARATOR
-    suggestion[thousands] = trimmed[thousands].str.replace(",", "", regex=False)
-    comma = reason.isna() & trimmed.str.match(DECIMAL_COMMA, na=False)
+    suggestion[thousands] = trimmed[thousands].str.replace(",", "", regex=False).to_numpy(dtype=object)
+    comma = _unexplained(reason) & _matches(trimmed, DECIMAL_COMMA)
     reason[comma] = Problem.DECIMAL_COMMA
-    suggestion[comma] = trimmed[comma].str.replace(",", ".", regex=False)
-    parts = trimmed.where(reason.isna()).str.extract(NUMBER_WITH_UNIT)
-    with_unit = reason.isna() & parts[0].notna()
+    suggestion[comma] = trimmed[comma].str.replace(",", ".", regex=False).to_numpy(dtype=object)
+    parts = trimmed.where(_unexplained(reason)).str.extract(NUMBER_WITH_UNIT)
+    with_unit = _unexplained(reason) & parts[0].notna().to_numpy(dtype=bool)
     written_unit = parts[1].str.strip()
     if unit is None:
         same_unit = with_unit
     else:
-        same_unit = with_unit & (written_unit.map(unit_key, na_action="ignore") == unit_key(unit))
+        keyed = written_unit.map(unit_key, na_action="ignore")
+        same_unit = with_unit & (keyed == unit_key(unit)).to_numpy(dtype=bool)
     reason[same_unit] = Problem.UNIT_IN_CELL
-    suggestion[same_unit] = parts[0][same_unit]
+    suggestion[same_unit] = parts[0][same_unit].to_numpy(dtype=object)
     other_unit = with_unit & ~same_unit
     reason[other_unit] = Problem.WRONG_UNIT
-    suggestion[other_unit] = written_unit[other_unit]
-    reason[reason.isna()] = Problem.NOT_A_NUMBER
+    suggestion[other_unit] = written_unit[other_unit].to_numpy(dtype=object)
+    reason[_unexplained(reason)] = Problem.NOT_A_NUMBER
     return reason, suggestion
+
+
+def _unexplained(reason: np.ndarray) -> np.ndarray:
+    """True where no reason was found yet (the cell still holds None)."""
+    return pd.isna(reason)
 
 
 INT64_DIGITS = 18
@@ -122,20 +134,26 @@ def _numbers(
     text: pd.Series, present: pd.Series, unit: str | None, integer: bool
 ) -> tuple[pd.Series, pd.Series, pd.Series]:
     trimmed = text.str.strip()
-    good = present & trimmed.str.match(PLAIN_INTEGER if integer else PLAIN_NUMBER, na=False)
-    reason = pd.Series(None, index=text.index, dtype=object)
+    good = present.to_numpy(dtype=bool) & _matches(trimmed, PLAIN_INTEGER if integer else PLAIN_NUMBER)
+    reason = np.full(len(text), None, dtype=object)
     if integer:
         # A 64-bit integer column holds whole numbers up to 2**63 - 1; longer ones are named, not cast.
-        huge = good & ~trimmed.where(good, "0").map(_fits_int64, na_action="ignore").astype(bool)
+        fits = trimmed.where(good, "0").map(_fits_int64, na_action="ignore").to_numpy(dtype=bool)
+        huge = good & ~fits
         reason[huge] = Problem.INTEGER_TOO_LARGE
         good &= ~huge
     values = pd.to_numeric(trimmed.where(good), errors="coerce")
-    suggestion = pd.Series(None, index=text.index, dtype=object)
-    bad = present & ~good & reason.isna()
+    suggestion = np.full(len(text), None, dtype=object)
+    bad = present.to_numpy(dtype=bool) & ~good & _unexplained(reason)
     if bad.any():  # the usual file is mostly clean: explain only the cells that failed
         reason[bad], suggestion[bad] = _number_problems(trimmed[bad], unit, integer)
     typed = values.astype("Int64") if integer else values.astype("float64")
-    return typed, reason, suggestion
+    index = text.index
+    return (
+        typed,
+        pd.Series(reason, index=index, dtype=object),
+        pd.Series(suggestion, index=index, dtype=object),
+    )
 
 
 def _booleans(text: pd.Series, present: pd.Series) -> tuple[pd.Series, pd.Series, pd.Series]:

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import numpy as np
 import pandas as pd
 
 from linter.contract.problems import Problem
@@ -45,35 +46,42 @@ def _iso_text(stamps: pd.Series, with_time: bool) -> pd.Series:
     return stamps.dt.strftime("%Y-%m-%dT%H:%M:%S" if with_time else "%Y-%m-%d")
 
 
-def _other_date(text: pd.Series, todo: pd.Series, extra: tuple[tuple[str, str], ...]) -> pd.Series:
+def _other_date(text: pd.Series, todo: np.ndarray, extra: tuple[tuple[str, str], ...]) -> pd.Series:
     """Where `todo`, the ISO rewrite of a date written in another recognised form, else None."""
-    full = pd.Series(None, index=text.index, dtype=object)
+    full = np.full(len(text), None, dtype=object)
     if todo.any():  # only the failing cells are tried against the other forms
         full[todo] = _other_date_forms(text[todo], extra)
-    return full
+    return pd.Series(full, index=text.index, dtype=object)
 
 
-def _other_date_forms(text: pd.Series, extra: tuple[tuple[str, str], ...]) -> pd.Series:
-    suggestion = pd.Series(None, index=text.index, dtype=object)
-    left = pd.Series(True, index=text.index)
+def _matches(text: pd.Series, pattern: str) -> np.ndarray:
+    return text.str.match(pattern, na=False).to_numpy(dtype=bool)
+
+
+def _other_date_forms(text: pd.Series, extra: tuple[tuple[str, str], ...]) -> np.ndarray:
+    """The ISO rewrite of each cell written as a real date in another form, else None (numpy
+    arrays throughout: a pandas assignment through a mask costs a copy of the column)."""
+    suggestion = np.full(len(text), None, dtype=object)
+    left = np.ones(len(text), dtype=bool)
     for pattern, form in extra + OTHER_DATE_FORMS:
-        shaped = left & text.str.match(pattern, na=False)
+        shaped = left & _matches(text, pattern)
         if not shaped.any():
             continue
         stamps = _parse(text.where(shaped), form)
-        hit = shaped & stamps.notna()
-        suggestion[hit] = _iso_text(stamps[hit], False)
+        hit = shaped & stamps.notna().to_numpy(dtype=bool)
+        suggestion[hit] = _iso_text(stamps[hit], False).to_numpy(dtype=object)
         left &= ~hit
-    shaped = left & text.str.match(SLASHED, na=False)
+    shaped = left & _matches(text, SLASHED)
     if shaped.any():
         day_first = _iso_text(_parse(text.where(shaped), "%d/%m/%Y"), False)
         month_first = _iso_text(_parse(text.where(shaped), "%m/%d/%Y"), False)
-        both = shaped & day_first.notna() & month_first.notna() & (day_first != month_first)
-        only_day = shaped & day_first.notna() & ~both
-        only_month = shaped & day_first.isna() & month_first.notna()
-        suggestion[both] = day_first[both] + " or " + month_first[both]
-        suggestion[only_day] = day_first[only_day]
-        suggestion[only_month] = month_first[only_month]
+        day, month = day_first.notna().to_numpy(dtype=bool), month_first.notna().to_numpy(dtype=bool)
+        both = shaped & day & month & (day_first != month_first).to_numpy(dtype=bool)
+        only_day = shaped & day & ~both
+        only_month = shaped & ~day & month
+        suggestion[both] = (day_first[both] + " or " + month_first[both]).to_numpy(dtype=object)
+        suggestion[only_day] = day_first[only_day].to_numpy(dtype=object)
+        suggestion[only_month] = month_first[only_month].to_numpy(dtype=object)
     return suggestion
 
 
@@ -91,26 +99,26 @@ def convert_dates(
     text: pd.Series, present: pd.Series, date_format: str | None
 ) -> tuple[pd.Series, pd.Series, pd.Series]:
     """Typed dates, a Problem per failing cell, and the agreed-form rewrite where one is known."""
-    reason = pd.Series(None, index=text.index, dtype=object)
+    reason = np.full(len(text), None, dtype=object)
     if date_format is None:
         agreed = present & text.str.match(ISO_DATE, na=False)
         values = _parse(text.where(agreed), "%Y-%m-%d")
-        no_such_day = agreed & values.isna()
+        no_such_day = (agreed & values.isna()).to_numpy(dtype=bool)
         reason[no_such_day] = Problem.NO_SUCH_DATE
         extra: tuple[tuple[str, str], ...] = ()
     else:
         values = _parse(text.where(present), date_format)
-        no_such_day = pd.Series(False, index=text.index)
+        no_such_day = np.zeros(len(text), dtype=bool)
         extra = ((ISO_DATE, "%Y-%m-%d"),)
-    todo = present & values.isna() & ~no_such_day
+    todo = (present & values.isna()).to_numpy(dtype=bool) & ~no_such_day
     suggestion = _other_date(text, todo, extra)
-    other = todo & suggestion.notna()
+    other = todo & suggestion.notna().to_numpy(dtype=bool)
     if date_format is not None and other.any():
         suggestion[other] = _in_agreed_form(suggestion[other], date_format)
     reason[other] = Problem.OTHER_DATE_FORMAT
-    reason[todo & ~other & text.str.match(r"^\d{4}-\d{2}$", na=False)] = Problem.MONTH_NOT_DAY
-    reason[todo & reason.isna()] = Problem.NOT_A_DATE
-    return values, reason, suggestion.where(other)
+    reason[todo & ~other & _matches(text, r"^\d{4}-\d{2}$")] = Problem.MONTH_NOT_DAY
+    reason[todo & pd.isna(reason)] = Problem.NOT_A_DATE
+    return values, pd.Series(reason, index=text.index, dtype=object), suggestion.where(other)
 
 
 def convert_datetimes(
