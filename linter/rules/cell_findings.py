@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterable, Mapping, Sequence
 from typing import Any
 
+import numpy as np
 import pandas as pd
 
 from linter.contract.engine import CheckedTable, checked
@@ -49,7 +50,7 @@ def header_place(subject: Subject, indexes: Sequence[int]) -> Place:
 
 
 def _cells_at(subject: Subject, column: str, rows: Iterable[int]) -> pd.Series:
-    positions = subject.frame.row_index.get_indexer(pd.Index(list(rows), dtype="int64"))
+    positions = subject.frame.row_index.get_indexer(pd.Index(np.fromiter(rows, dtype=np.int64)))
     return subject.frame.body[column].iloc[positions]
 
 

@@ -40,8 +40,12 @@ def pattern_fix(name: str, pattern: str, found: list[str], example: str | None) 
     if example is not None:
         fix += f", like {example!r}"
     fix += f" (found {quoted(found[:3])})"
-    spaced = [f for f in found if f != f.strip() and whole.fullmatch(f.strip())]
-    cased = [f for f in found if f not in spaced and whole.fullmatch(f.strip().upper())]
+    # A wrong value repeats: each distinct one is tried once.
+    distinct = dict.fromkeys(found)
+    is_spaced = {f: f != f.strip() and whole.fullmatch(f.strip()) is not None for f in distinct}
+    is_cased = {f: not is_spaced[f] and whole.fullmatch(f.strip().upper()) is not None for f in distinct}
+    spaced = [f for f in found if is_spaced[f]]
+    cased = [f for f in found if is_cased[f]]
     if spaced:
         fix += f"; remove the surrounding spaces from {quoted(spaced[:3])}"
     if cased:
