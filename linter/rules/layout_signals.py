@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import functools
 import re
 import weakref
 from collections import Counter
@@ -63,9 +64,21 @@ def is_date(text: str) -> bool:
 
 def cell_kind(value: object) -> str:
     """One of empty, number, date, text: the coarse type a column should keep throughout."""
-    if blank(value):
+    if value is None:
         return "empty"
-    text = str(value).strip()
+    if isinstance(value, str):
+        return _text_kind(value)
+    return _written_kind(str(value).strip())  # a number or date read from a workbook: never blank
+
+
+@functools.lru_cache(maxsize=1 << 16)
+def _text_kind(value: str) -> str:
+    """`cell_kind` of a text cell; a column repeats its values, so each is read once."""
+    text = value.strip()
+    return _written_kind(text) if text else "empty"
+
+
+def _written_kind(text: str) -> str:
     if is_date(text):
         return "date"
     if is_number(text):
