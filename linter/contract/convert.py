@@ -8,7 +8,7 @@ from functools import cached_property
 import numpy as np
 import pandas as pd
 
-from linter.contract.dates import convert_dates, convert_datetimes
+from linter.contract.dates import convert_dates, convert_datetimes, matches
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
 from linter.contract.repeats import repeats
@@ -79,10 +79,6 @@ def missing_mask(text: pd.Series, codes: tuple[str, ...]) -> pd.Series:
     return text.isna() | text.str.strip().isin(trimmed)
 
 
-def _matches(text: pd.Series, pattern: str) -> np.ndarray:
-    return text.str.match(pattern, na=False).to_numpy(dtype=bool)
-
-
 def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tuple[np.ndarray, np.ndarray]:
     """Why each of these (failing, trimmed) cells is not a plain number, and what to write instead.
 
@@ -90,11 +86,11 @@ def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tup
     reason = np.full(len(trimmed), None, dtype=object)
     suggestion = np.full(len(trimmed), None, dtype=object)
     if integer:
-        reason[_matches(trimmed, PLAIN_NUMBER)] = Problem.NOT_AN_INTEGER
-    thousands = _unexplained(reason) & _matches(trimmed, THOUSANDS)
+        reason[matches(trimmed, PLAIN_NUMBER)] = Problem.NOT_AN_INTEGER
+    thousands = _unexplained(reason) & matches(trimmed, THOUSANDS)
     reason[thousands] = Problem.THOUSANDS_SEPARATOR
     suggestion[thousands] = trimmed[thousands].str.replace(",", "", regex=False).to_numpy(dtype=object)
-    comma = _unexplained(reason) & _matches(trimmed, DECIMAL_COMMA)
+    comma = _unexplained(reason) & matches(trimmed, DECIMAL_COMMA)
     reason[comma] = Problem.DECIMAL_COMMA
     suggestion[comma] = trimmed[comma].str.replace(",", ".", regex=False).to_numpy(dtype=object)
     parts = trimmed.where(_unexplained(reason)).str.extract(NUMBER_WITH_UNIT)
@@ -134,7 +130,7 @@ def _numbers(
     text: pd.Series, present: pd.Series, unit: str | None, integer: bool
 ) -> tuple[pd.Series, pd.Series, pd.Series]:
     trimmed = text.str.strip()
-    good = present.to_numpy(dtype=bool) & _matches(trimmed, PLAIN_INTEGER if integer else PLAIN_NUMBER)
+    good = present.to_numpy(dtype=bool) & matches(trimmed, PLAIN_INTEGER if integer else PLAIN_NUMBER)
     reason = np.full(len(text), None, dtype=object)
     if integer:
         # A 64-bit integer column holds whole numbers up to 2**63 - 1; longer ones are named, not cast.

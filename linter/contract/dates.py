@@ -54,7 +54,8 @@ def _other_date(text: pd.Series, todo: np.ndarray, extra: tuple[tuple[str, str],
     return pd.Series(full, index=text.index, dtype=object)
 
 
-def _matches(text: pd.Series, pattern: str) -> np.ndarray:
+def matches(text: pd.Series, pattern: str) -> np.ndarray:
+    """Where the text cell matches `pattern` from its start, as a numpy mask (None never matches)."""
     return text.str.match(pattern, na=False).to_numpy(dtype=bool)
 
 
@@ -64,14 +65,14 @@ def _other_date_forms(text: pd.Series, extra: tuple[tuple[str, str], ...]) -> np
     suggestion = np.full(len(text), None, dtype=object)
     left = np.ones(len(text), dtype=bool)
     for pattern, form in extra + OTHER_DATE_FORMS:
-        shaped = left & _matches(text, pattern)
+        shaped = left & matches(text, pattern)
         if not shaped.any():
             continue
         stamps = _parse(text.where(shaped), form)
         hit = shaped & stamps.notna().to_numpy(dtype=bool)
         suggestion[hit] = _iso_text(stamps[hit], False).to_numpy(dtype=object)
         left &= ~hit
-    shaped = left & _matches(text, SLASHED)
+    shaped = left & matches(text, SLASHED)
     if shaped.any():
         day_first = _iso_text(_parse(text.where(shaped), "%d/%m/%Y"), False)
         month_first = _iso_text(_parse(text.where(shaped), "%m/%d/%Y"), False)
@@ -116,7 +117,7 @@ def convert_dates(
     if date_format is not None and other.any():
         suggestion[other] = _in_agreed_form(suggestion[other], date_format)
     reason[other] = Problem.OTHER_DATE_FORMAT
-    reason[todo & ~other & _matches(text, r"^\d{4}-\d{2}$")] = Problem.MONTH_NOT_DAY
+    reason[todo & ~other & matches(text, r"^\d{4}-\d{2}$")] = Problem.MONTH_NOT_DAY
     reason[todo & pd.isna(reason)] = Problem.NOT_A_DATE
     return values, pd.Series(reason, index=text.index, dtype=object), suggestion.where(other)
 
