@@ -37,6 +37,7 @@ VARIABLES = {
     "filtered": Variable("filtered", VarType.BOOLEAN),
     "site_id": Variable("site_id", VarType.STRING, pattern=r"^VB-\d{3}$"),
     "qualifier": Variable("qualifier", VarType.CATEGORY, codes=CodeList(("J", "U", " R"))),
+    "lab_code": Variable("lab_code", VarType.CATEGORY, codes=CodeList(("J", "U")), nullable=False),
     "note": Variable("note", VarType.STRING, nullable=False),
 }
 
