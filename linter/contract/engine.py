@@ -125,12 +125,13 @@ def compile_schema(
         )
     keys = [k for k in contract.keys if k in present]
     whole_key = len(keys) == len(contract.keys) and bool(keys)
-    return _table_schema(columns, keys if whole_key else None), kinds
-
-
-def _table_schema(columns: Mapping[str, pa.Column], unique: list[str] | None) -> pa.DataFrameSchema:
-    """Weir's one way of asking pandera to judge a typed table: every failure, extra columns allowed."""
-    return pa.DataFrameSchema(dict(columns), unique=unique, report_duplicates="all", strict=False)
+    schema = pa.DataFrameSchema(
+        columns,
+        unique=keys if whole_key else None,
+        report_duplicates="all",
+        strict=False,
+    )
+    return schema, kinds
 
 
 def _kind_of(row: pd.Series, kinds: Mapping[tuple[str, int], str]) -> str:
@@ -205,52 +206,21 @@ def validated(
 ) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
     """Pandera's verdict on the typed table: Weir's failure table, and the checks that never ran.
 
-    Every check of a column (range, pattern, codes, nullable, type) judges each value on its own,
-    so a column with few distinct values (the doubtful cells of a large file, most of all) is
-    validated on its own, on the first row of each value, and each failure then stands for every
-    row holding that value: pandera's work, and its failure cases, grow with the values. The key's
-    uniqueness, and the columns without repeats, are judged on every row in one more run. With
-    `per_value` False the whole table is validated at once (the result is the same, row for row,
-    in the same order; tests compare them)."""
-    alone = _repeating_columns(schema, typed) if per_value else {}
-    if not alone:
-        return _run(schema, typed, kinds)
-    rest = _table_schema({n: c for n, c in schema.columns.items() if n not in alone}, schema.unique)
-    runs = [_run(rest, typed, kinds)] if rest.columns or rest.unique else []
-    for name, same in alone.items():
-        one = _table_schema({name: schema.columns[name]}, None)
-        failures, unrun = _run(one, typed[[name]].iloc[same.first], kinds)
-        runs.append((_spread(failures, same, typed.index) if len(failures) else failures, unrun))
-    return _in_pandera_order(runs, list(schema.columns))
+    Every check of a column without a key (range, pattern, codes, nullable, type) judges each value
+    on its own, so a one-column table with few distinct values (the doubtful cells of one column
+    in a large file) is validated on the first row of each value, and each failure then stands for
+    every row holding that value: pandera's work, and its failure cases, grow with the values.
+    With `per_value` False every row is validated (the result is the same; tests compare them).
 
-
-def _run(
-    schema: pa.DataFrameSchema, typed: pd.DataFrame, kinds: Mapping[tuple[str, int], str]
-) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
+    Only one-column tables: splitting a wider one into a run per repeating column was measured
+    slower on ordinary files (each run costs pandera a few milliseconds, and most cells pass)."""
+    same = _one_column_repeats(schema, typed) if per_value else None
     try:
-        schema.validate(typed, lazy=True)
+        schema.validate(typed if same is None else typed.iloc[same.first], lazy=True)
     except SchemaErrors as error:
-        return _failure_table(error, kinds), _unrun(error, kinds)
+        failures = _failure_table(error, kinds)
+        return (failures if same is None else _spread(failures, same, typed.index)), _unrun(error, kinds)
     return NO_FAILURES.copy(), ()
-
-
-def _in_pandera_order(
-    runs: list[tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]], columns: list[str]
-) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
-    """Several runs' failures as one run of the whole schema lists them: the key's uniqueness (a
-    check of the whole table) first, then column by column in schema order."""
-    if len(runs) == 1:
-        return runs[0]
-    block = {column: number + 1 for number, column in enumerate(columns)}
-    tables = [failures for failures, _ in runs if len(failures)]
-    failures = pd.concat(tables, ignore_index=True) if tables else NO_FAILURES.copy()
-    if len(tables) > 1:
-        of_column = failures["column"].map(block).fillna(len(block) + 1).to_numpy(dtype=np.int64)
-        blocks = np.where((failures["kind"] == "unique").to_numpy(), 0, of_column)
-        failures = failures.iloc[np.argsort(blocks, kind="stable")].reset_index(drop=True)
-    unrun = [u for _, found in runs for u in found]
-    unrun.sort(key=lambda u: 0 if u[1] == "unique" else block.get(u[0], len(block) + 1))
-    return failures, tuple(unrun)
 
 
 def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFrame:
@@ -269,17 +239,12 @@ def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFr
     return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
 
 
-SPLIT_FROM_ROWS = 4096
-"""A table of several columns is split into runs from this many rows on: each run costs pandera
-about a millisecond more, each failing cell judged once per value saves it a few microseconds."""
-
-
-def _repeating_columns(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> dict[str, Repeats]:
-    """The columns validated on their own, once per value, in `validated`, with their repeats."""
-    if typed.shape[1] > 1 and len(typed) < SPLIT_FROM_ROWS:
-        return {}
-    found = {name: repeats(typed[name], 2) for name in schema.columns if name in typed}
-    return {name: same for name, same in found.items() if same is not None}
+def _one_column_repeats(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> Repeats | None:
+    """The repeats of a one-column table without a key, whose first rows stand for the others in
+    `validated`; None to validate every row."""
+    if typed.shape[1] != 1 or schema.unique:
+        return None
+    return repeats(typed.iloc[:, 0], 2)
 
 
 _last: tuple[TableContract, Frame, CheckedTable] | None = None

@@ -2,15 +2,12 @@
 
 from __future__ import annotations
 
-from unittest.mock import patch
-
 import pandas as pd
 import pandera.pandas as pa
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from linter.contract import engine
 from linter.contract.engine import FAILURE_COLUMNS, checked, compile_schema, run_contract, validated
 from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.table import Table, first_row_header
@@ -146,32 +143,3 @@ def test_one_column_validated_once_per_value_fails_the_same_cells(variable, data
     every, unrun_every = validated(schema, converted.typed, kinds, per_value=False)
     pd.testing.assert_frame_equal(once, every)
     assert unrun_once == unrun_every
-
-
-@settings(max_examples=60, deadline=None)
-@given(st.data())
-def test_a_keyed_table_validated_column_by_column_fails_the_same_cells(data) -> None:
-    # Columns with few distinct values are validated on their own, once per value, the key's
-    # uniqueness and the other columns on every row; pandera validating the whole table at once
-    # (the reference) must give the same failure table, row for row and in the same order.
-    rows = data.draw(st.integers(16, 90))
-    cells = {
-        name: data.draw(st.lists(st.sampled_from(written), min_size=rows, max_size=rows))
-        for name, written in WRITTEN.items()
-    }
-    if data.draw(st.booleans()):  # a key column of distinct values, some of them wrong
-        numbers = data.draw(st.lists(st.integers(0, 10_000), min_size=rows, max_size=rows, unique=True))
-        cells["site_id"] = [f"VB-{n:03d}" if n % 5 else f"vb-{n}" for n in numbers]
-    header = list(cells)
-    body = [[cells[name][i] for name in header] for i in range(rows)]
-    table = Table("part.csv", None, pd.DataFrame([header, *body], dtype=object), tuple(range(1, rows + 2)))
-    contract = TableContract(
-        "part", "one analyte at one site", ("site_id", "analyte"), tuple(ONE_COLUMN), ("",)
-    )
-    converted = run_contract(contract, first_row_header(table))
-    schema, kinds = compile_schema(contract, set(header))
-    with patch.object(engine, "SPLIT_FROM_ROWS", 8):
-        split, unrun_split = validated(schema, converted.typed, kinds)
-    whole, unrun_whole = validated(schema, converted.typed, kinds, per_value=False)
-    pd.testing.assert_frame_equal(split, whole)
-    assert unrun_split == unrun_whole
