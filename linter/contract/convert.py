@@ -87,14 +87,14 @@ def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tup
     suggestion = np.full(len(trimmed), None, dtype=object)
     if integer:
         reason[matches(trimmed, PLAIN_NUMBER)] = Problem.NOT_AN_INTEGER
-    thousands = _unexplained(reason) & matches(trimmed, THOUSANDS)
+    thousands = pd.isna(reason) & matches(trimmed, THOUSANDS)
     reason[thousands] = Problem.THOUSANDS_SEPARATOR
     suggestion[thousands] = trimmed[thousands].str.replace(",", "", regex=False).to_numpy(dtype=object)
-    comma = _unexplained(reason) & matches(trimmed, DECIMAL_COMMA)
+    comma = pd.isna(reason) & matches(trimmed, DECIMAL_COMMA)
     reason[comma] = Problem.DECIMAL_COMMA
     suggestion[comma] = trimmed[comma].str.replace(",", ".", regex=False).to_numpy(dtype=object)
-    parts = trimmed.where(_unexplained(reason)).str.extract(NUMBER_WITH_UNIT)
-    with_unit = _unexplained(reason) & parts[0].notna().to_numpy(dtype=bool)
+    parts = trimmed.where(pd.isna(reason)).str.extract(NUMBER_WITH_UNIT)
+    with_unit = pd.isna(reason) & parts[0].notna().to_numpy(dtype=bool)
     written_unit = parts[1].str.strip()
     if unit is None:
         same_unit = with_unit
@@ -106,13 +106,8 @@ def _number_problems(trimmed: pd.Series, unit: str | None, integer: bool) -> tup
     other_unit = with_unit & ~same_unit
     reason[other_unit] = Problem.WRONG_UNIT
     suggestion[other_unit] = written_unit[other_unit].to_numpy(dtype=object)
-    reason[_unexplained(reason)] = Problem.NOT_A_NUMBER
+    reason[pd.isna(reason)] = Problem.NOT_A_NUMBER
     return reason, suggestion
-
-
-def _unexplained(reason: np.ndarray) -> np.ndarray:
-    """True where no reason was found yet (the cell still holds None)."""
-    return pd.isna(reason)
 
 
 INT64_DIGITS = 18
@@ -140,7 +135,7 @@ def _numbers(
         good &= ~huge
     values = pd.to_numeric(trimmed.where(good), errors="coerce")
     suggestion = np.full(len(text), None, dtype=object)
-    bad = present.to_numpy(dtype=bool) & ~good & _unexplained(reason)
+    bad = present.to_numpy(dtype=bool) & ~good & pd.isna(reason)
     if bad.any():  # the usual file is mostly clean: explain only the cells that failed
         reason[bad], suggestion[bad] = _number_problems(trimmed[bad], unit, integer)
     typed = values.astype("Int64") if integer else values.astype("float64")
