@@ -1,10 +1,12 @@
-"""Hash typed key columns to 64 bits a row with NumPy, without building a dictionary of the values.
+"""Hash typed key columns to 64 bits a row with NumPy.
 
 Equal keys (as the engine compares them: nulls equal to nulls, -0.0 equal to 0.0) always hash
 alike; unequal keys almost never do, so whoever uses these hashes verifies the rows they name.
-Texts are hashed straight from Arrow's data buffer, a 64-bit word at a time, which is several times
-faster than dictionary-encoding them; numbers from their bits; any other type is dictionary-encoded
-and its distinct values hashed one by one. A cell's hash never depends on the rest of its batch.
+Texts are hashed straight from Arrow's data buffer, a 64-bit word at a time, which for varied
+texts (identifiers) is several times faster than dictionary-encoding them; a text column of few
+distinct values (a coded key) is dictionary-encoded and only its distinct texts hashed, to the
+same hashes. Numbers are hashed from their bits; any other type is dictionary-encoded and its
+distinct values hashed one by one. A cell's hash never depends on the rest of its batch.
 """
 
 from __future__ import annotations
@@ -31,6 +33,11 @@ LOW_BITS = 24
 """At most a 16 MB table of low bits for that filter."""
 TEXT_TYPES = (pa.types.is_string, pa.types.is_large_string, pa.types.is_binary, pa.types.is_large_binary)
 """Column types hashed from their bytes."""
+FEW_TEXTS = 64
+"""A text column with at most this many distinct values in its leading cells (a coded key such as
+an analyte) is hashed through its dictionary: each distinct text once, then one gather."""
+LEADING_CELLS = 4096
+"""How many leading cells decide that."""
 
 
 def mix(values: np.ndarray) -> np.ndarray:
@@ -115,6 +122,19 @@ def _text_hashes(column: pa.Array) -> np.ndarray:
     return _with_nulls(hashes, column)
 
 
+def _few_text_hashes(column: pa.Array) -> np.ndarray | None:
+    """`_text_hashes` of a column with few distinct texts, each distinct text hashed once (the
+    same hash, since a cell's hash depends on its bytes alone); None when its leading cells are
+    too varied for the dictionary to pay (an identifier: hashing its bytes is then faster)."""
+    if len(column) <= LEADING_CELLS or pc.count_distinct(column.slice(0, LEADING_CELLS)).as_py() > FEW_TEXTS:
+        return None
+    # Should the cells further down be varied after all, hashing the dictionary's texts and one
+    # gather cost about what hashing every cell would.
+    encoded = pc.dictionary_encode(column)
+    hashes = _text_hashes(encoded.dictionary)[plain_integers(pc.fill_null(encoded.indices, 0))]
+    return _with_nulls(hashes, column)
+
+
 def _dictionary_hashes(column: pa.Array) -> np.ndarray:
     """Hashes of any column through its dictionary: each distinct value hashed once."""
     encoded = pc.dictionary_encode(column, null_encoding="encode")
@@ -145,7 +165,8 @@ def column_hashes(column: pa.Array | pa.ChunkedArray) -> np.ndarray:
     if any(test(kind) for test in NUMBER_TYPES):
         return _number_hashes(whole)
     if any(test(kind) for test in TEXT_TYPES):
-        return _text_hashes(whole)
+        few = _few_text_hashes(whole)
+        return _text_hashes(whole) if few is None else few
     return _dictionary_hashes(whole)
 
 

@@ -15,6 +15,7 @@ from hypothesis import strategies as st
 from linter.scale import key_codes as key_code_module
 from linter.scale.key_codes import duplicated_rows, key_codes, shared_codes
 from linter.scale.key_hash import (
+    LEADING_CELLS,
     column_hashes,
     members_of,
     merged_runs,
@@ -164,3 +165,17 @@ def test_repeats_found_range_by_range_are_the_repeats_of_all_the_values(batches,
     counts = Counter(values)
     # Reference: counting with Python's Counter, sorted with Python's sorted.
     assert found.tolist() == sorted(v for v, n in counts.items() if n > 1)
+
+
+def test_a_coded_text_column_hashes_as_its_cells_do_one_by_one():
+    # Few distinct texts take the dictionary path; each cell must still hash as it does alone,
+    # or a batch of few codes and a batch of varied ones would disagree on the same key.
+    codes = ["NITRATE", "PHOSPHATE", None, "AMMONIUM", "é", ""]
+    column = pa.array([codes[i % len(codes)] for i in range(LEADING_CELLS + 500)])
+    alone = [int(column_hashes(pa.array([cell]))[0]) for cell in codes]
+    assert column_hashes(column).tolist() == [alone[i % len(codes)] for i in range(len(column))]
+    # Varied texts further down than the leading cells still hash as they do alone.
+    varied = pa.array([*column.to_pylist(), *(f"S{n:07d}" for n in range(300))])
+    hashes = column_hashes(varied)
+    assert hashes[-1] == column_hashes(pa.array(["S0000299"]))[0]
+    assert hashes[: len(column)].tolist() == column_hashes(column).tolist()
