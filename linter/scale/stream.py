@@ -63,6 +63,11 @@ def key_hashes(keys: pa.Table) -> np.ndarray:
     return row_hashes(keys)
 
 
+def _hashed_and_sorted(keys: pa.Table) -> tuple[np.ndarray, np.ndarray]:
+    hashes = key_hashes(keys)
+    return hashes, np.sort(hashes)
+
+
 def _no_rows(labels: Sequence[str]) -> pa.Table:
     return pa.table({label: pa.array([], pa.string()) for label in labels})
 
@@ -90,8 +95,9 @@ def screen_stream(
     labels: list[str] = []
     kept: list[pa.Table] = []
     kept_positions: list[np.ndarray] = []
-    key_parts: list[np.ndarray] = []  # 64-bit key hashes, 8 bytes a row instead of the key texts
-    key_runs: list[Future[np.ndarray]] = []  # each part sorted on a worker while the pass goes on
+    # Per batch, its 64-bit key hashes (8 bytes a row instead of the key texts) and the same sorted,
+    # both worked out on a worker while the pass goes on.
+    key_runs: list[Future[tuple[np.ndarray, np.ndarray]]] = []
     suspect_parts: list[np.ndarray] = []
     cell_parts: dict[str, list[np.ndarray]] = {}
     start = 0
@@ -119,8 +125,7 @@ def screen_stream(
                 kept_positions.append(chosen + start)
             if screened.keys.num_columns:
                 if spill is None:
-                    key_parts.append(key_hashes(screened.keys))
-                    key_runs.append(worker_pool().submit(np.sort, key_parts[-1]))
+                    key_runs.append(worker_pool().submit(_hashed_and_sorted, screened.keys))
                 else:
                     spill.add(key_hashes(screened.keys), start)
             start += body.num_rows
@@ -128,7 +133,9 @@ def screen_stream(
                 progress(body.num_rows)
         if not scan.rows_agree(start):
             raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
-        runs = [run.result() for run in key_runs]
+        hashed = [run.result() for run in key_runs]
+        key_parts = [hashes for hashes, _ in hashed]
+        runs = [ordered for _, ordered in hashed]
         positions = np.concatenate([*kept_positions, np.array([], np.int64)])
         first_pass = pa.concat_tables(kept) if kept else _no_rows(labels)
         found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
