@@ -23,7 +23,7 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.scale.key_codes import key_codes, shared_codes
-from linter.scale.key_hash import members_of, repeats_across, row_hashes
+from linter.scale.key_hash import high_halves, members_of, repeated_positions, row_hashes
 from linter.scale.pieces import LineScan, Span, read_ahead, text_batches, text_options
 from linter.scale.screen import screen_batch, worker_pool
 from linter.scale.spill import HashSpill, spill_partitions
@@ -64,8 +64,9 @@ def key_hashes(keys: pa.Table) -> np.ndarray:
 
 
 def _hashed_and_sorted(keys: pa.Table) -> tuple[np.ndarray, np.ndarray]:
+    """The batch's key hashes, and their upper halves sorted (see `key_hash.repeated_positions`)."""
     hashes = key_hashes(keys)
-    return hashes, np.sort(hashes)
+    return hashes, np.sort(high_halves(hashes))
 
 
 def _no_rows(labels: Sequence[str]) -> pa.Table:
@@ -95,8 +96,8 @@ def screen_stream(
     labels: list[str] = []
     kept: list[pa.Table] = []
     kept_positions: list[np.ndarray] = []
-    # Per batch, its 64-bit key hashes (8 bytes a row instead of the key texts) and the same sorted,
-    # both worked out on a worker while the pass goes on.
+    # Per batch, its 64-bit key hashes (8 bytes a row instead of the key texts) and their upper
+    # halves sorted, both worked out on a worker while the pass goes on.
     key_runs: list[Future[tuple[np.ndarray, np.ndarray]]] = []
     suspect_parts: list[np.ndarray] = []
     cell_parts: dict[str, list[np.ndarray]] = {}
@@ -135,11 +136,11 @@ def screen_stream(
             raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
         hashed = [run.result() for run in key_runs]
         key_parts = [hashes for hashes, _ in hashed]
-        runs = [ordered for _, ordered in hashed]
+        high_runs = [ordered for _, ordered in hashed]
         positions = np.concatenate([*kept_positions, np.array([], np.int64)])
         first_pass = pa.concat_tables(kept) if kept else _no_rows(labels)
         found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
-        duplicate = _exact_duplicates(key_parts, runs, spill, contract, found_rows)
+        duplicate = _exact_duplicates(key_parts, high_runs, spill, contract, found_rows)
     extra = np.setdiff1d(duplicate.positions, positions)
     extra_rows = duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra), pa.int64()))
     merged = pa.concat_tables([first_pass, extra_rows])
@@ -221,7 +222,7 @@ class Rows:
 
 def _exact_duplicates(
     key_parts: list[np.ndarray],
-    key_runs: list[np.ndarray],
+    high_runs: list[np.ndarray],
     spill: HashSpill | None,
     contract: TableContract,
     rows_of: Rows,
@@ -229,13 +230,7 @@ def _exact_duplicates(
     """Rows sharing a key: rows whose kept or spilled hash repeats, verified on the rows themselves."""
     empty = Duplicates(np.array([], np.int64), _no_rows(rows_of.labels))
     if spill is None:
-        if not key_parts:
-            return empty
-        repeats = repeats_across(key_runs, os.cpu_count() or 1, worker_pool())
-        starts = np.cumsum([0, *(len(part) for part in key_parts[:-1])])
-        # Looked up batch by batch: joining the hashes again would only cost another copy.
-        found = [np.flatnonzero(members_of(p, repeats)) + at for p, at in zip(key_parts, starts, strict=True)]
-        candidates = np.concatenate(found)
+        candidates = repeated_positions(key_parts, high_runs, os.cpu_count() or 1, worker_pool())
     else:
         candidates = spill.candidates()
     if not len(candidates):

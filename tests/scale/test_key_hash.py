@@ -17,8 +17,10 @@ from linter.scale.key_codes import duplicated_rows, key_codes, shared_codes
 from linter.scale.key_hash import (
     LEADING_CELLS,
     column_hashes,
+    high_halves,
     members_of,
     merged_runs,
+    repeated_positions,
     repeated_values,
     repeats_across,
     repeats_of,
@@ -179,3 +181,31 @@ def test_a_coded_text_column_hashes_as_its_cells_do_one_by_one():
     hashes = column_hashes(varied)
     assert hashes[-1] == column_hashes(pa.array(["S0000299"]))[0]
     assert hashes[: len(column)].tolist() == column_hashes(column).tolist()
+
+
+@given(
+    st.lists(st.lists(st.integers(0, (1 << 32) - 1) | st.integers(0, 40), max_size=30), max_size=6),
+    st.integers(1, 5),
+)
+def test_upper_halves_are_merged_range_by_range_as_whole_hashes_are(batches, ranges):
+    parts = [np.array(b, np.uint32) for b in batches]
+    with ThreadPoolExecutor(2) as pool:
+        found = repeats_across([np.sort(p) for p in parts], ranges, pool)
+    counts = Counter(v for b in batches for v in b)
+    # Reference: counting with Python's Counter, sorted with Python's sorted.
+    assert found.dtype == (np.uint32 if parts else np.uint64)  # no runs: nothing says their type
+    assert found.tolist() == sorted(v for v, n in counts.items() if n > 1)
+
+
+UPPER = st.sampled_from([0, 1, 0xFFFFFFFF])
+LOWER = st.sampled_from([0, 7, 0xFFFFFFFF])
+
+
+@given(st.lists(st.lists(st.tuples(UPPER, LOWER), max_size=12), max_size=5), st.integers(1, 3))
+def test_hashes_sharing_only_their_upper_half_are_not_repeats(batches, ranges):
+    # Few distinct halves, so upper halves repeat often while the whole hashes differ.
+    parts = [np.array([(high << 32) | low for high, low in b], np.uint64) for b in batches]
+    whole = [int(v) for p in parts for v in p]
+    positions = repeated_positions(parts, [np.sort(high_halves(p)) for p in parts], ranges)
+    # Reference: counting the whole 64-bit values with Python's Counter.
+    assert positions.tolist() == [i for i, shared in enumerate(repeated_by_counting(whole)) if shared]
