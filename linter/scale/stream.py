@@ -2,8 +2,9 @@
 
 Column checks run per batch (`screen.screen_batch`) on the pieces `pieces.text_batches` reads.
 Keys need the whole file: each batch's keys are hashed to 64 bits (`key_hash`); below
-`spill.KEYS_IN_MEMORY_BYTES` the hashes are kept in memory (8 bytes a row), above it they are
-spilled to partition files (`spill.HashSpill`). Either way the candidate rows are found again
+`spill.KEYS_IN_MEMORY_BYTES` the hashes are kept in memory (8 bytes a row, and their upper
+halves sorted, 4 more; see `key_hash.repeated_positions`), above it they are spilled to
+partition files (`spill.HashSpill`). Either way the candidate rows are found again
 (`Rows`) and their keys compared exactly, so only keys that are really equal are reported (a
 hash collision is dropped).
 """
