@@ -10,6 +10,7 @@ piece while the current one is judged.
 from __future__ import annotations
 
 import hashlib
+import os
 import threading
 from collections.abc import Iterator
 from concurrent.futures import ThreadPoolExecutor
@@ -24,6 +25,10 @@ import pyarrow.csv as pacsv
 from linter.read.limits import DEFAULT_LIMITS
 
 BATCH_BYTES = 16 * 1024 * 1024
+PARSE_BLOCK_BYTES = max(1024 * 1024, BATCH_BYTES // (os.cpu_count() or 1))
+"""Arrow parses a piece in blocks of this size side by side, one per core, and each block becomes
+one chunk of every column: the screen works chunk by chunk, so fewer, longer chunks cost it less
+(a 16 MB piece in 1 MB blocks, Arrow's default, took it a third longer than in two)."""
 NEWLINE = ord("\n")
 LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
 """UTF-8 needs at most 4 bytes a character."""
@@ -116,7 +121,7 @@ def text_options(delimiter: str, width: int) -> tuple[Any, Any, Any]:
     """Arrow's read, parse and convert options for text cells (empty -> null), with no header."""
     names = [f"c{i}" for i in range(width)]
     return (
-        pacsv.ReadOptions(column_names=names),
+        pacsv.ReadOptions(column_names=names, block_size=PARSE_BLOCK_BYTES),
         pacsv.ParseOptions(delimiter=delimiter, newlines_in_values=False),
         pacsv.ConvertOptions(
             column_types=dict.fromkeys(names, pa.string()), null_values=[""], strings_can_be_null=True
