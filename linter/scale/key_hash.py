@@ -131,8 +131,9 @@ def _few_text_hashes(column: pa.Array) -> np.ndarray | None:
     # Should the cells further down be varied after all, hashing the dictionary's texts and one
     # gather cost about what hashing every cell would.
     encoded = pc.dictionary_encode(column)
-    hashes = _text_hashes(encoded.dictionary)[plain_integers(pc.fill_null(encoded.indices, 0))]
-    return _with_nulls(hashes, column)
+    # One more entry after the distinct texts' hashes stands for the null cells (there may be no text).
+    hashes = np.append(_text_hashes(encoded.dictionary), NULL_HASH)
+    return hashes[plain_integers(pc.fill_null(encoded.indices, len(encoded.dictionary)))]
 
 
 def _dictionary_hashes(column: pa.Array) -> np.ndarray:

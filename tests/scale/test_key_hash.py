@@ -183,6 +183,12 @@ def test_a_coded_text_column_hashes_as_its_cells_do_one_by_one():
     assert hashes[: len(column)].tolist() == column_hashes(column).tolist()
 
 
+def test_a_key_column_of_empty_cells_only_hashes_every_cell_as_null():
+    # A batch whose key cells are all empty has no distinct text at all.
+    empty = column_hashes(pa.array([None] * (LEADING_CELLS + 10), pa.string()))
+    assert set(empty.tolist()) == {int(column_hashes(pa.array([None, "x"], pa.string()))[0])}
+
+
 @given(
     st.lists(st.lists(st.integers(0, (1 << 32) - 1) | st.integers(0, 40), max_size=30), max_size=6),
     st.integers(1, 5),
