@@ -16,6 +16,7 @@ from linter.report.model import Report
 from linter.scale import fast_path
 from linter.scale.fast_path import read_screened
 from linter.scale.key_codes import duplicated_rows
+from linter.scale.key_hash import LEADING_CELLS
 from linter.scale.pieces import text_batches
 
 # Rules that judge cells and keys row by row: the fast path must reproduce them exactly.
@@ -49,6 +50,24 @@ def test_fast_path_finds_exactly_what_the_engine_finds(tmp_path, contract_file, 
     assert row_findings(fast) == expected
     assert [r.rows for r in fast.results] == [r.rows for r in ordinary.results] == [600]
     assert fast.failed == ordinary.failed
+
+
+@pytest.mark.parametrize("empty_analytes", [False, True])
+def test_batches_longer_than_the_leading_cells_find_what_the_engine_finds(
+    tmp_path, contract_file, monkeypatch, empty_analytes
+):
+    # Past key_hash.LEADING_CELLS rows a coded key (analyte) is hashed through its dictionary;
+    # with every analyte left empty that dictionary holds no text at all.
+    rows = lab_rows(LEADING_CELLS + 1500, seed=5, broken_every=41)
+    for row in rows if empty_analytes else ():
+        row[3] = ""
+    path = tmp_path / "results-2026-05.csv"
+    path.write_text(csv_text(rows), encoding="utf-8")
+    ordinary, fast = both_paths(path, contract_file, monkeypatch)
+    expected = row_findings(ordinary)
+    # Empty key cells are reported as missing, not as keys the rows share.
+    assert ("keys.missing" if empty_analytes else "keys.duplicate") in {f.rule for f in expected}
+    assert row_findings(fast) == expected
 
 
 def test_each_column_is_judged_only_where_its_own_cell_is_in_doubt(tmp_path, contract_file, monkeypatch):
