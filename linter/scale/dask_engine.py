@@ -27,6 +27,8 @@ from linter.table import unique_labels
 
 BLOCK_BYTES = 64 * 1024 * 1024
 POSITION = "\x00position"
+GOOD = "\x00good "
+"""Prefix of the column saying where a patterned variable's cell is good (see `Screened.good`)."""
 
 
 def _text_table(part: pd.DataFrame, labels: list[str]) -> pa.Table:
@@ -58,6 +60,8 @@ def _judge(
     out["\x00suspect"] = suspect
     for name in screened.keys.column_names:
         out[f"\x00key {name}"] = screened.keys.column(name).to_pandas().to_numpy()
+    for name, good in screened.good.items():
+        out[f"{GOOD}{name}"] = good
     return out
 
 
@@ -96,7 +100,8 @@ def screen_with_dask(
     judged = frame.map_partitions(_judge, contract, labels, starts, meta=_meta(contract, names, labels))
     sample = min(sample_rows, sum(lengths) - 1)
     to_judge = _positions_to_judge(judged, contract, labels)
-    keep = np.union1d(np.arange(sample), to_judge).astype(np.int64)
+    first_good = _first_good(judged)
+    keep = np.union1d(np.union1d(np.arange(sample), to_judge), list(first_good.values())).astype(np.int64)
     kept = _rows_at(frame, keep, starts, labels)
     suspect = int(judged["\x00suspect"].sum().compute())
     found = StreamResult(
@@ -107,8 +112,18 @@ def screen_with_dask(
         suspect,
         sample,
         len(to_judge),
+        first_good=first_good,
     )
     return screened_table(plain, found, scan.sha256, contract)
+
+
+def _first_good(judged: Any) -> dict[str, int]:
+    """Per patterned variable, the body position of its first good cell (see `StreamResult`)."""
+    import dask
+
+    names = [c[len(GOOD) :] for c in judged.columns if c.startswith(GOOD)]
+    firsts = dask.compute(*(judged[POSITION].where(judged[f"{GOOD}{n}"]).min() for n in names))
+    return {name: int(at) for name, at in zip(names, firsts, strict=True) if not pd.isna(at)}
 
 
 def _meta(contract: TableContract, names: list[str], labels: list[str]) -> pd.DataFrame:

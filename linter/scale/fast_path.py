@@ -44,8 +44,9 @@ class Part:
     """The contract variables to judge (the key columns together, any other column on its own)."""
     table: Table
     """Header row and the rows where one of `columns` holds a cell the screen could not pass (for
-    the key columns also every row whose key another row shares), with the leading sample when
-    one of `columns` has a pattern. Only `columns` and the key columns are filled in: the other
+    the key columns also every row whose key another row shares), with the leading sample and
+    the row of the first good cell of each of `columns` that has a pattern (see `screened_table`).
+    Only `columns` and the key columns are filled in: the other
     cells are left empty, as no row-wise rule of the part reads them."""
 
 
@@ -132,9 +133,9 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
 
     A clean cell yields no finding from any row-wise rule, so each column is judged only where its
     own cell is in doubt: the key columns together (with every row whose key is shared), each other
-    column on its own. A part with a patterned column holds the sample too, because a pattern
-    finding quotes a good value of the same column as an example, and the file's first good values
-    are in the sample, as they are for the ordinary reader.
+    column on its own. A part with a patterned column holds the sample too, and the row of that
+    column's first good cell, because a pattern finding quotes the column's first good value as
+    an example, as it does on the ordinary reader.
     """
     positions = np.asarray(found.positions, np.int64)
     sample = np.flatnonzero(positions < found.sample)
@@ -142,7 +143,10 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
 
     def rows_of(columns: tuple[str, ...], judged: np.ndarray) -> np.ndarray:
         rows = np.searchsorted(positions, judged)
-        return np.union1d(sample, rows) if patterned.intersection(columns) else rows
+        if not patterned.intersection(columns):
+            return rows
+        firsts = [found.first_good[c] for c in columns if c in found.first_good]
+        return np.union1d(np.union1d(sample, rows), np.searchsorted(positions, firsts))
 
     def read_by(columns: tuple[str, ...]) -> set[int]:
         """Positions of the columns the row-wise rules of a part read: its own, and the key

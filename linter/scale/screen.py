@@ -12,7 +12,8 @@ from __future__ import annotations
 import os
 from collections.abc import Mapping, Sequence
 from concurrent.futures import ThreadPoolExecutor
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from typing import NamedTuple
 
 import numpy as np
 import pandas as pd
@@ -73,6 +74,20 @@ class Screened:
     """Per present variable, True where its own cell is one the screen could not pass."""
     keys: pa.Table
     """The key columns as the engine compares them (typed where the engine types them)."""
+    good: Mapping[str, np.ndarray] = field(default_factory=dict)
+    """Per present patterned variable, True where its cell passes and is not missing: a value the
+    engine finds good, which a pattern finding may quote as an example of the agreed form."""
+
+
+class Judged(NamedTuple):
+    """One column of a batch judged."""
+
+    clean: np.ndarray
+    """True where the engine would find nothing in the cell."""
+    key: pa.Array | pa.ChunkedArray
+    """The cells typed as the engine compares them as a key."""
+    good: np.ndarray | None = None
+    """For a patterned variable, True where the cell passes and is not missing (else None)."""
 
 
 # Bytes that are certainly not whitespace to any trimming function: printable ASCII but the space.
@@ -277,10 +292,8 @@ def _missing_among(text: pa.ChunkedArray, codes: Sequence[str], rows: np.ndarray
     return missing
 
 
-def _judged(
-    text: pa.ChunkedArray, variable: Variable, contract: TableContract
-) -> tuple[np.ndarray, pa.Array | pa.ChunkedArray]:
-    """(clean, key value) for one column: clean where the engine would find nothing in the cell."""
+def _judged(text: pa.ChunkedArray, variable: Variable, contract: TableContract) -> Judged:
+    """One column judged: clean where the engine would find nothing in the cell."""
     codes = tuple(contract.missing) + tuple(variable.missing)
     trimmed = (
         trimmed_text(text) if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN) else text
@@ -289,19 +302,22 @@ def _judged(
     is_key = variable.name in contract.keys
     nullable = variable.nullable and not is_key
     never_missing = passing_never_missing(variable, codes)
+    patterned = variable.pattern is not None
     if never_missing and not nullable and not is_key:
-        return passes, typed  # a failing cell fails, missing or not; a passing one is never missing
+        # A failing cell fails, missing or not; a passing one is never missing.
+        return Judged(passes, typed, passes if patterned else None)
     if never_missing:
         missing = _missing_among(text, codes, ~passes)
     else:
         missing = missing_cells(text, codes, trimmed_text(text) if trimmed is text else trimmed)
     clean = np.where(missing, nullable, passes)
+    good = (passes if never_missing else passes & ~missing) if patterned else None
     if not is_key:
-        return clean, typed
+        return Judged(clean, typed, good)
     keyed = pc.if_else(pa.array(missing), pa.scalar(None, typed.type), typed) if missing.any() else typed
     if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.DATE):
         keyed = _keyed(text, variable, contract, keyed, missing)
-    return clean, keyed
+    return Judged(clean, keyed, good)
 
 
 _pools: dict[int, ThreadPoolExecutor] = {}
@@ -321,11 +337,13 @@ def screen_batch(batch: pa.Table, contract: TableContract) -> Screened:
     # Arrow kernels and numpy release the GIL, so columns are judged side by side on the available cores.
     judged = list(worker_pool().map(lambda v: _judged(batch.column(v.name), v, contract), present))
     clean = np.ones(batch.num_rows, bool)
-    for column_clean, _ in judged:
-        clean &= column_clean
-    cells = {v.name: ~column_clean for v, (column_clean, _) in zip(present, judged, strict=True)}
-    keys = {v.name: key for v, (_, key) in zip(present, judged, strict=True) if v.name in contract.keys}
-    return Screened(pa.array(~clean), cells, pa.table(keys) if keys else pa.table({}))
+    for column in judged:
+        clean &= column.clean
+    named = list(zip(present, judged, strict=True))
+    cells = {v.name: ~column.clean for v, column in named}
+    keys = {v.name: column.key for v, column in named if v.name in contract.keys}
+    good = {v.name: column.good for v, column in named if column.good is not None}
+    return Screened(pa.array(~clean), cells, pa.table(keys) if keys else pa.table({}), good)
 
 
 def _dates(text: pa.ChunkedArray) -> tuple[np.ndarray, np.ndarray]:

@@ -54,6 +54,10 @@ class StreamResult:
     None when only whole rows are known (then every variable is judged on every judged row)."""
     shared: np.ndarray = field(default_factory=lambda: np.array([], np.int64))
     """Sorted body positions of the rows whose whole key another row shares."""
+    first_good: Mapping[str, int] = field(default_factory=dict)
+    """Per patterned variable, the body position of the first cell the screen passes that is not
+    missing (a row kept for it): a pattern finding's example of the agreed form is the column's
+    first good value, which lies beyond the sample when the file starts with bad ones."""
 
 
 def key_hashes(keys: pa.Table) -> np.ndarray:
@@ -102,6 +106,7 @@ def screen_stream(
     key_runs: list[Future[tuple[np.ndarray, np.ndarray]]] = []
     suspect_parts: list[np.ndarray] = []
     cell_parts: dict[str, list[np.ndarray]] = {}
+    first_good: dict[str, int] = {}
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
         spill: HashSpill | None = None
@@ -121,7 +126,10 @@ def screen_stream(
             for name, cells in screened.cells.items():
                 cell_parts.setdefault(name, []).append(np.flatnonzero(cells) + start)
             sample = np.arange(max(0, min(sample_rows - start, body.num_rows)))
-            chosen = np.union1d(sample, suspect).astype(np.int64)
+            firsts = _first_good(screened.good, first_good)
+            for name, at in firsts.items():
+                first_good[name] = start + at
+            chosen = np.union1d(np.union1d(sample, suspect), list(firsts.values())).astype(np.int64)
             if len(chosen):
                 kept.append(_take(body, chosen))
                 kept_positions.append(chosen + start)
@@ -160,7 +168,14 @@ def screen_stream(
         judged,
         {name: np.concatenate(parts) for name, parts in cell_parts.items()},
         duplicate.positions,
+        first_good,
     )
+
+
+def _first_good(good: Mapping[str, np.ndarray], known: Mapping[str, int]) -> dict[str, int]:
+    """Per patterned variable without a known first good cell, the batch position of its first
+    good cell, when the batch has one."""
+    return {name: int(np.argmax(cells)) for name, cells in good.items() if name not in known and cells.any()}
 
 
 @dataclass(frozen=True)

@@ -82,3 +82,11 @@ def csv_text(rows: list[list[str]]) -> str:
         return f'"{value}"' if "," in value else value
 
     return HEADER + "\n" + "".join(",".join(cell(v) for v in r) + "\n" for r in rows)
+
+
+def bad_sites_first(count: int, bad: int, seed: int) -> list[list[str]]:
+    """Clean rows whose first `bad` site ids break the pattern, so the first good one lies beyond them."""
+    rows = lab_rows(count, seed)
+    for row in rows[:bad]:
+        row[1] = "vb-" + row[1][3:]
+    return rows

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import pytest
-from scale_lab_data import csv_text, lab_rows
+from scale_lab_data import bad_sites_first, csv_text, lab_rows
 
 pytest.importorskip("distributed")
 
@@ -46,6 +46,22 @@ def test_dask_engine_finds_what_the_single_machine_engine_finds(
     found = [f for r in distributed.results for f in r.findings if f.rule.startswith(("values.", "keys."))]
     assert found == expected
     assert [r.rows for r in distributed.results] == [900]
+
+
+def test_dask_engine_quotes_the_first_good_value_of_a_pattern_from_a_later_partition(
+    tmp_path, contract_file, monkeypatch, two_workers
+):
+    rows = bad_sites_first(400, 200, seed=4)
+    path = tmp_path / "results-2026-07.csv"
+    path.write_text(csv_text(rows), encoding="utf-8")
+    contracts = [load_contract(str(contract_file))]
+    single = check_paths([str(path)], contracts)
+    monkeypatch.setattr(dask_engine, "BLOCK_BYTES", 6000)  # the first good site id is partitions away
+    monkeypatch.setattr("linter.scale.fast_path.SAMPLE_ROWS", 3)
+    distributed = check_paths([str(path)], contracts, engine="dask")
+    [expected] = [f for r in single.results for f in r.findings if f.rule == "values.pattern-mismatch"]
+    assert f"like {rows[200][1]!r}" in expected.fix
+    assert [f for r in distributed.results for f in r.findings if f.rule == expected.rule] == [expected]
 
 
 def test_cli_engine_dask_refuses_an_unreachable_scheduler_in_one_line(tmp_path, contract_file):

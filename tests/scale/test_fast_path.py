@@ -7,7 +7,7 @@ from pathlib import Path
 
 import pyarrow as pa
 import pytest
-from scale_lab_data import csv_text, lab_rows
+from scale_lab_data import bad_sites_first, csv_text, lab_rows
 
 from linter.check import check_paths, narrowed
 from linter.contract.load import load_contract
@@ -67,6 +67,20 @@ def test_batches_longer_than_the_leading_cells_find_what_the_engine_finds(
     expected = row_findings(ordinary)
     # Empty key cells are reported as missing, not as keys the rows share.
     assert ("keys.missing" if empty_analytes else "keys.duplicate") in {f.rule for f in expected}
+    assert row_findings(fast) == expected
+
+
+def test_a_pattern_finding_quotes_the_first_good_value_even_beyond_the_sample(
+    tmp_path, contract_file, monkeypatch
+):
+    # The fix shows the column's first good value; here it lies far past the five-row sample.
+    rows = bad_sites_first(300, 120, seed=9)
+    path = tmp_path / "results-2026-07.csv"
+    path.write_text(csv_text(rows), encoding="utf-8")
+    ordinary, fast = both_paths(path, contract_file, monkeypatch)
+    expected = row_findings(ordinary)
+    [pattern] = [f for f in expected if f.rule == "values.pattern-mismatch"]
+    assert f"like {rows[120][1]!r}" in pattern.fix
     assert row_findings(fast) == expected
 
 
