@@ -9,11 +9,13 @@ piece while the current one is judged.
 
 from __future__ import annotations
 
+import functools
 import hashlib
+import mmap
 import os
 import threading
-from collections.abc import Iterator
-from concurrent.futures import ThreadPoolExecutor
+from collections.abc import Callable, Iterator
+from concurrent.futures import Future, ThreadPoolExecutor
 from dataclasses import dataclass
 from queue import Full, Queue
 from typing import Any, TypeVar
@@ -30,6 +32,7 @@ PARSE_BLOCK_BYTES = max(1024 * 1024, BATCH_BYTES // (os.cpu_count() or 1))
 one chunk of every column: the screen works chunk by chunk, so fewer, longer chunks cost it less
 (a 16 MB piece in 1 MB blocks, Arrow's default, took it a third longer than in two)."""
 NEWLINE = ord("\n")
+RETURN = ord("\r")
 LONGEST_LINE_BYTES = 4 * DEFAULT_LIMITS.max_line_chars
 """UTF-8 needs at most 4 bytes a character."""
 
@@ -53,7 +56,7 @@ class LineScan:
         self.ends_with_newline = False
         self.ends_with_return = False
 
-    def add(self, data: bytes | bytearray, start: int = 0, end: int | None = None) -> None:
+    def add(self, data: bytes | bytearray | mmap.mmap, start: int = 0, end: int | None = None) -> None:
         """Take in `data[start:end]` (a range, so a reused read buffer is never copied)."""
         end = len(data) if end is None else end
         if end <= start:
@@ -61,11 +64,13 @@ class LineScan:
         self.digest.update(memoryview(data)[start:end])
         self.bytes += end - start
         # NumPy counts several times faster than `bytes.count`, and lets go of the GIL meanwhile.
-        self.newlines += int(np.count_nonzero(np.frombuffer(data, np.uint8, end - start, start) == NEWLINE))
+        block = np.frombuffer(data, np.uint8, end - start, start)
+        self.newlines += int(np.count_nonzero(block == NEWLINE))
         # `find` is a fast byte search; counting is only needed in files that have the byte at all.
         if data.find(b"\r", start, end) >= 0:
-            self.returns += data.count(b"\r", start, end)
-            self.line_returns += data.count(b"\r\n", start, end)
+            returns = block == RETURN
+            self.returns += int(np.count_nonzero(returns))
+            self.line_returns += int(np.count_nonzero(returns[:-1] & (block[1:] == NEWLINE)))
         if self.ends_with_return and data[start] == ord("\n"):
             self.line_returns += 1  # a CRLF split between two blocks
         self.nuls = self.nuls or data.find(b"\x00", start, end) >= 0
@@ -129,6 +134,76 @@ def text_options(delimiter: str, width: int) -> tuple[Any, Any, Any]:
     )
 
 
+@dataclass(frozen=True)
+class Block:
+    """Whole lines of the file, as read: `data[:size]`, starting at byte `offset` of the file."""
+
+    data: Any
+    """A writable buffer (reused for later blocks once this one is done with)."""
+    size: int
+    offset: int
+    checked: Callable[[], None]
+    """Waits for the block's scan (which runs meanwhile); raises `pa.ArrowInvalid` on NUL bytes."""
+
+
+def _scanned(scanned: Future[None] | None, scan: LineScan | None) -> None:
+    if scanned is not None:
+        scanned.result()
+    if scan is not None and scan.nuls:
+        raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
+
+
+def line_blocks(
+    path: str, block: int | None = None, scan: LineScan | None = None, ring: int = 1
+) -> Iterator[Block]:
+    """The file read in blocks of whole lines (the header line included), each shown to `scan`.
+
+    The blocks take turns in `ring` buffers: a block's buffer is reused `ring` blocks later, so a
+    consumer `read_ahead` of this needs a ring of 3 (the block it judges, one queued, one being
+    read). Each buffer is anonymous memory, so only the pages a block fills count. A NUL byte
+    stops the pass at once; a line longer than the reader's limit raises too.
+    """
+    block = BATCH_BYTES if block is None else block
+    buffers: list[mmap.mmap] = []
+    have = offset = turn = 0
+    carried: tuple[mmap.mmap, int] | None = None
+    """The buffer holding the unfinished last line of the block just yielded, and where it starts."""
+    # The scan (SHA-256 mostly) of each block runs beside whatever the consumer does with the
+    # block until it calls `checked`; both let go of the GIL.
+    with open(path, "rb") as handle, ThreadPoolExecutor(1, thread_name_prefix="weir-scan") as scanner:
+        while True:
+            if turn % ring == len(buffers):
+                buffers.append(mmap.mmap(-1, LONGEST_LINE_BYTES + block))
+            buffer = buffers[turn % ring]
+            view = memoryview(buffer)
+            if carried is not None and have:  # the unfinished line of the last block starts this one
+                previous, at = carried
+                view[:have] = memoryview(previous)[at : at + have]
+            read = handle.readinto(view[have : have + block])
+            scanned = None if scan is None else scanner.submit(scan.add, buffer, have, have + read)
+            checked = functools.partial(_scanned, scanned, scan)
+            filled = have + read
+            cut = filled if not read else buffer.rfind(b"\n", 0, filled) + 1
+            if filled - cut > LONGEST_LINE_BYTES:
+                checked()
+                # The ordinary reader refuses such a line with a finding; let it.
+                raise pa.ArrowInvalid("a line longer than the reader's limit")
+            if cut:
+                yield Block(buffer, cut, offset, checked)
+            checked()  # before the buffer is written again
+            carried = None
+            if cut:
+                offset += cut
+                turn += 1
+                if ring == 1:
+                    buffer[: filled - cut] = buffer[cut:filled]  # the unfinished line (may overlap)
+                else:
+                    carried = (buffer, cut)
+            have = filled - cut
+            if not read:
+                return
+
+
 def text_batches(
     path: str, delimiter: str, width: int, block: int | None = None, scan: LineScan | None = None
 ) -> Iterator[Piece]:
@@ -136,47 +211,16 @@ def text_batches(
 
     The file is cut at line ends and each piece parsed on its own: with line breaks inside cells
     refused (`newlines_in_values=False`) that is exactly how Arrow splits records anyway, and only
-    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound). Every
-    block read is shown to `scan`; a NUL byte stops the pass at once.
+    one piece is ever in memory (Arrow's own streaming reader reads ahead without bound).
     """
-    block = BATCH_BYTES if block is None else block
     options = text_options(delimiter, width)
-    # One buffer for the whole pass: a fresh 16 MB object per read cost more in page faults than
-    # the copy itself. It holds the unfinished last line of one read plus the next read.
-    buffer = bytearray(LONGEST_LINE_BYTES + block)
-    view = memoryview(buffer)
-    have = offset = line = 0
-    # The scan (SHA-256 mostly) of each block runs beside Arrow's parse of it; both let go of the
-    # GIL, and the buffer is changed only once both are done.
-    with open(path, "rb") as handle, ThreadPoolExecutor(1, thread_name_prefix="weir-scan") as scanner:
-        while True:
-            read = handle.readinto(view[have : have + block])
-            scanned = None if scan is None else scanner.submit(scan.add, buffer, have, have + read)
-            filled = have + read
-            cut = filled if not read else buffer.rfind(b"\n", 0, filled) + 1
-            table = None
-            if cut and filled - cut <= LONGEST_LINE_BYTES:
-                try:
-                    # Arrow copies the cells into its own arrays, so the buffer may be reused after.
-                    table = pacsv.read_csv(pa.BufferReader(pa.py_buffer(view[:cut])), *options)
-                finally:
-                    if scanned is not None:
-                        scanned.result()
-            elif scanned is not None:
-                scanned.result()
-            if scan is not None and scan.nuls:
-                raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
-            if filled - cut > LONGEST_LINE_BYTES:
-                # The ordinary reader refuses such a line with a finding; let it.
-                raise pa.ArrowInvalid("a line longer than the reader's limit")
-            if table is not None:
-                yield Piece(table, Span(offset, cut, line, table.num_rows))
-                offset += cut
-                line += table.num_rows
-                buffer[: filled - cut] = bytes(view[cut:filled])  # the unfinished line (may overlap)
-            have = filled - cut
-            if not read:
-                return
+    line = 0
+    for lines in line_blocks(path, block, scan):
+        # Arrow copies the cells into its own arrays, so the buffer may be reused after.
+        table = pacsv.read_csv(pa.BufferReader(pa.py_buffer(memoryview(lines.data)[: lines.size])), *options)
+        lines.checked()
+        yield Piece(table, Span(lines.offset, lines.size, line, table.num_rows))
+        line += table.num_rows
 
 
 T = TypeVar("T")

@@ -122,7 +122,7 @@ def missing_cells(
     return flat(pc.or_(pc.is_null(text), falsy(pc.is_in(trimmed, value_set=codes_set))))
 
 
-def _ns_bound(bound: float | str) -> int:
+def ns_bound(bound: float | str) -> int:
     """A date bound in nanoseconds since 1970, clamped to the int64 range pandas' ns clock spans."""
     stamp = pd.Timestamp(str(bound))
     try:
@@ -138,7 +138,7 @@ def _bound_ok(values: np.ndarray, variable: Variable, as_date: bool) -> np.ndarr
     for bound, compare in ((variable.minimum, np.greater_equal), (variable.maximum, np.less_equal)):
         if bound is None:
             continue
-        ok &= compare(values, _ns_bound(bound) if as_date else float(bound))
+        ok &= compare(values, ns_bound(bound) if as_date else float(bound))
     return ok
 
 

@@ -1,6 +1,8 @@
 """Screen a delimited file batch by batch in bounded memory, keys across batches included.
 
-Column checks run per batch (`screen.screen_batch`) on the pieces `pieces.text_batches` reads.
+Column checks run per batch: by the compiled row scanner on the blocks `pieces.line_blocks` reads
+(`row_scan`, where it is built and the contract is one it judges), else by the numpy screen
+(`screen.screen_batch`) on the pieces `pieces.text_batches` parses.
 Keys need the whole file: each batch's keys are hashed to 64 bits (`key_hash`); below
 `spill.KEYS_IN_MEMORY_BYTES` the hashes are kept in memory (8 bytes a row, and their upper
 halves sorted, 4 more; see `key_hash.repeated_positions`), above it they are spilled to
@@ -13,7 +15,7 @@ from __future__ import annotations
 
 import os
 import tempfile
-from collections.abc import Callable, Mapping, Sequence
+from collections.abc import Callable, Iterator, Mapping, Sequence
 from concurrent.futures import Future
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -24,8 +26,27 @@ import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
 from linter.scale.key_codes import key_codes, shared_codes
-from linter.scale.key_hash import high_halves, members_of, repeated_positions, row_hashes
-from linter.scale.pieces import LineScan, Span, read_ahead, text_batches, text_options
+from linter.scale.key_hash import members_of, repeated_positions, row_hashes
+from linter.scale.pieces import (
+    LONGEST_LINE_BYTES,
+    Block,
+    LineScan,
+    Span,
+    line_blocks,
+    read_ahead,
+    text_batches,
+    text_options,
+)
+from linter.scale.row_scan import (
+    DOUBT,
+    FALLBACK,
+    FALLBACK_SHARE,
+    ScanSpec,
+    judge_lines,
+    parse_lines,
+    scan_spec,
+    sorted_high_halves,
+)
 from linter.scale.screen import screen_batch, worker_pool
 from linter.scale.spill import HashSpill, spill_partitions
 from linter.table import unique_labels
@@ -68,10 +89,10 @@ def key_hashes(keys: pa.Table) -> np.ndarray:
     return row_hashes(keys)
 
 
-def _hashed_and_sorted(keys: pa.Table) -> tuple[np.ndarray, np.ndarray]:
+def _hashed_and_sorted(hashed: Callable[[], np.ndarray]) -> tuple[np.ndarray, np.ndarray]:
     """The batch's key hashes, and their upper halves sorted (see `key_hash.repeated_positions`)."""
-    hashes = key_hashes(keys)
-    return hashes, np.sort(high_halves(hashes))
+    hashes = hashed()
+    return hashes, sorted_high_halves(hashes)
 
 
 def _no_rows(labels: Sequence[str]) -> pa.Table:
@@ -80,6 +101,112 @@ def _no_rows(labels: Sequence[str]) -> pa.Table:
 
 def _take(table: pa.Table, positions: np.ndarray) -> pa.Table:
     return table.take(pa.array(positions, pa.int64()))
+
+
+@dataclass(frozen=True)
+class BatchScreen:
+    """One batch of body rows screened, however it was read."""
+
+    rows: int
+    suspect: np.ndarray
+    """Batch positions of the rows with a cell the screen could not pass."""
+    cells: Mapping[str, np.ndarray]
+    """Per present variable, the batch positions of its cells the screen could not pass."""
+    good: Mapping[str, int]
+    """Per patterned variable with a good cell in the batch, the first one's batch position."""
+    hashes: Callable[[], np.ndarray] | None
+    """The rows' 64-bit key hashes, worked out when called (None: no key column is present)."""
+    take: Callable[[np.ndarray], pa.Table]
+    """The rows at sorted batch positions as text cells; valid only until the next batch is read."""
+
+
+def _table_screen(body: pa.Table, contract: TableContract) -> BatchScreen:
+    """A batch parsed by Arrow, judged by the numpy screen."""
+    screened = screen_batch(body, contract)
+    keys = screened.keys
+    return BatchScreen(
+        body.num_rows,
+        np.flatnonzero(screened.suspect.to_numpy(zero_copy_only=False)),
+        {name: np.flatnonzero(cells) for name, cells in screened.cells.items()},
+        {name: int(np.argmax(cells)) for name, cells in screened.good.items() if cells.any()},
+        (lambda: key_hashes(keys)) if keys.num_columns else None,
+        lambda rows: _take(body, rows),
+    )
+
+
+def _table_screens(
+    path: str, delimiter: str, width: int, contract: TableContract, labels: list[str], scan: LineScan
+) -> Iterator[tuple[BatchScreen, Span]]:
+    """The file parsed by Arrow piece by piece (the next piece while this one is judged)."""
+    for piece in read_ahead(text_batches(path, delimiter, width, scan=scan)):
+        batch = piece.table.slice(1) if piece.span.first_line == 0 else piece.table  # the header
+        yield _table_screen(batch.rename_columns(labels), contract), piece.span
+
+
+def _line_screen(
+    block: Block, begin: int, spec: ScanSpec, contract: TableContract, labels: list[str], width: int
+) -> BatchScreen:
+    """The lines of `block.data[begin:block.size]` judged by the row scanner, its fallback lines by
+    the numpy screen (or the whole block, when it is mostly such lines)."""
+    options = text_options(chr(spec.delimiter), width)
+    verdict = judge_lines(block.data, begin, block.size, width, spec, worker_pool())
+    back = np.flatnonzero(verdict.flags == FALLBACK)
+    if len(back) * FALLBACK_SHARE > verdict.rows:
+        body = pacsv.read_csv(
+            pa.BufferReader(pa.py_buffer(memoryview(block.data)[begin : block.size])), *options
+        )
+        if body.num_rows != verdict.rows:
+            raise pa.ArrowInvalid("lines that Arrow reads as more or fewer records")
+        return _table_screen(body.rename_columns(labels), contract)
+    bad, hashes = verdict.bad, verdict.hashes
+    good = {
+        name: int(at) for name, at in zip(spec.variables, verdict.first_good, strict=True)
+        if name in spec.patterned and at >= 0
+    }  # fmt: skip
+    suspect = np.flatnonzero(verdict.flags == DOUBT)
+    if len(back):
+        screened = screen_batch(parse_lines(block.data, verdict.starts, back, options, labels), contract)
+        suspect = np.union1d(suspect, back[screened.suspect.to_numpy(zero_copy_only=False)])
+        for column, name in enumerate(spec.variables):
+            bad[back, column] = screened.cells[name]
+        if screened.keys.num_columns:
+            hashes[back] = key_hashes(screened.keys)
+        for name, cells in screened.good.items():
+            if cells.any():
+                good[name] = min(good.get(name, verdict.rows), int(back[np.argmax(cells)]))
+    return BatchScreen(
+        verdict.rows,
+        suspect,
+        {name: np.flatnonzero(bad[:, column]) for column, name in enumerate(spec.variables)},
+        good,
+        (lambda: hashes) if spec.keys else None,
+        lambda rows: parse_lines(block.data, verdict.starts, rows, options, labels),
+    )
+
+
+def _line_screens(
+    path: str, spec: ScanSpec, contract: TableContract, labels: list[str], width: int, scan: LineScan
+) -> Iterator[tuple[BatchScreen, Span]]:
+    """The file judged by the row scanner block by block (the next block read meanwhile)."""
+    line = 0
+    for block in read_ahead(line_blocks(path, scan=scan, ring=3)):
+        begin = 0
+        if block.offset == 0:  # the header line
+            begin = block.data.find(b"\n", 0, block.size) + 1 or block.size
+        screened = _line_screen(block, begin, spec, contract, labels, width)
+        rows = screened.rows + (1 if block.offset == 0 else 0)
+        yield screened, Span(block.offset, block.size, line, rows)
+        line += rows
+
+
+def header_names(path: str, delimiter: str, width: int) -> tuple[str, ...]:
+    """The file's first line as column names, read as Arrow reads it ("" where empty)."""
+    with open(path, "rb") as handle:
+        first = handle.readline(LONGEST_LINE_BYTES)
+    if not first.endswith(b"\n"):
+        first += b"\n"
+    header = pacsv.read_csv(pa.BufferReader(first), *text_options(delimiter, width))
+    return tuple("" if v is None else str(v) for v in header.to_pylist()[0].values())
 
 
 def screen_stream(
@@ -96,13 +223,19 @@ def screen_stream(
 
     Raises `pa.ArrowInvalid` when the file is not one record per line (see `LineScan`)."""
     scan = LineScan() if scan is None else scan
+    names = header_names(path, delimiter, width)
+    labels = unique_labels(list(names))
+    spec = scan_spec(contract, labels, delimiter)
+    batches = (
+        _table_screens(path, delimiter, width, contract, labels, scan)
+        if spec is None
+        else _line_screens(path, spec, contract, labels, width, scan)
+    )
     spans: list[Span] = []
-    names: tuple[str, ...] = ()
-    labels: list[str] = []
     kept: list[pa.Table] = []
     kept_positions: list[np.ndarray] = []
     # Per batch, its 64-bit key hashes (8 bytes a row instead of the key texts) and their upper
-    # halves sorted, both worked out on a worker while the pass goes on.
+    # halves sorted, the sort done on a worker while the pass goes on.
     key_runs: list[Future[tuple[np.ndarray, np.ndarray]]] = []
     suspect_parts: list[np.ndarray] = []
     cell_parts: dict[str, list[np.ndarray]] = {}
@@ -110,37 +243,29 @@ def screen_stream(
     start = 0
     with tempfile.TemporaryDirectory(prefix="weir-keys-") as spill_folder:
         spill: HashSpill | None = None
-        for piece in read_ahead(text_batches(path, delimiter, width, scan=scan)):
-            batch = piece.table
-            spans.append(piece.span)
-            if not names:
-                names = tuple("" if v is None else str(v) for v in batch.slice(0, 1).to_pylist()[0].values())
-                labels = unique_labels(list(names))
-                batch = batch.slice(1)
-                if not keys_in_memory:
-                    spill = HashSpill(Path(spill_folder), spill_partitions(path, piece.span))
-            body = batch.rename_columns(labels)
-            screened = screen_batch(body, contract)
-            suspect = np.flatnonzero(screened.suspect.to_numpy(zero_copy_only=False))
-            suspect_parts.append(suspect + start)
+        for screened, span in batches:
+            if not spans and not keys_in_memory:
+                spill = HashSpill(Path(spill_folder), spill_partitions(path, span))
+            spans.append(span)
+            suspect_parts.append(screened.suspect + start)
             for name, cells in screened.cells.items():
-                cell_parts.setdefault(name, []).append(np.flatnonzero(cells) + start)
-            sample = np.arange(max(0, min(sample_rows - start, body.num_rows)))
-            firsts = _first_good(screened.good, first_good)
+                cell_parts.setdefault(name, []).append(cells + start)
+            sample = np.arange(max(0, min(sample_rows - start, screened.rows)))
+            firsts = {name: at for name, at in screened.good.items() if name not in first_good}
             for name, at in firsts.items():
                 first_good[name] = start + at
-            chosen = np.union1d(np.union1d(sample, suspect), list(firsts.values())).astype(np.int64)
+            chosen = np.union1d(np.union1d(sample, screened.suspect), list(firsts.values())).astype(np.int64)
             if len(chosen):
-                kept.append(_take(body, chosen))
+                kept.append(screened.take(chosen))
                 kept_positions.append(chosen + start)
-            if screened.keys.num_columns:
+            if screened.hashes is not None:
                 if spill is None:
-                    key_runs.append(worker_pool().submit(_hashed_and_sorted, screened.keys))
+                    key_runs.append(worker_pool().submit(_hashed_and_sorted, screened.hashes))
                 else:
-                    spill.add(key_hashes(screened.keys), start)
-            start += body.num_rows
+                    spill.add(screened.hashes(), start)
+            start += screened.rows
             if progress is not None:
-                progress(body.num_rows)
+                progress(screened.rows)
         if not scan.rows_agree(start):
             raise pa.ArrowInvalid("blank lines, stray carriage returns or NUL bytes")
         hashed = [run.result() for run in key_runs]
@@ -170,12 +295,6 @@ def screen_stream(
         duplicate.positions,
         first_good,
     )
-
-
-def _first_good(good: Mapping[str, np.ndarray], known: Mapping[str, int]) -> dict[str, int]:
-    """Per patterned variable without a known first good cell, the batch position of its first
-    good cell, when the batch has one."""
-    return {name: int(np.argmax(cells)) for name, cells in good.items() if name not in known and cells.any()}
 
 
 @dataclass(frozen=True)

@@ -28,6 +28,19 @@ def findings_of(path, contract_file):
     return [f for r in report.results for f in r.findings if f.rule.startswith(("values.", "keys."))]
 
 
+def collide(monkeypatch):
+    """Every key hashes alike, on the rows the row scanner hashes and on those numpy hashes."""
+    monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
+    judged = stream.judge_lines
+
+    def colliding(*args):
+        verdict = judged(*args)
+        verdict.hashes[:] = 0
+        return verdict
+
+    monkeypatch.setattr(stream, "judge_lines", colliding)
+
+
 def fast_findings(path, contract_file, monkeypatch, spill: bool):
     monkeypatch.setattr(fast_path, "FAST_PATH_BYTES", 0)
     monkeypatch.setattr(fast_path, "SAMPLE_ROWS", 3)
@@ -48,7 +61,7 @@ def test_small_batches_give_the_ordinary_findings(broken_file, contract_file, mo
 def test_hash_collisions_are_verified_away(broken_file, contract_file, monkeypatch, spill):
     expected = findings_of(broken_file, contract_file)
     # Every key hashes alike, so every row is a candidate: only really equal keys may survive.
-    monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
+    collide(monkeypatch)
     assert fast_findings(broken_file, contract_file, monkeypatch, spill=spill) == expected
 
 
@@ -64,7 +77,7 @@ def test_keys_repeated_across_batches_are_found_exactly(tmp_path, contract_file,
         "sample_id,site_id,sampled_on,analyte,result,replicate,qualifier,lab\n" + "\n".join(lines) + "\n"
     )
     monkeypatch.setattr(pieces, "BATCH_BYTES", 4096)
-    monkeypatch.setattr(stream, "key_hashes", lambda keys: np.zeros(keys.num_rows, np.uint64))
+    collide(monkeypatch)
     contract = load_contract(str(contract_file)).tables[0]
     found = screen_stream(str(path), contract, ",", 8, 0, keys_in_memory=not spill)
     assert found.positions == (0, 150, 151, 400)
