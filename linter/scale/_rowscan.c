@@ -317,7 +317,8 @@ typedef struct {
 } scanner_t;
 
 static void end_cell(scanner_t *s, Py_ssize_t end) {
-    if (!s->back && s->field < s->width) {
+    /* Past `most` lines (only lines refused below can get there) nothing more is written. */
+    if (!s->back && s->field < s->width && s->rows < s->most) {
         const column_t *col = &s->columns[s->field];
         if (col->kind != SKIP) {
             cell_t cell = judge_cell(col, s->bytes + s->cell_start, end - s->cell_start);

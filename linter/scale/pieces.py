@@ -1,7 +1,8 @@
 """Read a delimited file in pieces cut at line ends, and learn what its bytes tell on the way.
 
 `text_batches` parses one piece at a time with Arrow (all cells as text, empty as null), so
-memory does not grow with the file; `LineScan` sees every byte once (SHA-256, line ends, NUL
+memory does not grow with the file (`line_blocks` hands the same pieces over unparsed, for the
+row scanner); `LineScan` sees every byte once (SHA-256, line ends, NUL
 bytes, carriage returns) to prove Arrow's rows are the file's lines; each `Span` says where a
 piece's lines lie, so rows can be read again without another pass; `read_ahead` parses the next
 piece while the current one is judged.
