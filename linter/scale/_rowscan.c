@@ -3,10 +3,12 @@
  * The companion of linter/scale/row_scan.py, which builds the column specs and says how to read
  * the answers. Like the numpy screen (linter/scale/screen.py) this pass is deliberately stricter
  * than the engine: a cell it passes is one the engine finds nothing in; anything it is not sure
- * of is marked, and any line it cannot split for certain (a quote, a byte outside ASCII, a stray
- * carriage return) is handed back whole, to be parsed by Arrow and judged by the numpy screen.
+ * of is marked, and any line it cannot split for certain (a quote inside a cell or a doubled one,
+ * a byte outside ASCII, a stray carriage return) is handed back whole, to be parsed by Arrow and
+ * judged by the numpy screen. A cell quoted whole ("1,420") is read as Arrow reads it: the text
+ * between the quotes, delimiters included (an empty quoted cell is null, as in Arrow).
  *
- * judge(data, start, end, delimiter, width, columns, keys, bad, fallback, hashes, starts, first_good)
+ * judge(data, start, end, delimiter, width, columns, keys, bad, flags, hashes, starts, first_good)
  *   -> rows
  *   data        the bytes (any buffer); lines data[start:end], the last one may lack its '\n'
  *   columns     one tuple per file column: (kind, variable, nullable, low, high, low_ns, high_ns,
@@ -312,6 +314,9 @@ typedef struct {
     int doubt;     /* some cell of the line needs the engine */
     int error;     /* 1: an empty line, 2: a line of another width (or more lines than can be) */
     Py_ssize_t cr; /* position of a carriage return on the line, or -1 */
+    Py_ssize_t end;         /* where the data ends */
+    Py_ssize_t quote_open;  /* position of the opening quote of the current cell, or -1 */
+    Py_ssize_t quote_close; /* position of its closing quote, or -1 */
     Py_ssize_t rows;
     uint64_t key_hashes[MAX_KEYS];
 } scanner_t;
@@ -321,7 +326,17 @@ static void end_cell(scanner_t *s, Py_ssize_t end) {
     if (!s->back && s->field < s->width && s->rows < s->most) {
         const column_t *col = &s->columns[s->field];
         if (col->kind != SKIP) {
-            cell_t cell = judge_cell(col, s->bytes + s->cell_start, end - s->cell_start);
+            Py_ssize_t from = s->cell_start;
+            if (s->quote_open >= 0 && s->quote_close < 0) {
+                s->back = 1; /* a quote never closed (only at the end of the data) */
+                s->field++;
+                return;
+            }
+            if (s->quote_open >= 0) { /* a cell quoted whole: the text between the quotes */
+                from = s->quote_open + 1;
+                end = s->quote_close;
+            }
+            cell_t cell = judge_cell(col, s->bytes + from, end - from);
             s->bad[s->rows * s->variables + col->variable] = (unsigned char)!cell.clean;
             s->doubt |= !cell.clean;
             if (cell.good && col->table != NULL && s->first_good[col->variable] < 0) {
@@ -338,6 +353,7 @@ static void end_cell(scanner_t *s, Py_ssize_t end) {
         }
     }
     s->field++;
+    s->quote_open = s->quote_close = -1;
 }
 
 /* The line that ends at `end` (its line feed, or the end of the data) is done. */
@@ -382,25 +398,51 @@ static void end_line(scanner_t *s, Py_ssize_t end, Py_ssize_t next) {
     s->back = 0;
     s->doubt = 0;
     s->cr = -1;
+    s->quote_open = s->quote_close = -1;
 }
 
 static inline void event(scanner_t *s, Py_ssize_t at) {
     unsigned char c = s->bytes[at];
+    int quoted = s->quote_open >= 0 && s->quote_close < 0; /* inside a quoted cell */
     if (c == s->delimiter) {
+        if (quoted) {
+            return; /* part of the cell */
+        }
         if (s->cr >= 0) {
             s->back = 1;
         }
         end_cell(s, at);
         s->cell_start = at + 1;
     } else if (c == '\n') {
+        if (quoted) {
+            s->back = 1; /* a quote left open at the line end: the reader decides */
+            s->quote_open = s->quote_close = -1;
+        }
         end_line(s, at, at + 1);
     } else if (c == '\r') {
-        if (s->cr >= 0) {
+        if (s->cr >= 0 || quoted) {
             s->back = 1;
         }
         s->cr = at;
+    } else if (c == '"') {
+        if (s->quote_open < 0 && at == s->cell_start) {
+            s->quote_open = at;
+        } else if (quoted) {
+            /* It closes the cell only when the cell ends right after it; a doubled quote, or
+             * text after the closing one, is left to the reader. */
+            unsigned char next = at + 1 < s->end ? s->bytes[at + 1] : (unsigned char)s->delimiter;
+            if (next == s->delimiter || next == '\n' || next == '\r') {
+                s->quote_close = at;
+            } else {
+                s->back = 1;
+                s->quote_open = s->quote_close = -1;
+            }
+        } else {
+            s->back = 1; /* a quote inside an unquoted cell, or after a closing one */
+            s->quote_open = s->quote_close = -1;
+        }
     } else {
-        s->back = 1; /* a quote, or a byte the reader must check is UTF-8 */
+        s->back = 1; /* a byte the reader must check is UTF-8 */
     }
 }
 
@@ -591,8 +633,12 @@ static PyObject *judge(PyObject *self, PyObject *args) {
     for (int v = 0; v < variables; v++) {
         first_out[v] = -1;
     }
-    scanner_t scanner = {bytes, width, columns, keys, n_keys, variables, most, bad_out, flags_out,
-                         hash_out, start_out, first_out, (unsigned char)delimiter, 0, start, start, 0, 0, 0, -1, 0, {0}};
+    scanner_t scanner = {
+        .bytes = bytes, .width = width, .columns = columns, .keys = keys, .n_keys = n_keys,
+        .variables = variables, .most = most, .bad = bad_out, .flags = flags_out, .hashes = hash_out,
+        .starts = start_out, .first_good = first_out, .delimiter = (unsigned char)delimiter,
+        .line_start = start, .cell_start = start, .cr = -1, .end = end, .quote_open = -1, .quote_close = -1,
+    };
     Py_BEGIN_ALLOW_THREADS;
     scan_range(&scanner, start, end);
     Py_END_ALLOW_THREADS;

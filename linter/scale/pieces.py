@@ -10,6 +10,7 @@ piece while the current one is judged.
 
 from __future__ import annotations
 
+import contextlib
 import functools
 import hashlib
 import mmap
@@ -154,6 +155,19 @@ def _scanned(scanned: Future[None] | None, scan: LineScan | None) -> None:
         raise pa.ArrowInvalid("NUL bytes: the ordinary reader reports them")
 
 
+def _anonymous(size: int) -> mmap.mmap:
+    """Anonymous memory for a read buffer, in huge pages where the system gives them when asked:
+    a 16 MB block then costs eight page faults instead of four thousand (which, in a new
+    process, cost more than the SHA-256 of the block)."""
+    private = getattr(mmap, "MAP_PRIVATE", 0) | getattr(mmap, "MAP_ANONYMOUS", 0)
+    # Private, not Python's default shared mapping: shared memory gets no huge pages on Linux.
+    buffer = mmap.mmap(-1, size, flags=private) if private else mmap.mmap(-1, size)
+    if hasattr(mmap, "MADV_HUGEPAGE"):
+        with contextlib.suppress(OSError):
+            buffer.madvise(mmap.MADV_HUGEPAGE)
+    return buffer
+
+
 def line_blocks(
     path: str, block: int | None = None, scan: LineScan | None = None, ring: int = 1
 ) -> Iterator[Block]:
@@ -174,7 +188,7 @@ def line_blocks(
     with open(path, "rb") as handle, ThreadPoolExecutor(1, thread_name_prefix="weir-scan") as scanner:
         while True:
             if turn % ring == len(buffers):
-                buffers.append(mmap.mmap(-1, LONGEST_LINE_BYTES + block))
+                buffers.append(_anonymous(LONGEST_LINE_BYTES + block))
             buffer = buffers[turn % ring]
             view = memoryview(buffer)
             if carried is not None and have:  # the unfinished line of the last block starts this one

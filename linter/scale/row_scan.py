@@ -137,7 +137,7 @@ class LineVerdict:
     """uint8 per line: `FALLBACK` where the whole line must be parsed and judged by the numpy
     screen instead, `DOUBT` where some cell needs the engine, 0 where every cell passes."""
     hashes: np.ndarray
-    """uint64 key hash of each line (0 on fallback lines)."""
+    """uint64 key hash of each line (0 on fallback lines; unset when the contract has no key)."""
     starts: np.ndarray
     """int64 offset of each line in the data, and one more: where the last one ends."""
     first_good: np.ndarray
@@ -153,7 +153,7 @@ def _judge(data: Any, start: int, end: int, width: int, spec: ScanSpec) -> LineV
     variables = max(1, len(spec.variables))
     bad = np.empty((most, variables), np.uint8)
     flags = np.empty(most, np.uint8)
-    hashes = np.zeros(most, np.uint64)
+    hashes = np.empty(most, np.uint64)
     starts = np.empty(most + 1, np.int64)
     first_good = np.empty(variables, np.int64)
     try:

@@ -3,7 +3,9 @@ the engine's findings on hostile cells, with the scanner and without it."""
 
 from __future__ import annotations
 
+import csv
 import datetime
+import io
 import random
 
 import numpy as np
@@ -136,14 +138,16 @@ CELL = st.text(alphabet=st.sampled_from(list('0123456789.-+eE GNAtrufalsT\t,é"'
 
 
 @settings(max_examples=300, deadline=None)
-@given(st.lists(st.tuples(*[CELL] * 6), min_size=1, max_size=30))
-def test_the_scanner_passes_no_cell_the_numpy_screen_doubts(rows):
-    # Keep lines that Arrow reads as one record of six cells: no stray quote, no empty line.
-    lines = [",".join(r) for r in rows]
-    lines = [line for line in lines if '"' not in line and line and line.count(",") == 5]
-    if not lines:
-        return
-    spec, verdict, screened = judged(MIXED_HEADER + "\n" + "\n".join(lines) + "\n")
+@given(
+    st.lists(st.tuples(*[CELL] * 6), min_size=1, max_size=30),
+    st.sampled_from([csv.QUOTE_MINIMAL, csv.QUOTE_ALL]),
+)
+def test_the_scanner_passes_no_cell_the_numpy_screen_doubts(rows, quoting):
+    # Source: Python's csv module writes the lines, quoting as RFC 4180 §2 describes (cells with
+    # a delimiter or a quote quoted whole, inner quotes doubled; or every cell quoted).
+    out = io.StringIO()
+    csv.writer(out, quoting=quoting, lineterminator="\n").writerows(rows)
+    spec, verdict, screened = judged(MIXED_HEADER + "\n" + out.getvalue())
     scanned = verdict.flags != FALLBACK
     for column, name in enumerate(spec.variables):
         numpy_doubts = screened.cells[name]
@@ -201,6 +205,21 @@ def test_number_and_date_keys_are_read_as_python_reads_them():
 def test_lines_arrow_would_not_read_one_for_one_are_refused(body):
     with pytest.raises(pa.ArrowInvalid):
         judged(MIXED_HEADER + "\n" + body)
+
+
+def test_cells_quoted_whole_are_read_between_their_quotes():
+    body = (
+        '"G01","2026-03-02","1.5","1","true","a,b"\n'  # every cell quoted, a delimiter inside one
+        '"G02",2026-03-02,"",1,,""\n'  # empty quoted cells are null, as empty ones are
+        'G03,2026-03-02,1.5,1,true,"say ""hi"""\n'  # a doubled quote: left to Arrow
+        'G04,2026-03-02,1.5,1,true,a"b\n'  # a quote inside a cell: left to Arrow
+        '"G05"x,2026-03-02,1.5,1,true,ok\n'  # text after the closing quote: left to Arrow
+    )
+    _, verdict, screened = judged(MIXED_HEADER + "\n" + body)
+    assert list(verdict.flags) == [0, DOUBT, FALLBACK, FALLBACK, FALLBACK]
+    assert list(verdict.bad[1]) == [False, False, True, False, False, False]  # depth_m missing, as a key
+    keys = row_hashes(screened.keys)
+    assert verdict.hashes[0] == keys[0] and verdict.hashes[1] == keys[1]
 
 
 def test_the_last_line_may_lack_its_line_end():
