@@ -220,10 +220,22 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
         cell.keyed = 1;
         return cell;
     }
-    if (!untrimmed(p[0]) || !untrimmed(p[n - 1])) {
-        return cell; /* trimmed, it might be a missing-value code or read otherwise: the engine says */
+    /* The text as the engine trims it (for the missing-value codes, numbers and booleans): spaces
+     * and tabs are whitespace to every trimming function, printable ASCII never; any other byte
+     * at an end of what is left and the engine says. */
+    Py_ssize_t low = 0, high = n;
+    while (low < high && (p[low] == ' ' || p[low] == '\t')) {
+        low++;
     }
-    if (is_code(col->missing, col->n_missing, p, n)) {
+    while (high > low && (p[high - 1] == ' ' || p[high - 1] == '\t')) {
+        high--;
+    }
+    if (low < high && (!untrimmed(p[low]) || !untrimmed(p[high - 1]))) {
+        return cell;
+    }
+    const unsigned char *t = p + low;
+    Py_ssize_t tn = high - low;
+    if (is_code(col->missing, col->n_missing, t, tn)) {
         cell.clean = nullable;
         cell.keyed = 1;
         return cell;
@@ -233,10 +245,13 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
     case NUMBER:
     case INTEGER: {
         double value;
-        if (col->prefix_size && n >= col->prefix_size && memcmp(p, col->prefix, (size_t)col->prefix_size) == 0) {
+        if (tn == 0) {
             return cell;
         }
-        if (!plain_number(p, n, col->kind == INTEGER, &value)) {
+        if (col->prefix_size && tn >= col->prefix_size && memcmp(t, col->prefix, (size_t)col->prefix_size) == 0) {
+            return cell;
+        }
+        if (!plain_number(t, tn, col->kind == INTEGER, &value)) {
             return cell;
         }
         passes = value >= col->low && value <= col->high;
@@ -244,7 +259,7 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
         cell.hash = double_hash(value);
         break;
     }
-    case DATE: {
+    case DATE: { /* the agreed form is matched on the text as written, as the engine does */
         long long ns;
         if (!iso_date(p, n, &ns)) {
             return cell;
@@ -256,7 +271,7 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
     }
     case BOOLEAN: {
         int truth;
-        if (!boolean_word(p, n, &truth)) {
+        if (!boolean_word(t, tn, &truth)) {
             return cell;
         }
         passes = 1;
@@ -264,7 +279,7 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
         cell.hash = mix((uint64_t)truth);
         break;
     }
-    default: { /* TEXT */
+    default: { /* TEXT: codes, pattern and key are the text as written */
         passes = 1;
         if (col->n_codes >= 0) {
             passes = is_code(col->codes, col->n_codes, p, n);

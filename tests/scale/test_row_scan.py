@@ -222,6 +222,19 @@ def test_cells_quoted_whole_are_read_between_their_quotes():
     assert verdict.hashes[0] == keys[0] and verdict.hashes[1] == keys[1]
 
 
+def test_spaces_and_tabs_around_a_cell_are_trimmed_as_the_engine_trims_them():
+    body = (
+        "G01,2026-03-02, 1.5\t,1,true,ok\n"  # a number key read as 1.5: passes, as in numpy
+        "G02 ,2026-03-02,1.5,1, TRUE,ok\n"  # a text key is its text as written: 'G02 ' fails
+        "G03,2026-03-02,1.5, NA ,true,ok\n"  # a missing-value code with spaces: missing, allowed
+        "G04,2026-03-02,1.5,1,true,\x0bok\n"  # a vertical tab: the engine decides
+    )
+    _, verdict, screened = judged(MIXED_HEADER + "\n" + body)
+    assert list(verdict.flags) == [0, DOUBT, 0, DOUBT]
+    assert list(verdict.bad[1]) == [True, False, False, False, False, False]
+    assert np.array_equal(verdict.hashes, row_hashes(screened.keys))
+
+
 def test_the_last_line_may_lack_its_line_end():
     _, verdict, _ = judged(MIXED_HEADER + "\nG01,2026-03-02,1.5,1,true,ok\nG02,2026-03-02,1.5,1,true,")
     assert verdict.rows == 2 and list(verdict.flags) == [0, 0]
