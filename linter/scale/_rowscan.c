@@ -55,6 +55,12 @@ typedef struct {
 } code_t;
 
 typedef struct {
+    code_t codes[MAX_CODES];
+    int count;
+    uint64_t lengths; /* bit n set when a code is n bytes long (bit 63: 63 or more) */
+} code_list_t;
+
+typedef struct {
     int kind;
     int variable; /* index among the judged variables */
     int nullable;
@@ -62,13 +68,13 @@ typedef struct {
     long long low_ns, high_ns;
     const unsigned char *table; /* width * 256 bytes, 1 where a byte may stand there; or NULL */
     Py_ssize_t table_width;
-    code_t codes[MAX_CODES];
-    int n_codes; /* -1: no code list */
+    code_list_t codes;
+    int has_codes;
     const char *prefix;
     Py_ssize_t prefix_size;
-    code_t missing[MAX_CODES];
-    int n_missing;
+    code_list_t missing;
     int is_key;
+    int key_slot; /* where its hash goes among the key's, when it is a key column */
 } column_t;
 
 /* What judging one cell told. */
@@ -106,9 +112,12 @@ static uint64_t double_hash(double value) {
     return mix(bits);
 }
 
-static int is_code(const code_t *codes, int n_codes, const unsigned char *p, Py_ssize_t n) {
-    for (int i = 0; i < n_codes; i++) {
-        if (codes[i].size == n && memcmp(codes[i].text, p, (size_t)n) == 0) {
+static int is_code(const code_list_t *list, const unsigned char *p, Py_ssize_t n) {
+    if (!((list->lengths >> (n < 63 ? n : 63)) & 1)) {
+        return 0; /* no code is that long: most cells are told apart by their length alone */
+    }
+    for (int i = 0; i < list->count; i++) {
+        if (list->codes[i].size == n && memcmp(list->codes[i].text, p, (size_t)n) == 0) {
             return 1;
         }
     }
@@ -147,7 +156,7 @@ static int plain_number(const unsigned char *p, Py_ssize_t n, int integer, doubl
     if (count == 0 || count > SIGNIFICANT_DIGITS) {
         return 0;
     }
-    double magnitude = (double)digits / POWERS[after_dot];
+    double magnitude = after_dot ? (double)digits / POWERS[after_dot] : (double)digits;
     *value = negative ? -magnitude : magnitude;
     return 1;
 }
@@ -235,7 +244,7 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
     }
     const unsigned char *t = p + low;
     Py_ssize_t tn = high - low;
-    if (is_code(col->missing, col->n_missing, t, tn)) {
+    if (is_code(&col->missing, t, tn)) {
         cell.clean = nullable;
         cell.keyed = 1;
         return cell;
@@ -256,7 +265,7 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
         }
         passes = value >= col->low && value <= col->high;
         cell.keyed = 1;
-        cell.hash = double_hash(value);
+        cell.hash = col->is_key ? double_hash(value) : 0;
         break;
     }
     case DATE: { /* the agreed form is matched on the text as written, as the engine does */
@@ -266,7 +275,7 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
         }
         passes = ns >= col->low_ns && ns <= col->high_ns;
         cell.keyed = 1;
-        cell.hash = mix((uint64_t)ns);
+        cell.hash = col->is_key ? mix((uint64_t)ns) : 0;
         break;
     }
     case BOOLEAN: {
@@ -281,8 +290,8 @@ static cell_t judge_cell(const column_t *col, const unsigned char *p, Py_ssize_t
     }
     default: { /* TEXT: codes, pattern and key are the text as written */
         passes = 1;
-        if (col->n_codes >= 0) {
-            passes = is_code(col->codes, col->n_codes, p, n);
+        if (col->has_codes) {
+            passes = is_code(&col->codes, p, n);
         }
         if (passes && col->table != NULL) {
             if (n != col->table_width) {
@@ -312,7 +321,6 @@ typedef struct {
     const unsigned char *bytes;
     int width;
     const column_t *columns;
-    const int *keys;
     int n_keys;
     int variables;
     Py_ssize_t most;
@@ -359,11 +367,7 @@ static void end_cell(scanner_t *s, Py_ssize_t end) {
             }
             if (col->is_key) {
                 s->back |= !cell.keyed; /* the engine's own reading decides this key value */
-                for (int k = 0; k < s->n_keys; k++) {
-                    if (s->keys[k] == s->field) {
-                        s->key_hashes[k] = cell.hash;
-                    }
-                }
+                s->key_hashes[col->key_slot] = cell.hash;
             }
         }
     }
@@ -494,7 +498,7 @@ static void scan_range(scanner_t *s, Py_ssize_t start, Py_ssize_t end) {
     }
 }
 
-static int read_codes(PyObject *sequence, code_t *codes, int *count) {
+static int read_codes(PyObject *sequence, code_list_t *list) {
     PyObject *fast = PySequence_Fast(sequence, "codes must be a sequence of bytes");
     if (fast == NULL) {
         return -1;
@@ -513,10 +517,11 @@ static int read_codes(PyObject *sequence, code_t *codes, int *count) {
             Py_DECREF(fast);
             return -1;
         }
-        codes[i].text = text; /* the bytes live in the caller's tuple for the whole call */
-        codes[i].size = length;
+        list->codes[i].text = text; /* the bytes live in the caller's tuple for the whole call */
+        list->codes[i].size = length;
+        list->lengths |= 1ULL << (length < 63 ? length : 63);
     }
-    *count = (int)size;
+    list->count = (int)size;
     Py_DECREF(fast);
     return 0;
 }
@@ -528,10 +533,9 @@ static int read_column(PyObject *spec, column_t *col) {
                           &col->low_ns, &col->high_ns, &table, &codes, &prefix, &missing)) {
         return -1;
     }
-    if (read_codes(missing, col->missing, &col->n_missing) < 0) {
+    if (read_codes(missing, &col->missing) < 0) {
         return -1;
     }
-    col->n_codes = -1;
     if (table != Py_None) {
         char *bytes;
         Py_ssize_t size;
@@ -541,7 +545,8 @@ static int read_column(PyObject *spec, column_t *col) {
         col->table = (const unsigned char *)bytes;
         col->table_width = size / 256;
     }
-    if (codes != Py_None && read_codes(codes, col->codes, &col->n_codes) < 0) {
+    col->has_codes = codes != Py_None;
+    if (col->has_codes && read_codes(codes, &col->codes) < 0) {
         return -1;
     }
     if (prefix != Py_None) {
@@ -592,7 +597,7 @@ static PyObject *judge(PyObject *self, PyObject *args) {
         return PyErr_NoMemory();
     }
     PyObject *result = NULL;
-    int keys[MAX_KEYS], n_keys = 0, variables = 0;
+    int n_keys = 0, variables = 0;
     for (int i = 0; i < width; i++) {
         PyObject *spec = PySequence_GetItem(columns_spec, i);
         int failed = spec == NULL || read_column(spec, &columns[i]) < 0;
@@ -613,13 +618,13 @@ static PyObject *judge(PyObject *self, PyObject *args) {
         PyObject *item = PySequence_GetItem(keys_spec, i);
         long index = item == NULL ? -1 : PyLong_AsLong(item);
         Py_XDECREF(item);
-        if (index < 0 || index >= width || columns[index].kind == SKIP) {
+        if (index < 0 || index >= width || columns[index].kind == SKIP || columns[index].is_key) {
             if (!PyErr_Occurred()) {
-                PyErr_SetString(PyExc_ValueError, "a key column that is not judged");
+                PyErr_SetString(PyExc_ValueError, "a key column that is not judged, or named twice");
             }
             goto free_columns;
         }
-        keys[n_keys++] = (int)index;
+        columns[index].key_slot = n_keys++;
         columns[index].is_key = 1;
     }
 
@@ -649,7 +654,7 @@ static PyObject *judge(PyObject *self, PyObject *args) {
         first_out[v] = -1;
     }
     scanner_t scanner = {
-        .bytes = bytes, .width = width, .columns = columns, .keys = keys, .n_keys = n_keys,
+        .bytes = bytes, .width = width, .columns = columns, .n_keys = n_keys,
         .variables = variables, .most = most, .bad = bad_out, .flags = flags_out, .hashes = hash_out,
         .starts = start_out, .first_good = first_out, .delimiter = (unsigned char)delimiter,
         .line_start = start, .cell_start = start, .cr = -1, .end = end, .quote_open = -1, .quote_close = -1,
