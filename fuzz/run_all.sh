@@ -9,10 +9,11 @@ PY="${PY:-.venv/bin/python}"
 WORK="$(mktemp -d)"
 trap 'rm -rf "$WORK"' EXIT
 status=0
-for target in text workbook contract; do
+for target in text workbook contract scan; do
   mkdir -p "$WORK/$target"
   seeds=(tests/reference/adversarial/files)
   [ "$target" = contract ] && seeds=(contracts tests/reference/adversarial/files)
+  [ "$target" = scan ] && seeds=(fuzz/seeds tests/reference/adversarial/files)
   echo "== fuzz_$target (${SECONDS_EACH}s)"
   if ! PYTHONPATH="fuzz${PYTHONPATH:+:$PYTHONPATH}" "$PY" "fuzz/fuzz_$target.py" \
       -max_total_time="$SECONDS_EACH" -timeout=20 -rss_limit_mb=3072 -max_len=65536 \

@@ -250,20 +250,24 @@ def read_ahead(items: Iterator[T], depth: int = 1) -> Iterator[T]:
     queue: Queue[tuple[bool, Any]] = Queue(maxsize=depth)
     stop = threading.Event()
 
+    def offer(entry: tuple[bool, Any]) -> bool:
+        """Queue the entry unless the consumer has stopped (then it never takes another one)."""
+        while not stop.is_set():
+            try:
+                queue.put(entry, timeout=0.1)
+                return True
+            except Full:
+                continue
+        return False
+
     def produce() -> None:
         try:
             for item in items:
-                while not stop.is_set():
-                    try:
-                        queue.put((True, item), timeout=0.1)
-                        break
-                    except Full:
-                        continue
-                if stop.is_set():
+                if not offer((True, item)):
                     return
-            queue.put((False, None))
+            offer((False, None))
         except BaseException as error:  # handed to the consumer, which raises it
-            queue.put((False, error))
+            offer((False, error))
 
     worker = threading.Thread(target=produce, name="weir-read-ahead", daemon=True)
     worker.start()

@@ -2,6 +2,9 @@
 
 from __future__ import annotations
 
+import threading
+import time
+
 import numpy as np
 import pandas as pd
 import pyarrow as pa
@@ -179,6 +182,37 @@ def test_read_ahead_keeps_order_raises_in_order_and_stops_with_its_consumer():
     assert next(ahead) == 0
     ahead.close()  # the consumer stops: the producer thread must end, not block forever
     assert len(produced) <= 4
+
+
+@pytest.mark.parametrize("last", ["end", "error"])
+def test_read_ahead_stops_when_its_consumer_stops_after_the_producer_is_done(last):
+    # The producer has queued its items and waits to hand over its end (or its error) when the
+    # consumer gives up: closing must not wait for a hand-over that never comes.
+    def short():
+        yield from (1, 2, 3)
+        if last == "error":
+            raise ValueError("after the end")
+
+    ahead = pieces.read_ahead(short(), depth=1)
+    assert [next(ahead), next(ahead)] == [1, 2]
+    time.sleep(0.3)  # the producer queues its last item and blocks on its end (or error)
+    closing = threading.Thread(target=ahead.close, daemon=True)
+    closing.start()
+    closing.join(5)  # it used to wait forever here
+    assert not closing.is_alive()
+
+
+def test_a_ragged_line_the_scanner_refuses_leaves_the_file_to_the_ordinary_reader(tmp_path, contract_file):
+    # The scanner raises on the ragged line, near the end of the file, while the reader thread
+    # still has blocks (or its end) to hand over: the pass stops and says so.
+    lines = [f"S{n:07d},VB-001,2026-03-02,NITRATE,1.5,1,,HERON" for n in range(3000)]
+    lines[2998] += ",extra"  # in the last block: the reader has nothing left but its end to hand over
+    path = tmp_path / "results-2026-09.csv"
+    path.write_text(HEADER + "\n" + "\n".join(lines) + "\n", encoding="utf-8")
+    contract = load_contract(str(contract_file)).tables[0]
+    with pytest.MonkeyPatch.context() as patch:
+        patch.setattr(pieces, "BATCH_BYTES", 4096)
+        assert fast_path.read_screened(str(path), contract, 0, 3) is None
 
 
 def test_spilled_hashes_land_in_the_partition_of_their_top_bits_and_are_all_found(tmp_path):
