@@ -22,7 +22,10 @@
  *               line that is not a fallback
  *   starts      int64 [rows + 1], where each line starts in data (and where the last one ends)
  *   first_good  int64 [variables], the first line whose cell passes and is not missing, or -1
- * Raises ValueError on an empty line or a line without quotes whose field count is not width.
+ * Raises ValueError on an empty line, or on a line it does not hand back whose field count is
+ * not width (or on more lines than lines of that width could make).
+ *
+ * sorted_high_halves(hashes, out): the upper halves of the uint64 hashes, radix-sorted into out.
  */
 #define PY_SSIZE_T_CLEAN
 #include <Python.h>

@@ -3,10 +3,11 @@
 `linter/scale/_rowscan.c` splits each line at its delimiters and judges every cell of a
 contract variable in one pass: the same judgement as the numpy screen (`screen.py`), and like it
 stricter than the engine, with no Arrow parse of the clean lines at all. A line it cannot split
-for certain (a quote, a byte outside ASCII, a stray carriage return) or whose key it cannot type
-comes back as a fallback: `screen_lines` parses those lines with Arrow and judges them with the
-numpy screen, so every line gets the numpy screen's answer or a stricter one. Key hashes agree
-with `key_hash.row_hashes` bit for bit, so duplicates are found across both kinds of line.
+for certain (a doubled or stray quote, a byte outside ASCII, a stray carriage return) or whose
+key it cannot type comes back as a fallback: `stream._line_screen` parses those lines with Arrow
+(`parse_lines`) and judges them with the numpy screen, so every line gets the numpy screen's
+answer or a stricter one. Key hashes agree with `key_hash.row_hashes` bit for bit, so duplicates
+are found across both kinds of line.
 
 The scanner is built when Weir is installed (a C compiler is needed); where it is missing, or a
 contract asks for what it does not judge (a pattern that is not fixed-width, more than 64 codes),
