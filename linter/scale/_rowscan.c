@@ -29,7 +29,6 @@
  */
 #define PY_SSIZE_T_CLEAN
 #include <Python.h>
-#include <math.h>
 #include <stdint.h>
 #include <string.h>
 #ifdef __SSE2__

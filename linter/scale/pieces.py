@@ -219,6 +219,12 @@ def line_blocks(
                 return
 
 
+def parse_text(data: Any, start: int, end: int, options: tuple[Any, Any, Any]) -> pa.Table:
+    """`data[start:end]` (whole lines) parsed by Arrow with `text_options`, without copying it
+    first; Arrow copies the cells into its own arrays, so the buffer may be reused after."""
+    return pacsv.read_csv(pa.BufferReader(pa.py_buffer(memoryview(data)[start:end])), *options)
+
+
 def text_batches(
     path: str, delimiter: str, width: int, block: int | None = None, scan: LineScan | None = None
 ) -> Iterator[Piece]:
@@ -231,8 +237,7 @@ def text_batches(
     options = text_options(delimiter, width)
     line = 0
     for lines in line_blocks(path, block, scan):
-        # Arrow copies the cells into its own arrays, so the buffer may be reused after.
-        table = pacsv.read_csv(pa.BufferReader(pa.py_buffer(memoryview(lines.data)[: lines.size])), *options)
+        table = parse_text(lines.data, 0, lines.size, options)
         lines.checked()
         yield Piece(table, Span(lines.offset, lines.size, line, table.num_rows))
         line += table.num_rows

@@ -28,7 +28,7 @@ import pyarrow.csv as pacsv
 from linter.contract.model import TableContract, Variable, VarType
 from linter.scale.key_hash import high_halves
 from linter.scale.patterns import position_tables
-from linter.scale.screen import ns_bound
+from linter.scale.screen import missing_codes, ns_bound
 
 try:
     from linter.scale import _rowscan  # type: ignore[attr-defined]
@@ -51,8 +51,9 @@ FALLBACK, DOUBT = 1, 2
 """A line's flags (see `LineVerdict.flags`)."""
 NOT_JUDGED: tuple[Any, ...] = (0, 0, 0, 0.0, 0.0, 0, 0, None, None, None, ())
 FALLBACK_SHARE = 8
-"""When more than one line in this many is a fallback (a file that quotes every cell, say), the
-whole piece is parsed by Arrow instead: one parse of everything costs less than cutting lines."""
+"""When more than one line in this many is a fallback (a file written with text beyond ASCII on
+most lines, say), the whole piece is parsed by Arrow instead: one parse of everything costs less
+than cutting lines."""
 
 
 @dataclass(frozen=True)
@@ -93,7 +94,7 @@ def _column_spec(variable: Variable, index: int, contract: TableContract) -> tup
             return None  # a pattern that is not fixed-width: the regex engine judges it
         table = fixed.astype(np.uint8).tobytes()
     codes = None if variable.codes is None else tuple(c.encode("utf-8") for c in variable.codes.values)
-    missing = tuple(sorted({c.strip().encode("utf-8") for c in (*contract.missing, *variable.missing)}))
+    missing = tuple(c.encode("utf-8") for c in missing_codes(variable, contract))
     bounds = _bounds(variable)
     if bounds is None or len(missing) > MOST_CODES or (codes is not None and len(codes) > MOST_CODES):
         return None

@@ -292,9 +292,15 @@ def _missing_among(text: pa.ChunkedArray, codes: Sequence[str], rows: np.ndarray
     return missing
 
 
+def missing_codes(variable: Variable, contract: TableContract) -> tuple[str, ...]:
+    """The variable's missing-value codes (the contract's and its own), stripped as a cell is
+    stripped before it is compared with them."""
+    return tuple(sorted({c.strip() for c in (*contract.missing, *variable.missing)}))
+
+
 def _judged(text: pa.ChunkedArray, variable: Variable, contract: TableContract) -> Judged:
     """One column judged: clean where the engine would find nothing in the cell."""
-    codes = tuple(contract.missing) + tuple(variable.missing)
+    codes = missing_codes(variable, contract)
     trimmed = (
         trimmed_text(text) if variable.type in (VarType.NUMBER, VarType.INTEGER, VarType.BOOLEAN) else text
     )

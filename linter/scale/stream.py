@@ -33,6 +33,7 @@ from linter.scale.pieces import (
     LineScan,
     Span,
     line_blocks,
+    parse_text,
     read_ahead,
     text_batches,
     text_options,
@@ -152,9 +153,7 @@ def _line_screen(
     verdict = judge_lines(block.data, begin, block.size, width, spec, worker_pool())
     back = np.flatnonzero(verdict.flags == FALLBACK)
     if len(back) * FALLBACK_SHARE > verdict.rows:
-        body = pacsv.read_csv(
-            pa.BufferReader(pa.py_buffer(memoryview(block.data)[begin : block.size])), *options
-        )
+        body = parse_text(block.data, begin, block.size, options)
         if body.num_rows != verdict.rows:
             raise pa.ArrowInvalid("lines that Arrow reads as more or fewer records")
         return _table_screen(body.rename_columns(labels), contract)
