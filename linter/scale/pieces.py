@@ -219,10 +219,20 @@ def line_blocks(
                 return
 
 
+UTF8_BOM = b"\xef\xbb\xbf"
+
+
 def parse_text(data: Any, start: int, end: int, options: tuple[Any, Any, Any]) -> pa.Table:
-    """`data[start:end]` (whole lines) parsed by Arrow with `text_options`, without copying it
-    first; Arrow copies the cells into its own arrays, so the buffer may be reused after."""
-    return pacsv.read_csv(pa.BufferReader(pa.py_buffer(memoryview(data)[start:end])), *options)
+    """`data[start:end]` (whole lines of the file) parsed by Arrow with `text_options`, without
+    copying it first; Arrow copies the cells into its own arrays, so the buffer may be reused.
+
+    Arrow drops a byte order mark at the start of what it reads. Past the file's first line such
+    bytes are part of a cell (the fast path never takes a file that starts with one), so a range
+    that starts with them is read after an empty line, which Arrow skips."""
+    view = memoryview(data)[start:end]
+    if bytes(view[:3]) == UTF8_BOM:
+        return pacsv.read_csv(pa.BufferReader(b"\n" + bytes(view)), *options)
+    return pacsv.read_csv(pa.BufferReader(pa.py_buffer(view)), *options)
 
 
 def text_batches(

@@ -23,11 +23,11 @@ from typing import Any
 
 import numpy as np
 import pyarrow as pa
-import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract, Variable, VarType
 from linter.scale.key_hash import high_halves
 from linter.scale.patterns import position_tables
+from linter.scale.pieces import parse_text
 from linter.scale.screen import missing_codes, ns_bound
 
 try:
@@ -206,7 +206,7 @@ def parse_lines(
         chosen += b"\n"  # the file's last line has no line end
     if not chosen:
         return pa.table({label: pa.array([], pa.string()) for label in labels})
-    table = pacsv.read_csv(pa.BufferReader(chosen), *options)
+    table = parse_text(chosen, 0, len(chosen), options)
     if table.num_rows != len(lines):
         raise pa.ArrowInvalid("lines that Arrow reads as more or fewer records")
     return table.rename_columns(labels)

@@ -350,7 +350,7 @@ class Rows:
                 chosen = b"".join(data[starts[i] : ends[i] + 1] for i in wanted)
                 if not chosen.endswith(b"\n"):
                     chosen += b"\n"
-                found.append(pacsv.read_csv(pa.BufferReader(chosen), *options).rename_columns(self.labels))
+                found.append(parse_text(chosen, 0, len(chosen), options).rename_columns(self.labels))
         return pa.concat_tables(found)
 
 

@@ -19,7 +19,7 @@ from scale_lab_data import CONTRACT, HEADER, csv_text, lab_rows
 from linter.check import check_paths
 from linter.contract.load import contract_from_tree, load_contract
 from linter.contract.yaml_tree import parse_yaml
-from linter.scale import fast_path, row_scan
+from linter.scale import fast_path, pieces, row_scan
 from linter.scale.key_hash import row_hashes
 from linter.scale.pieces import text_options
 from linter.scale.row_scan import DOUBT, FALLBACK, judge_lines, scan_spec, sorted_high_halves
@@ -264,3 +264,22 @@ def test_many_short_quoted_lines_are_refused_without_overrunning_the_answer():
     # lines of the full width could make: the scanner must stop, not write past its arrays.
     with pytest.raises(pa.ArrowInvalid):
         judged(MIXED_HEADER + "\n" + ',"\n' * 5000)
+
+
+@pytest.mark.parametrize("scanner", [True, False])
+def test_a_line_starting_with_a_byte_order_mark_keeps_it_as_text(
+    tmp_path, contract_file, monkeypatch, scanner
+):
+    # Found by fuzz/fuzz_scan.py: Arrow drops a byte order mark at the start of what it reads, so
+    # a line cut out to be parsed on its own (a handed-back line, a kept line, a piece) lost it,
+    # and its key became empty, shared with every other empty key.
+    rows = lab_rows(400, seed=13)
+    for at in (3, 150, 151):
+        rows[at][0] = "\ufeff" + rows[at][0]  # invisible, but part of the sample id
+    rows[200] = list(rows[150])  # the same key, mark and all
+    path = tmp_path / "results-2026-10.csv"
+    path.write_text(csv_text(rows), encoding="utf-8")
+    expected = findings(path, contract_file)
+    assert {"keys.duplicate", "values.pattern-mismatch"} <= {f.rule for f in expected}
+    monkeypatch.setattr(pieces, "BATCH_BYTES", 4096)  # so that such lines also start pieces
+    assert fast(path, contract_file, monkeypatch, scanner) == expected
