@@ -22,6 +22,7 @@ from linter.scale import fast_path
 from linter.scale.fast_path import ScreenedFile, plain_file, screened_table
 from linter.scale.pieces import scan_lines
 from linter.scale.screen import screen_batch, unscreenable
+from linter.scale.sorted_sets import union
 from linter.scale.stream import StreamResult
 from linter.table import unique_labels
 
@@ -101,13 +102,13 @@ def screen_with_dask(
     sample = min(sample_rows, sum(lengths) - 1)
     to_judge = _positions_to_judge(judged, contract, labels)
     first_good = _first_good(judged)
-    keep = np.union1d(np.union1d(np.arange(sample), to_judge), list(first_good.values())).astype(np.int64)
+    keep = union([np.arange(sample), to_judge, list(first_good.values())])
     kept = _rows_at(frame, keep, starts, labels)
     suspect = int(judged["\x00suspect"].sum().compute())
     found = StreamResult(
         names_written,
         kept,
-        tuple(int(p) for p in keep),
+        keep,
         sum(lengths) - 1,
         suspect,
         sample,
@@ -147,7 +148,7 @@ def _positions_to_judge(judged: Any, contract: TableContract, labels: list[str])
             .merge(repeated.fillna("\x00empty"), on=keys, how="inner", shuffle_method="tasks")
         )
         shared = marked[POSITION].compute().to_numpy()
-    return np.union1d(suspects, shared).astype(np.int64)
+    return union([suspects, shared])
 
 
 def _rows_at(frame: Any, positions: np.ndarray, starts: list[int], labels: list[str]) -> pa.Table:

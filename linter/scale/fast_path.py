@@ -10,10 +10,9 @@ bytes that are not UTF-8) returns None and the file takes the ordinary reader in
 from __future__ import annotations
 
 import csv
-import functools
 import io
 import os
-from collections.abc import Callable, Collection, Iterable
+from collections.abc import Callable, Collection
 from dataclasses import dataclass
 from pathlib import PurePath
 
@@ -26,6 +25,7 @@ from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
 from linter.scale.memory import reuse_freed_memory
 from linter.scale.pieces import LineScan
 from linter.scale.screen import unscreenable
+from linter.scale.sorted_sets import union
 from linter.scale.spill import KEYS_IN_MEMORY_BYTES
 from linter.scale.stream import StreamResult, screen_stream
 from linter.table import Table
@@ -137,7 +137,7 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
     column's first good cell, because a pattern finding quotes the column's first good value as
     an example, as it does on the ordinary reader.
     """
-    positions = np.asarray(found.positions, np.int64)
+    positions = found.positions
     sample = np.flatnonzero(positions < found.sample)
     patterned = {v.name for v in rules.variables if v.pattern is not None}
 
@@ -146,7 +146,7 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
         if not patterned.intersection(columns):
             return rows
         firsts = [found.first_good[c] for c in columns if c in found.first_good]
-        return np.union1d(np.union1d(sample, rows), np.searchsorted(positions, firsts))
+        return union([sample, rows, np.searchsorted(positions, firsts)])
 
     def read_by(columns: tuple[str, ...]) -> set[int]:
         """Positions of the columns the row-wise rules of a part read: its own, and the key
@@ -170,19 +170,15 @@ def parts_to_judge(found: StreamResult, rules: TableContract) -> list[tuple[tupl
     """(columns, sorted body positions) of every part with anything to judge."""
     if found.cells is None:  # only whole rows are known: every column on every kept row
         every = tuple(v.name for v in rules.variables)
-        return [(every, np.asarray(found.positions, np.int64))] if found.judged else []
+        return [(every, found.positions)] if found.judged else []
     keys = tuple(k for k in rules.keys if k in found.cells)
-    found_parts = [(keys, np.union1d(found.shared, _union(found.cells[k] for k in keys)))] if keys else []
+    found_parts = [(keys, union([found.shared, *(found.cells[k] for k in keys)]))] if keys else []
     found_parts += [
         ((v.name,), found.cells[v.name])
         for v in rules.variables
         if v.name in found.cells and v.name not in rules.keys
     ]
     return [(columns, judged) for columns, judged in found_parts if len(judged)]
-
-
-def _union(parts: Iterable[np.ndarray]) -> np.ndarray:
-    return functools.reduce(np.union1d, parts, np.array([], np.int64))
 
 
 def _table_of(

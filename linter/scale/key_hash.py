@@ -19,6 +19,7 @@ import pyarrow as pa
 import pyarrow.compute as pc
 
 from linter.scale.cell_bytes import plain_integers
+from linter.scale.sorted_sets import distinct
 
 NULL_HASH = np.uint64(0x9E3779B97F4A7C15)
 """What a null cell hashes to (an odd constant; a value that happens to hash alike is verified away)."""
@@ -191,7 +192,7 @@ def _members(values: np.ndarray, sorted_set: np.ndarray) -> np.ndarray:
 def repeats_of(ordered: np.ndarray) -> np.ndarray:
     """The distinct values that occur more than once in sorted `ordered`, sorted."""
     twice = ordered[1:] == ordered[:-1]
-    return np.unique(ordered[1:][twice]) if twice.any() else ordered[:0]
+    return distinct(ordered[1:][twice]) if twice.any() else ordered[:0]
 
 
 def members_of(values: np.ndarray, repeats: np.ndarray) -> np.ndarray:

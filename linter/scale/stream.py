@@ -49,6 +49,7 @@ from linter.scale.row_scan import (
     sorted_high_halves,
 )
 from linter.scale.screen import screen_batch, worker_pool
+from linter.scale.sorted_sets import difference, union
 from linter.scale.spill import HashSpill, spill_partitions
 from linter.table import unique_labels
 
@@ -63,8 +64,8 @@ class StreamResult:
     names: tuple[str, ...]
     kept: pa.Table
     """Header-less rows to show the engine (sample, suspects, duplicate keys), in file order."""
-    positions: tuple[int, ...]
-    """0-based body position of each kept row."""
+    positions: np.ndarray
+    """0-based body position of each kept row (int64, ascending)."""
     rows: int
     suspect: int
     sample: int
@@ -165,7 +166,7 @@ def _line_screen(
     suspect = np.flatnonzero(verdict.flags == DOUBT)
     if len(back):
         screened = screen_batch(parse_lines(block.data, verdict.starts, back, options, labels), contract)
-        suspect = np.union1d(suspect, back[screened.suspect.to_numpy(zero_copy_only=False)])
+        suspect = union([suspect, back[screened.suspect.to_numpy(zero_copy_only=False)]])
         for column, name in enumerate(spec.variables):
             bad[back, column] = screened.cells[name]
         if screened.keys.num_columns:
@@ -253,7 +254,7 @@ def screen_stream(
             firsts = {name: at for name, at in screened.good.items() if name not in first_good}
             for name, at in firsts.items():
                 first_good[name] = start + at
-            chosen = np.union1d(np.union1d(sample, screened.suspect), list(firsts.values())).astype(np.int64)
+            chosen = union([sample, screened.suspect, list(firsts.values())])
             if len(chosen):
                 kept.append(screened.take(chosen))
                 kept_positions.append(chosen + start)
@@ -274,18 +275,18 @@ def screen_stream(
         first_pass = pa.concat_tables(kept) if kept else _no_rows(labels)
         found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
         duplicate = _exact_duplicates(key_parts, high_runs, spill, contract, found_rows)
-    extra = np.setdiff1d(duplicate.positions, positions)
+    extra = difference(duplicate.positions, positions)
     extra_rows = duplicate.rows.take(pa.array(np.searchsorted(duplicate.positions, extra), pa.int64()))
     merged = pa.concat_tables([first_pass, extra_rows])
     every = np.concatenate([positions, extra]).astype(np.int64)
     order = np.argsort(every, kind="stable")
     ordered = every[order]
     suspects = np.concatenate([*suspect_parts, np.array([], np.int64)])
-    judged = len(np.union1d(suspects, duplicate.positions))
+    judged = len(union([suspects, duplicate.positions]))
     return StreamResult(
         names,
         _take(merged, order),
-        tuple(int(p) for p in ordered),
+        ordered,
         start,
         len(suspects),
         min(sample_rows, start),
