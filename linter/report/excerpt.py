@@ -2,8 +2,10 @@
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Mapping, Sequence
+from collections.abc import Iterable, Sequence
 from dataclasses import replace
+
+import pandas as pd
 
 from linter.findings import Excerpt, ExcerptRow, Finding
 from linter.table import Frame, column_letter
@@ -32,21 +34,8 @@ def _text(value: object) -> str | None:
     return value if isinstance(value, str) else None
 
 
-def row_positions(frame: Frame) -> dict[int, int]:
-    """Provider row number -> position in the frame's body."""
-    return {row: i for i, row in enumerate(frame.rows)}
-
-
-def excerpt_for(
-    finding: Finding,
-    frame: Frame,
-    max_rows: int,
-    keys: Sequence[str] = (),
-    body_index: Mapping[int, int] | None = None,
-) -> Excerpt | None:
-    """The excerpt of `finding` in `frame`, or None when it names no body row or no column of it.
-
-    `body_index` maps provider row numbers to body positions (built here when not given)."""
+def excerpt_for(finding: Finding, frame: Frame, max_rows: int, keys: Sequence[str] = ()) -> Excerpt | None:
+    """The excerpt of `finding` in `frame`, or None when it names no body row or no column of it."""
     if max_rows <= 0 or not finding.place.rows or finding.place.file != frame.table.source:
         return None
     if (finding.place.sheet or None) != (frame.table.sheet or None):
@@ -56,13 +45,14 @@ def excerpt_for(
         return None
     key_positions = [frame.labels.index(k) for k in keys if k in frame.labels]
     shown = sorted(set(marked) | set(key_positions))
-    if body_index is None:
-        body_index = row_positions(frame)
+    # Body positions of the listed rows (a finding lists a few dozen at most), -1 for a row
+    # without body cells, such as the header row.
+    at = frame.row_index.get_indexer(pd.Index(finding.place.rows, dtype="int64")).tolist()
     rows: list[ExcerptRow] = []
-    for row in finding.place.rows:
-        if row not in body_index:
-            continue  # e.g. the header row: it has no body cells to show
-        values = frame.body.iloc[body_index[row]].tolist()
+    for row, position in zip(finding.place.rows, at, strict=True):
+        if position < 0:
+            continue
+        values = frame.body.iloc[position].tolist()
         rows.append(
             ExcerptRow(
                 row=row,
@@ -91,10 +81,9 @@ def attach_excerpts(
     excerpt keep it.
     """
     attached: list[Finding] = []
-    body_index = row_positions(frame)
     for finding in findings:
         if finding.excerpt is None:
-            excerpt = excerpt_for(finding, frame, max_rows, keys, body_index)
+            excerpt = excerpt_for(finding, frame, max_rows, keys)
             if excerpt is not None:
                 finding = replace(finding, excerpt=excerpt)
         attached.append(finding)

@@ -9,7 +9,8 @@ import numpy as np
 import pandas as pd
 
 from linter.contract.engine import CheckedTable, checked
-from linter.findings import Finding, Place, Severity, listed_rows
+from linter.findings import MAX_ROWS_LISTED, Finding, Place, Severity, listed_rows
+from linter.row_sets import as_rows, union
 from linter.rules.registry import RULES
 from linter.rules.subject import Subject
 from linter.table import column_letter
@@ -24,14 +25,15 @@ def engine_result(subject: Subject) -> CheckedTable | None:
     return checked(subject.contract, subject.frame)
 
 
-def place_of(subject: Subject, columns: Sequence[str], rows: Iterable[int] = ()) -> Place:
+def place_of(subject: Subject, columns: Sequence[str], rows: Iterable[int] | np.ndarray = ()) -> Place:
     """The file, sheet, listed provider rows, and the named columns with their letters."""
     labels = subject.frame.labels
     present = [c for c in columns if c in labels]
     return Place(
         file=subject.table.source,
         sheet=subject.table.sheet,
-        rows=listed_rows(list(rows)),
+        # Sorted and distinct in numpy first: a column finding may name thousands of rows.
+        rows=listed_rows(union([rows])[:MAX_ROWS_LISTED].tolist()),
         columns=tuple(present),
         letters=tuple(subject.frame.letter(c) for c in present),
     )
@@ -49,8 +51,8 @@ def header_place(subject: Subject, indexes: Sequence[int]) -> Place:
     )
 
 
-def _cells_at(subject: Subject, column: str, rows: Iterable[int]) -> pd.Series:
-    positions = subject.frame.row_index.get_indexer(pd.Index(np.fromiter(rows, dtype=np.int64)))
+def _cells_at(subject: Subject, column: str, rows: Iterable[int] | np.ndarray) -> pd.Series:
+    positions = subject.frame.row_index.get_indexer(pd.Index(as_rows(rows)))
     return subject.frame.body[column].iloc[positions]
 
 
@@ -59,12 +61,12 @@ def _as_written(cells: pd.Series) -> list[str]:
     return ["" if cell is None or cell != cell else str(cell) for cell in cells.tolist()]
 
 
-def written(subject: Subject, column: str, rows: Iterable[int]) -> list[str]:
+def written(subject: Subject, column: str, rows: Iterable[int] | np.ndarray) -> list[str]:
     """The cells of `column` at provider `rows` exactly as written ('' for an empty cell)."""
     return _as_written(_cells_at(subject, column, rows))
 
 
-def written_examples(subject: Subject, column: str, rows: Sequence[int]) -> tuple[str, ...]:
+def written_examples(subject: Subject, column: str, rows: Sequence[int] | np.ndarray) -> tuple[str, ...]:
     """`examples_from` the cells of `column` at `rows` (in that order), read only as far as needed:
     a failing column often holds thousands of cells and a handful of distinct values."""
     # First appearances in order; None and NaN drop as one, and '' is the only text an empty cell
@@ -92,7 +94,7 @@ def column_finding(
     subject: Subject,
     rule: str,
     column: str,
-    rows: Sequence[int],
+    rows: Sequence[int] | np.ndarray,
     message: str,
     fix: str,
     *,
@@ -100,14 +102,14 @@ def column_finding(
     evidence: Mapping[str, Any] | None = None,
 ) -> Finding:
     """One finding for (rule, column): count, examples as written, listed rows and the column letter."""
-    rows = sorted(rows)
+    ordered = np.sort(as_rows(rows), kind="stable")
     return Finding(
         rule=rule,
         severity=severity or RULES[rule].severity,
         message=message,
-        place=place_of(subject, [column], rows),
-        count=len(rows),
-        examples=written_examples(subject, column, rows),
+        place=place_of(subject, [column], ordered),
+        count=len(ordered),
+        examples=written_examples(subject, column, ordered),
         fix=fix,
         evidence=dict(evidence or {}),
     )

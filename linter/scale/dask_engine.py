@@ -18,11 +18,11 @@ import pyarrow as pa
 
 from linter.contract.model import TableContract
 from linter.errors import WeirError
+from linter.row_sets import union
 from linter.scale import fast_path
 from linter.scale.fast_path import ScreenedFile, plain_file, screened_table
 from linter.scale.pieces import scan_lines
 from linter.scale.screen import screen_batch, unscreenable
-from linter.scale.sorted_sets import union
 from linter.scale.stream import StreamResult
 from linter.table import unique_labels
 

@@ -22,10 +22,10 @@ import pyarrow as pa
 
 from linter.contract.model import TableContract
 from linter.read.delimited import SAMPLE_CHARS, SEPARATOR_HINT, choose_delimiter
+from linter.row_sets import union
 from linter.scale.memory import reuse_freed_memory
 from linter.scale.pieces import LineScan
 from linter.scale.screen import unscreenable
-from linter.scale.sorted_sets import union
 from linter.scale.spill import KEYS_IN_MEMORY_BYTES
 from linter.scale.stream import StreamResult, screen_stream
 from linter.table import Table

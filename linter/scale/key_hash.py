@@ -18,8 +18,8 @@ import pandas as pd
 import pyarrow as pa
 import pyarrow.compute as pc
 
+from linter.row_sets import distinct
 from linter.scale.cell_bytes import plain_integers
-from linter.scale.sorted_sets import distinct
 
 NULL_HASH = np.uint64(0x9E3779B97F4A7C15)
 """What a null cell hashes to (an odd constant; a value that happens to hash alike is verified away)."""

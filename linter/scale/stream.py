@@ -25,6 +25,7 @@ import pyarrow as pa
 import pyarrow.csv as pacsv
 
 from linter.contract.model import TableContract
+from linter.row_sets import difference, union
 from linter.scale.key_codes import key_codes, shared_codes
 from linter.scale.key_hash import members_of, repeated_positions, row_hashes
 from linter.scale.pieces import (
@@ -49,7 +50,6 @@ from linter.scale.row_scan import (
     sorted_high_halves,
 )
 from linter.scale.screen import screen_batch, worker_pool
-from linter.scale.sorted_sets import difference, union
 from linter.scale.spill import HashSpill, spill_partitions
 from linter.table import unique_labels
 

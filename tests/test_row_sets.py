@@ -6,7 +6,7 @@ import numpy as np
 from hypothesis import given
 from hypothesis import strategies as st
 
-from linter.scale.sorted_sets import difference, distinct, union
+from linter.row_sets import difference, distinct, union
 
 positions = st.lists(st.integers(min_value=-5, max_value=60), max_size=40)
 
