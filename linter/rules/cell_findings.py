@@ -66,6 +66,18 @@ def written(subject: Subject, column: str, rows: Iterable[int] | np.ndarray) -> 
     return _as_written(_cells_at(subject, column, rows))
 
 
+def written_distinct(
+    subject: Subject, column: str, rows: Iterable[int] | np.ndarray
+) -> tuple[np.ndarray, list[str]]:
+    """The cells of `column` at provider `rows` as written, without a Python step per row: the
+    distinct texts in order of first appearance, and per row the index of its text among them.
+
+    An empty cell and a NaN read as one text, '', which an empty string cell may share."""
+    cells = _cells_at(subject, column, rows)
+    codes, distinct = pd.factorize(cells.to_numpy(dtype=object), use_na_sentinel=False)
+    return codes, _as_written(pd.Series(distinct, dtype=object))
+
+
 def written_examples(subject: Subject, column: str, rows: Sequence[int] | np.ndarray) -> tuple[str, ...]:
     """`examples_from` the cells of `column` at `rows` (in that order), read only as far as needed:
     a failing column often holds thousands of cells and a handful of distinct values."""

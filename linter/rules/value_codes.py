@@ -5,9 +5,11 @@ from __future__ import annotations
 import difflib
 from collections.abc import Iterator
 
+import numpy as np
+
 from linter.contract.model import Variable
 from linter.findings import Finding, Severity
-from linter.rules.cell_findings import column_finding, counted, engine_result, quoted, written
+from linter.rules.cell_findings import column_finding, counted, engine_result, quoted, written_distinct
 from linter.rules.registry import define_rule, inspector
 from linter.rules.subject import Subject
 
@@ -46,7 +48,7 @@ def variant_key(text: str) -> str:
     return " ".join(text.split()).casefold()
 
 
-def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], list[int], list[int]]]:
+def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], np.ndarray, np.ndarray]]:
     """Per coded variable: variant -> code, rows holding variants, rows holding unknown values."""
     result = engine_result(subject)
     if result is None or subject.contract is None:
@@ -57,13 +59,12 @@ def _code_cells(subject: Subject) -> Iterator[tuple[Variable, dict[str, str], li
         if variable is None or variable.codes is None or failing.empty:
             continue
         by_key = {variant_key(code): code for code in variable.codes.values}
-        rows = failing["row"].astype("int64").tolist()
-        found = written(subject, name, rows)
-        keys = {f: variant_key(f) for f in dict.fromkeys(found)}  # a wrong code repeats: once each
+        rows = failing["row"].to_numpy(dtype=np.int64)
+        which, found = written_distinct(subject, name, rows)  # a wrong code repeats: each once
+        keys = {f: variant_key(f) for f in found}
         variants = {f: by_key[key] for f, key in keys.items() if key in by_key}
-        variant_rows = [r for r, f in zip(rows, found, strict=True) if f in variants]
-        unknown_rows = [r for r, f in zip(rows, found, strict=True) if f not in variants]
-        yield variable, variants, variant_rows, unknown_rows
+        is_variant = np.array([f in variants for f in found], dtype=bool)[which]
+        yield variable, variants, rows[is_variant], rows[~is_variant]
     result.raise_if_unrun("codes")
 
 
@@ -94,7 +95,7 @@ def _nearest_codes(found: list[str], codes: list[str]) -> list[tuple[str, str]]:
 @inspector(needs_contract=True, row_wise=True)
 def code_variant(subject: Subject) -> Iterator[Finding]:
     for variable, variants, rows, _ in _code_cells(subject):
-        if not rows:
+        if not len(rows):
             continue
         by_code: dict[str, list[str]] = {}
         for found, code in variants.items():
@@ -117,10 +118,10 @@ def code_variant(subject: Subject) -> Iterator[Finding]:
 @inspector(needs_contract=True, row_wise=True)
 def not_in_code_list(subject: Subject) -> Iterator[Finding]:
     for variable, _, _, rows in _code_cells(subject):
-        if not rows or variable.codes is None:
+        if not len(rows) or variable.codes is None:
             continue
         codes = list(variable.codes.values)
-        found = written(subject, variable.name, rows)
+        found = written_distinct(subject, variable.name, rows)[1]
         shown = ", ".join(codes[:LISTED_CODES]) + (", ..." if len(codes) > LISTED_CODES else "")
         source = f" (code list {variable.codes.source})" if variable.codes.source else ""
         labelled = dict(_labels_used(variable, found))
