@@ -26,6 +26,10 @@
  * not width (or on more lines than lines of that width could make).
  *
  * sorted_high_halves(hashes, out): the upper halves of the uint64 hashes, radix-sorted into out.
+ *
+ * gather_lines(data, low, high, out) -> size: the byte ranges data[low[i]:high[i]] (int64 arrays
+ * of the same length, each range within data) copied one after another into out; the number of
+ * bytes copied. Raises ValueError on a range outside data or an out too small.
  */
 #define PY_SSIZE_T_CLEAN
 #include <Python.h>
@@ -749,9 +753,70 @@ done:
     return result;
 }
 
+/* gather_lines(data, low, high, out): the lines kept from a block, copied into one buffer for
+ * Arrow to parse (a numpy gather needs an index per byte: 20 ms for 50,000 lines). */
+static PyObject *gather_lines(PyObject *self, PyObject *args) {
+    (void)self;
+    PyObject *data_object, *low_object, *high_object, *out_object;
+    if (!PyArg_ParseTuple(args, "OOOO", &data_object, &low_object, &high_object, &out_object)) {
+        return NULL;
+    }
+    Py_buffer data, low = {0}, high = {0};
+    held_buffer out = {0};
+    PyObject *result = NULL;
+    if (PyObject_GetBuffer(data_object, &data, PyBUF_SIMPLE) < 0) {
+        return NULL;
+    }
+    if (PyObject_GetBuffer(low_object, &low, PyBUF_C_CONTIGUOUS) < 0) {
+        goto done;
+    }
+    if (PyObject_GetBuffer(high_object, &high, PyBUF_C_CONTIGUOUS) < 0) {
+        goto done;
+    }
+    if (low.len != high.len || low.len % 8 != 0) {
+        PyErr_SetString(PyExc_ValueError, "low and high must be int64 arrays of the same length");
+        goto done;
+    }
+    Py_ssize_t count = low.len / 8, total = 0;
+    const int64_t *lows = low.buf, *highs = high.buf;
+    for (Py_ssize_t i = 0; i < count; i++) {
+        if (lows[i] < 0 || lows[i] > highs[i] || highs[i] > data.len) {
+            PyErr_SetString(PyExc_ValueError, "a line range lies outside the data");
+            goto done;
+        }
+        total += (Py_ssize_t)(highs[i] - lows[i]);
+    }
+    if (writable(out_object, &out, total, "out") < 0) {
+        goto done;
+    }
+    Py_BEGIN_ALLOW_THREADS;
+    char *to = out.view.buf;
+    const char *from = data.buf;
+    for (Py_ssize_t i = 0; i < count; i++) {
+        size_t size = (size_t)(highs[i] - lows[i]);
+        memcpy(to, from + lows[i], size);
+        to += size;
+    }
+    Py_END_ALLOW_THREADS;
+    result = PyLong_FromSsize_t(total);
+done:
+    PyBuffer_Release(&data);
+    if (low.obj != NULL) {
+        PyBuffer_Release(&low);
+    }
+    if (high.obj != NULL) {
+        PyBuffer_Release(&high);
+    }
+    if (out.held) {
+        PyBuffer_Release(&out.view);
+    }
+    return result;
+}
+
 static PyMethodDef methods[] = {
     {"judge", judge, METH_VARARGS, "Judge the lines of a piece of a plain delimited file (see the module source)."},
     {"sorted_high_halves", sorted_high_halves, METH_VARARGS, "The upper halves of uint64 hashes, sorted."},
+    {"gather_lines", gather_lines, METH_VARARGS, "Byte ranges of a buffer copied one after another into out."},
     {NULL, NULL, 0, NULL},
 };
 

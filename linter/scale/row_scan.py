@@ -197,19 +197,32 @@ def parse_lines(
     data: Any, starts: np.ndarray, lines: np.ndarray, options: Any, labels: list[str]
 ) -> pa.Table:
     """The lines at sorted indices `lines` (offsets in `starts`) parsed by Arrow as text cells."""
-    low, high = starts[lines], starts[lines + 1]
-    lengths = high - low
-    # One gather of every chosen byte: each line's offsets run on from where it starts.
-    at = np.repeat(low - (np.cumsum(lengths) - lengths), lengths) + np.arange(int(lengths.sum()))
-    chosen = np.frombuffer(data, np.uint8)[at].tobytes()
-    if chosen and not chosen.endswith(b"\n"):
-        chosen += b"\n"  # the file's last line has no line end
-    if not chosen:
+    chosen = gathered_lines(data, starts[lines], starts[lines + 1])
+    if not len(chosen):
         return pa.table({label: pa.array([], pa.string()) for label in labels})
     table = parse_text(chosen, 0, len(chosen), options)
     if table.num_rows != len(lines):
         raise pa.ArrowInvalid("lines that Arrow reads as more or fewer records")
     return table.rename_columns(labels)
+
+
+def gathered_lines(data: Any, low: np.ndarray, high: np.ndarray) -> np.ndarray:
+    """The byte ranges `data[low[i]:high[i]]` (whole lines) one after another, ending in a line
+    end (the file's last line may lack its own), as uint8."""
+    low = np.ascontiguousarray(low, np.int64)
+    high = np.ascontiguousarray(high, np.int64)
+    size = int((high - low).sum())
+    out = np.empty(size + 1, np.uint8)
+    if _rowscan is not None:
+        _rowscan.gather_lines(data, low, high, out)
+    else:  # one numpy gather: each line's byte offsets run on from where it starts
+        lengths = high - low
+        at = np.repeat(low - (np.cumsum(lengths) - lengths), lengths) + np.arange(size)
+        out[:size] = np.frombuffer(data, np.uint8)[at]
+    if size and out[size - 1] != ord("\n"):
+        out[size] = ord("\n")
+        return out
+    return out[:size]
 
 
 def sorted_high_halves(hashes: np.ndarray) -> np.ndarray:

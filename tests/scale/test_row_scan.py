@@ -283,3 +283,32 @@ def test_a_line_starting_with_a_byte_order_mark_keeps_it_as_text(
     assert {"keys.duplicate", "values.pattern-mismatch"} <= {f.rule for f in expected}
     monkeypatch.setattr(pieces, "BATCH_BYTES", 4096)  # so that such lines also start pieces
     assert fast(path, contract_file, monkeypatch, scanner) == expected
+
+
+@given(
+    st.lists(st.binary(max_size=12).map(lambda b: b.replace(b"\n", b"") + b"\n"), min_size=1, max_size=30),
+    st.data(),
+)
+def test_gathered_lines_are_the_chosen_slices_with_and_without_the_scanner(lines, data):
+    text = b"".join(lines)
+    if data.draw(st.booleans()):
+        text = text[:-1]  # the file's last line without its line end
+    starts = np.concatenate([[0], np.cumsum([len(line) for line in lines])]).clip(max=len(text))
+    chosen = np.array(sorted(data.draw(st.sets(st.integers(0, len(lines) - 1)))), np.int64)
+    # Reference: Python's own slicing, and a line end after the last chosen line.
+    expected = b"".join(text[starts[i] : starts[i + 1]] for i in chosen)
+    if expected and not expected.endswith(b"\n"):
+        expected += b"\n"
+    low, high = starts[chosen], starts[chosen + 1]
+    assert row_scan.gathered_lines(text, low, high).tobytes() == expected
+    with pytest.MonkeyPatch.context() as patch:
+        patch.setattr(row_scan, "_rowscan", None)
+        assert row_scan.gathered_lines(text, low, high).tobytes() == expected
+
+
+def test_gathering_refuses_ranges_outside_the_data():
+    out = np.empty(8, np.uint8)
+    with pytest.raises(ValueError, match="outside"):
+        row_scan._rowscan.gather_lines(b"abc\n", np.array([2], np.int64), np.array([9], np.int64), out)
+    with pytest.raises(ValueError, match="too small"):
+        row_scan._rowscan.gather_lines(b"abcdefghij\n", np.zeros(1, np.int64), np.array([11], np.int64), out)
