@@ -143,3 +143,9 @@ def test_one_column_validated_once_per_value_fails_the_same_cells(variable, data
     every, unrun_every = validated(schema, converted.typed, kinds, per_value=False)
     pd.testing.assert_frame_equal(once, every)
     assert unrun_once == unrun_every
+    # A one-column table is validated by its column alone; inside a wider table the same column
+    # goes through the whole schema: the failures must be the same.
+    wide = TableContract("part", "one cell", (), (variable, Variable("note")), missing=("",))
+    wide_schema, wide_kinds = compile_schema(wide, {variable.name, "note"})
+    whole, _ = validated(wide_schema, converted.typed.assign(note="written"), wide_kinds, per_value=False)
+    pd.testing.assert_frame_equal(whole[whole["column"] == variable.name].reset_index(drop=True), every)
