@@ -64,7 +64,10 @@ def _other_date_forms(text: pd.Series, extra: tuple[tuple[str, str], ...]) -> np
     arrays throughout: a pandas assignment through a mask costs a copy of the column)."""
     suggestion = np.full(len(text), None, dtype=object)
     left = np.ones(len(text), dtype=bool)
-    for pattern, form in extra + OTHER_DATE_FORMS:
+    forms = extra + OTHER_DATE_FORMS
+    if not matches(text, "|".join(f"(?:{pattern})" for pattern, _ in forms)).any():
+        forms = ()  # one look at the cells instead of one per form, when no form fits any of them
+    for pattern, form in forms:
         shaped = left & matches(text, pattern)
         if not shaped.any():
             continue
