@@ -133,9 +133,10 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
 
     A clean cell yields no finding from any row-wise rule, so each column is judged only where its
     own cell is in doubt: the key columns together (with every row whose key is shared), each other
-    column on its own. A part with a patterned column holds the sample too, and the row of that
-    column's first good cell, because a pattern finding quotes the column's first good value as
-    an example, as it does on the ordinary reader.
+    column on its own. A part with a patterned column also holds the row of that column's first
+    good cell, because a pattern finding quotes the column's first value that keeps the pattern
+    as an example, as it does on the ordinary reader: that is the first good cell, or a cell
+    before it in doubt for another reason, which the part holds anyway.
     """
     positions = found.positions
     sample = np.flatnonzero(positions < found.sample)
@@ -146,7 +147,7 @@ def screened_table(plain: PlainFile, found: StreamResult, sha256: str, rules: Ta
         if not patterned.intersection(columns):
             return rows
         firsts = [found.first_good[c] for c in columns if c in found.first_good]
-        return union([sample, rows, np.searchsorted(positions, firsts)])
+        return union([rows, np.searchsorted(positions, firsts)])
 
     def read_by(columns: tuple[str, ...]) -> set[int]:
         """Positions of the columns the row-wise rules of a part read: its own, and the key

@@ -84,6 +84,23 @@ def test_a_pattern_finding_quotes_the_first_good_value_even_beyond_the_sample(
     assert row_findings(fast) == expected
 
 
+def test_a_pattern_example_may_be_a_doubtful_cell_before_the_first_good_one(
+    tmp_path, contract_file, monkeypatch
+):
+    # The screen doubts a site written with Arabic-Indic digits (not ASCII), but the engine's
+    # pattern VB-\d{3} reads them as digits: that cell, before the first good site, is the
+    # column's first value in the agreed form, and so the example on both paths.
+    rows = bad_sites_first(300, 120, seed=9)
+    rows[60][1] = "VB-\u0661\u0662\u0663"
+    path = tmp_path / "results-2026-08.csv"
+    path.write_text(csv_text(rows), encoding="utf-8")
+    ordinary, fast = both_paths(path, contract_file, monkeypatch)
+    expected = row_findings(ordinary)
+    [pattern] = [f for f in expected if f.rule == "values.pattern-mismatch"]
+    assert f"like {rows[60][1]!r}" in pattern.fix
+    assert row_findings(fast) == expected
+
+
 def test_each_column_is_judged_only_where_its_own_cell_is_in_doubt(tmp_path, contract_file, monkeypatch):
     rows = lab_rows(400, seed=11)
     rows[50][4], rows[50][7] = "1,420", "PIKE"  # two broken cells in one row
@@ -95,11 +112,11 @@ def test_each_column_is_judged_only_where_its_own_cell_is_in_doubt(tmp_path, con
     path.write_text(csv_text(rows), encoding="utf-8")
     screened = read_screened(str(path), load_contract(str(contract_file)).tables[0], 0, 5)
     assert screened is not None
-    sample = (2, 3, 4, 5, 6)  # provider line numbers of the five leading body rows
+    first_good = 2  # provider line of the first body row, whose cells are all good
     parts = {p.columns: p.table.row_numbers[1:] for p in screened.parts}
-    assert parts == {  # patterned columns (sample_id, site_id) with the sample, for their examples
-        ("sample_id", "analyte"): (*sample, 202, 302, 312),
-        ("site_id",): (*sample, 302),
+    assert parts == {  # patterned columns (sample_id, site_id) with their first good cell, as example
+        ("sample_id", "analyte"): (first_good, 202, 302, 312),
+        ("site_id",): (first_good, 302),
         ("sampled_on",): (122,),
         ("result",): (52,),
         ("lab",): (52,),
