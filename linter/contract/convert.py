@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass, fields, replace
 from functools import cached_property
 
@@ -26,8 +27,8 @@ FALSE_WORDS = frozenset({"false", "0"})
 
 
 RULE_OF_PROBLEM = {str(problem): problem.rule for problem in Problem}
-"""Looked up once per distinct problem: a Python call per failing cell was most of the cost on
-large files."""
+"""Looked up once per distinct problem of a column: a Python call per failing cell was most of
+the cost on large files."""
 
 
 @dataclass(frozen=True)
@@ -57,13 +58,16 @@ class Converted:
         )
 
     @cached_property
-    def rules(self) -> pd.Series:
-        """The rule id of each failing cell, failing cells only (most cells are fine): every
-        conversion rule asks, so it is worked out once."""
-        failed = self.reason[self.reason.notna()]
-        which, problems = pd.factorize(failed.to_numpy(dtype=object))  # a handful of distinct ones
-        rules = np.array([RULE_OF_PROBLEM[str(p)] for p in problems], dtype=object)[which]
-        return pd.Series(rules, index=failed.index, dtype="str")
+    def failing_by_rule(self) -> Mapping[str, pd.Series]:
+        """The reason of each failing cell, by the conversion rule it breaks (failing cells only:
+        most cells are fine). Every conversion rule asks, so it is worked out once."""
+        failed = np.flatnonzero(self.reason.notna().to_numpy(dtype=bool))
+        which, problems = pd.factorize(self.reason.to_numpy(dtype=object)[failed])  # a handful
+        rule_of = np.array([RULE_OF_PROBLEM[str(p)] for p in problems], dtype=object)
+        return {
+            rule: self.reason.iloc[failed[np.isin(which, np.flatnonzero(rule_of == rule))]]
+            for rule in dict.fromkeys(rule_of.tolist())
+        }
 
 
 def _or_none(series: pd.Series) -> pd.Series:

@@ -4,6 +4,9 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+import numpy as np
+import pandas as pd
+
 from linter.contract.convert import Converted
 from linter.contract.model import Variable, VarType
 from linter.contract.problems import Problem
@@ -133,18 +136,21 @@ def _conversion_findings(subject: Subject, rule: str) -> Iterator[Finding]:
         return
     for name, converted in result.converted.items():
         variable = subject.contract.variable(name)
-        rules = converted.rules
-        mine = converted.reason[rules.index[rules == rule]]
-        if variable is None or mine.empty:
+        mine = converted.failing_by_rule.get(rule)
+        if variable is None or mine is None or mine.empty:
             continue
-        rows = mine.index.astype("int64").tolist()
+        rows = mine.index.to_numpy(dtype=np.int64)
         hints: list[str] = []
         kinds: dict[str, int] = {}
-        for problem, cells in mine.groupby(mine):
-            first = int(cells.index[0])
+        # Per problem (in the order of their names), its first cell as the example, and its count.
+        which, problems = pd.factorize(mine.to_numpy(dtype=object))
+        firsts = np.unique(which, return_index=True)[1]
+        counts = np.bincount(which)
+        for at in sorted(range(len(problems)), key=lambda i: str(problems[i])):
+            first = int(rows[firsts[at]])
             found = written(subject, name, [first])[0]
-            hints.append(problem_hint(Problem(problem), found, converted.suggestion[first], variable))
-            kinds[str(problem)] = len(cells)
+            hints.append(problem_hint(Problem(problems[at]), found, converted.suggestion[first], variable))
+            kinds[str(problems[at])] = int(counts[at])
         fix = (
             "; ".join(hints)
             if rule == "values.wrong-type"
@@ -173,8 +179,8 @@ def _conversion_message(rule: str, variable: Variable, count: int) -> str:
     return f"{cells} in {variable.name} cannot be read as {kind}."
 
 
-def _format_fix(subject: Subject, variable: Variable, converted: Converted, rows: list[int]) -> str:
-    first = rows[0]
+def _format_fix(subject: Subject, variable: Variable, converted: Converted, rows: np.ndarray) -> str:
+    first = int(rows[0])
     found = written(subject, variable.name, [first])[0]
     suggestion = str(converted.suggestion[first])
     if variable.unit and converted.reason[first] == Problem.WRONG_UNIT:
