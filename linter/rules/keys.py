@@ -5,6 +5,7 @@ from __future__ import annotations
 import math
 from collections.abc import Iterator
 
+import numpy as np
 import pandas as pd
 
 from linter.findings import Finding, Severity
@@ -65,7 +66,11 @@ def duplicate_keys(subject: Subject) -> Iterator[Finding]:
     keys = list(contract.keys)
     if any(k not in result.converted for k in keys):
         return  # a key column is missing: the key cannot be judged (columns.missing says why)
-    flagged = sorted(set(result.failures.loc[result.failures["kind"] == "unique", "row"].astype(int)))
+    unique = result.failures["kind"].to_numpy(dtype=object) == "unique"
+    flagged = sorted(set(result.failures["row"].to_numpy(dtype=np.int64)[unique].tolist()))
+    if not flagged:  # the usual case: grouping no rows still costs pandas milliseconds
+        result.raise_if_unrun("unique")
+        return
     typed = result.typed.loc[flagged, keys]
     # dropna: an empty key cell is keys.missing, never a duplicate of another empty one.
     group_of = typed.groupby(keys, sort=False, dropna=True).ngroup()
