@@ -154,14 +154,19 @@ def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) ->
     columns = cases["column"].to_numpy(dtype=object)
     checks = cases["check"].to_numpy(dtype=object)
     numbers = pd.to_numeric(cases["check_number"], errors="coerce").to_numpy(dtype=float)
-    triples = np.stack([pd.factorize(values)[0] for values in (columns, checks, numbers)])
-    _, firsts, which = np.unique(triples, axis=1, return_index=True, return_inverse=True)
+    column_code, check_code, number_code = (
+        pd.factorize(values, use_na_sentinel=False)[0] for values in (columns, checks, numbers)
+    )  # a check without a number (nullable, unique) has NaN: a code of its own, not -1
+    triples = combined_codes(column_code, check_code, number_code)
+    _, firsts, which = np.unique(triples, return_index=True, return_inverse=True)
     kind_of = [_kind(str(columns[i]), checks[i], float(numbers[i]), kinds) for i in firsts.tolist()]
     kind = np.array(kind_of, dtype=object)[which.reshape(-1)]
     rows = cases["index"].to_numpy(dtype=np.int64)
     # The first case of each (column, kind, row), in pandera's order.
-    cells = np.stack([triples[0], pd.factorize(kind)[0], rows])
-    first = np.sort(np.unique(cells, axis=1, return_index=True)[1])
+    cells = combined_codes(
+        column_code, pd.factorize(kind, use_na_sentinel=False)[0], rows - rows.min(initial=0)
+    )
+    first = np.sort(np.unique(cells, return_index=True)[1])
     return pd.DataFrame(
         {
             "column": pd.Series(columns[first], dtype=object),
@@ -170,6 +175,17 @@ def _failure_table(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) ->
             "value": cases["failure_case"].iloc[first].reset_index(drop=True),
         }
     )
+
+
+def combined_codes(*codes: np.ndarray) -> np.ndarray:
+    """One int64 per position for several arrays of small non-negative codes, ordered as the
+    tuples of codes are: a 1-D `np.unique` sorts these much faster than tuples (axis=1)."""
+    if any(len(code) and code.min() < 0 for code in codes):
+        raise ValueError("codes must not be negative")
+    combined = np.zeros(len(codes[0]), np.int64)
+    for code in codes:
+        combined = combined * (int(code.max(initial=0)) + 1) + code
+    return combined
 
 
 def _kind(column: str, check: object, number: float | None, kinds: Mapping[tuple[str, int], str]) -> str:

@@ -2,13 +2,21 @@
 
 from __future__ import annotations
 
+import numpy as np
 import pandas as pd
 import pandera.pandas as pa
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from linter.contract.engine import FAILURE_COLUMNS, checked, compile_schema, run_contract, validated
+from linter.contract.engine import (
+    FAILURE_COLUMNS,
+    checked,
+    combined_codes,
+    compile_schema,
+    run_contract,
+    validated,
+)
 from linter.contract.model import CodeList, TableContract, Variable, VarType
 from linter.table import Table, first_row_header
 
@@ -149,3 +157,17 @@ def test_one_column_validated_once_per_value_fails_the_same_cells(variable, data
     wide_schema, wide_kinds = compile_schema(wide, {variable.name, "note"})
     whole, _ = validated(wide_schema, converted.typed.assign(note="written"), wide_kinds, per_value=False)
     pd.testing.assert_frame_equal(whole[whole["column"] == variable.name].reset_index(drop=True), every)
+
+
+@given(
+    st.lists(st.tuples(st.integers(0, 4), st.integers(0, 2), st.integers(0, 900)), min_size=1, max_size=60)
+)
+def test_combined_codes_sort_and_repeat_as_their_tuples(tuples) -> None:
+    # Reference: numpy's unique over the tuples themselves (axis=1), which _failure_table used.
+    codes = np.array(tuples, dtype=np.int64).T
+    _, first, which = np.unique(codes, axis=1, return_index=True, return_inverse=True)
+    _, first_combined, which_combined = np.unique(
+        combined_codes(*codes), return_index=True, return_inverse=True
+    )
+    assert first.tolist() == first_combined.tolist()
+    assert which.reshape(-1).tolist() == which_combined.reshape(-1).tolist()
