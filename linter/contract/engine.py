@@ -251,7 +251,9 @@ def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFr
     rows = index.to_numpy()[order[starts + np.arange(len(case))]]
     spread = failures.iloc[case].assign(row=rows)
     # Pandera lists each check's failing rows in row order, one check after another.
-    block = spread.groupby(["column", "kind"], sort=False).ngroup().to_numpy()
+    block = pd.factorize(  # each check's number, in the order the checks come
+        combined_codes(*(pd.factorize(spread[c].to_numpy(dtype=object))[0] for c in ("column", "kind")))
+    )[0]
     return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
 
 
