@@ -12,7 +12,7 @@ from __future__ import annotations
 import csv
 import io
 import os
-from collections.abc import Callable, Collection
+from collections.abc import Callable, Collection, Mapping
 from dataclasses import dataclass
 from pathlib import PurePath
 
@@ -90,22 +90,21 @@ def plain_head(path: str) -> tuple[str, str] | None:
     return delimiter, sample.split("\n", 1)[0]
 
 
-def grid_of(header: tuple[str, ...], columns: pa.Table, shown: Collection[int] | None = None) -> pd.DataFrame:
-    """The header over Arrow text columns, as the reader's grid: object cells, None where empty,
-    positional labels.
+def grid_of(header: tuple[str, ...], columns: Mapping[int, pa.ChunkedArray], rows: int) -> pd.DataFrame:
+    """The header over Arrow text columns (by position; `rows` cells each), as the reader's grid:
+    object cells, None where empty, positional labels.
 
-    Columns not `shown` (when given) are left empty below the header: nothing that judges the
-    grid reads them."""
+    A position missing from `columns` is left empty below the header: nothing that judges the
+    grid reads it."""
 
     def cells(i: int) -> np.ndarray:
-        column = np.empty(columns.num_rows + 1, dtype=object)
+        column = np.empty(rows + 1, dtype=object)
         column[0] = header[i] or None
-        if shown is None or i in shown:
-            column[1:] = columns.column(i).to_numpy(zero_copy_only=False)
+        if i in columns:
+            column[1:] = columns[i].to_numpy(zero_copy_only=False)
         return column
 
-    width = columns.num_columns
-    return pd.DataFrame({i: pd.Series(cells(i), dtype=object, copy=False) for i in range(width)})
+    return pd.DataFrame({i: pd.Series(cells(i), dtype=object, copy=False) for i in range(len(header))})
 
 
 @dataclass(frozen=True)
@@ -191,12 +190,13 @@ def _table_of(
 ) -> Table:
     """The header and the kept rows at `chosen` (sorted indices into `found.kept`, whose body
     `positions` are given) as a `Table`, with only the `shown` columns filled in (all when None)."""
-    rows = found.kept.take(pa.array(chosen, pa.int64()))
+    filled = range(found.kept.num_columns) if shown is None else sorted(shown)
+    rows = found.kept.select(list(filled)).take(pa.array(chosen, pa.int64()))  # only what is shown
     lines = positions[chosen] + 2  # body position 0 is line 2, after the header
     return Table(
         source=plain.path,
         sheet=None,
-        grid=grid_of(found.names, rows, shown),
+        grid=grid_of(found.names, dict(zip(filled, rows.columns, strict=True)), rows.num_rows),
         row_numbers=(1, *lines.tolist()),
         format="tsv" if plain.delimiter == "\t" else "csv",
         encoding="utf-8",

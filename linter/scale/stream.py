@@ -276,7 +276,9 @@ def screen_stream(
         key_parts = [hashes for hashes, _ in hashed]
         high_runs = [ordered for _, ordered in hashed]
         positions = np.concatenate([*kept_positions, np.array([], np.int64)])
-        first_pass = pa.concat_tables(kept) if kept else _no_rows(labels)
+        # One chunk: every part of the file's judging takes rows from it (a take over a chunk per
+        # batch costs more than this one copy of the few rows kept).
+        first_pass = pa.concat_tables(kept).combine_chunks() if kept else _no_rows(labels)
         found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
         duplicate = _exact_duplicates(key_parts, high_runs, spill, contract, found_rows)
     extra = difference(duplicate.positions, positions)
