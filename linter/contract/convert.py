@@ -220,7 +220,7 @@ def read_cells(raw: pd.Series, variable: Variable, file_missing: tuple[str, ...]
     elif kind is VarType.DATETIME:
         values, reason, suggestion = convert_datetimes(text, present, variable.date_format)
     else:
-        values = raw.where(present, None)
+        values = text.where(present)  # pandas' Arrow-backed str: pandera's pattern and code checks run in C
         reason = pd.Series(None, index=text.index, dtype=object)
         suggestion = reason.copy()
     return Converted(values, missing, censored, _or_none(reason), _or_none(suggestion))

@@ -270,14 +270,18 @@ def corpus() -> dict[str, bytes]:
         "contract-empty.yaml": b"",
         "contract-two-documents.yaml": (CONTRACT + "---\n" + CONTRACT).encode(),
         "contract-big.yaml": (CONTRACT + "".join(f"# padding line {i}\n" for i in range(200))).encode(),
-        # A pattern with nested repetition takes exponential time on a near-miss (regular
-        # expression denial of service); the per-file clock must stop it.
+        # A pattern with nested repetition takes exponential time on a near-miss in a
+        # backtracking engine (regular expression denial of service). Text cells are matched by
+        # Arrow's linear-time engine, so the plain near-miss is simply reported; a cell with a
+        # line break is matched by Python's engine (its `$` differs), and the per-file clock
+        # must stop it.
         "redos-pattern.yaml": (
             b"contract: redos\nversion: 1\nobservational_unit: one sample at one site\nkeys: [site_id]\n"
             b"variables:\n  site_id: {type: string}\n"
             b'  note: {type: string, pattern: "^(a+)+$", required: false}\n'
         ),
         "redos-cells.csv": b"site_id,note\nVB-014," + b"a" * 40 + b"!\n",
+        "redos-cells-line-break.csv": b'site_id,note\nVB-014,"' + b"a" * 40 + b'!\n"\n',
         "ok.csv": GOOD.encode(),
     }
 
