@@ -70,34 +70,29 @@ def test_batches_longer_than_the_leading_cells_find_what_the_engine_finds(
     assert row_findings(fast) == expected
 
 
-def test_a_pattern_finding_quotes_the_first_good_value_even_beyond_the_sample(
-    tmp_path, contract_file, monkeypatch
+@pytest.mark.parametrize(
+    ("doubtful_site", "example_row"),
+    [
+        # The fix shows the column's first good value; here it lies far past the five-row sample.
+        (None, 120),
+        # The screen doubts a site written with Arabic-Indic digits (not ASCII), but the engine's
+        # pattern VB-\d{3} reads them as digits: that cell, before the first good site, is the
+        # column's first value in the agreed form, and so the example on both paths.
+        ("VB-\u0661\u0662\u0663", 60),
+    ],
+)
+def test_a_pattern_finding_quotes_the_columns_first_value_in_the_agreed_form(
+    tmp_path, contract_file, monkeypatch, doubtful_site, example_row
 ):
-    # The fix shows the column's first good value; here it lies far past the five-row sample.
     rows = bad_sites_first(300, 120, seed=9)
+    if doubtful_site is not None:
+        rows[example_row][1] = doubtful_site
     path = tmp_path / "results-2026-07.csv"
     path.write_text(csv_text(rows), encoding="utf-8")
     ordinary, fast = both_paths(path, contract_file, monkeypatch)
     expected = row_findings(ordinary)
     [pattern] = [f for f in expected if f.rule == "values.pattern-mismatch"]
-    assert f"like {rows[120][1]!r}" in pattern.fix
-    assert row_findings(fast) == expected
-
-
-def test_a_pattern_example_may_be_a_doubtful_cell_before_the_first_good_one(
-    tmp_path, contract_file, monkeypatch
-):
-    # The screen doubts a site written with Arabic-Indic digits (not ASCII), but the engine's
-    # pattern VB-\d{3} reads them as digits: that cell, before the first good site, is the
-    # column's first value in the agreed form, and so the example on both paths.
-    rows = bad_sites_first(300, 120, seed=9)
-    rows[60][1] = "VB-\u0661\u0662\u0663"
-    path = tmp_path / "results-2026-08.csv"
-    path.write_text(csv_text(rows), encoding="utf-8")
-    ordinary, fast = both_paths(path, contract_file, monkeypatch)
-    expected = row_findings(ordinary)
-    [pattern] = [f for f in expected if f.rule == "values.pattern-mismatch"]
-    assert f"like {rows[60][1]!r}" in pattern.fix
+    assert f"like {rows[example_row][1]!r}" in pattern.fix
     assert row_findings(fast) == expected
 
 
