@@ -44,6 +44,7 @@ from linter.scale.row_scan import (
     FALLBACK,
     FALLBACK_SHARE,
     ScanSpec,
+    gathered_lines,
     judge_lines,
     parse_lines,
     scan_spec,
@@ -356,9 +357,7 @@ class Rows:
                     ends = np.append(ends, len(data) - 1)  # the file's last line has no line end
                 starts = np.concatenate([[0], ends[:-1] + 1])
                 wanted = lines[lower:upper] - span.first_line
-                chosen = b"".join(data[starts[i] : ends[i] + 1] for i in wanted)
-                if not chosen.endswith(b"\n"):
-                    chosen += b"\n"
+                chosen = gathered_lines(data, starts[wanted], ends[wanted] + 1)
                 found.append(parse_text(chosen, 0, len(chosen), options).rename_columns(self.labels))
         return pa.concat_tables(found)
 
