@@ -153,7 +153,10 @@ def _line_screen(
     the numpy screen (or the whole block, when it is mostly such lines)."""
     options = text_options(chr(spec.delimiter), width)
     verdict = judge_lines(block.data, begin, block.size, width, spec, worker_pool())
-    back = np.flatnonzero(verdict.flags == FALLBACK)
+    # One pass over the block's flags; the few flagged lines are then told apart among themselves.
+    flagged = np.flatnonzero(verdict.flags)
+    kinds = verdict.flags[flagged]
+    back = flagged[kinds == FALLBACK]
     if len(back) * FALLBACK_SHARE > verdict.rows:
         body = parse_text(block.data, begin, block.size, options)
         if body.num_rows != verdict.rows:
@@ -164,7 +167,7 @@ def _line_screen(
         name: int(at) for name, at in zip(spec.variables, verdict.first_good, strict=True)
         if name in spec.patterned and at >= 0
     }  # fmt: skip
-    suspect = np.flatnonzero(verdict.flags == DOUBT)
+    suspect = flagged[kinds == DOUBT]
     if len(back):
         screened = screen_batch(parse_lines(block.data, verdict.starts, back, options, labels), contract)
         suspect = union([suspect, back[screened.suspect.to_numpy(zero_copy_only=False)]])
@@ -177,7 +180,6 @@ def _line_screen(
                 good[name] = min(good.get(name, verdict.rows), int(back[np.argmax(cells)]))
     # Only a doubtful or handed-back line has a cell in doubt: look for them among those lines
     # alone (a column of `bad` is strided, and scanning each whole cost 1 ms a block).
-    flagged = np.flatnonzero(verdict.flags)
     lines, columns = np.nonzero(bad[flagged])
     return BatchScreen(
         verdict.rows,
