@@ -30,6 +30,7 @@ from linter.scale.key_codes import key_codes, shared_codes
 from linter.scale.key_hash import members_of, repeated_positions, row_hashes
 from linter.scale.pieces import (
     LONGEST_LINE_BYTES,
+    PARSE_BLOCK_BYTES,
     Block,
     LineScan,
     Span,
@@ -119,8 +120,59 @@ class BatchScreen:
     """Per patterned variable with a good cell in the batch, the first one's batch position."""
     hashes: Callable[[], np.ndarray] | None
     """The rows' 64-bit key hashes, worked out when called (None: no key column is present)."""
-    take: Callable[[np.ndarray], pa.Table]
-    """The rows at sorted batch positions as text cells; valid only until the next batch is read."""
+    take: Callable[[np.ndarray], pa.Table | Lines]
+    """The rows at sorted batch positions, as text cells or as their lines; valid only until the
+    next batch is read."""
+
+
+@dataclass(frozen=True)
+class Lines:
+    """Whole lines copied out of a block, each ending in a line end, to be parsed later."""
+
+    data: np.ndarray
+    """uint8."""
+    count: int
+
+
+class KeptRows:
+    """The rows a pass keeps, in file order, as one Arrow table.
+
+    Lines cut from the blocks are parsed together once enough of them are waiting: an Arrow read
+    costs about a millisecond however few lines it holds, once per block when each block's few
+    rows in doubt were parsed on their own."""
+
+    def __init__(self, delimiter: str, width: int, labels: list[str]) -> None:
+        self.options = text_options(delimiter, width)
+        self.labels = labels
+        self.tables: list[pa.Table] = []
+        self.waiting: list[Lines] = []
+        self.waiting_bytes = 0
+
+    def add(self, rows: pa.Table | Lines) -> None:
+        if isinstance(rows, pa.Table):
+            self._parse_waiting()
+            self.tables.append(rows)
+            return
+        self.waiting.append(rows)
+        self.waiting_bytes += len(rows.data)
+        if self.waiting_bytes >= PARSE_BLOCK_BYTES:
+            self._parse_waiting()
+
+    def table(self) -> pa.Table:
+        """Every kept row in one chunk: each part of the file's judging takes rows from it (a take
+        over a chunk per batch costs more than this one copy of the few rows kept)."""
+        self._parse_waiting()
+        return pa.concat_tables(self.tables).combine_chunks() if self.tables else _no_rows(self.labels)
+
+    def _parse_waiting(self) -> None:
+        if not self.waiting:
+            return
+        data = np.concatenate([lines.data for lines in self.waiting])
+        table = parse_text(data, 0, len(data), self.options)
+        if table.num_rows != sum(lines.count for lines in self.waiting):
+            raise pa.ArrowInvalid("lines that Arrow reads as more or fewer records")
+        self.tables.append(table.rename_columns(self.labels))
+        self.waiting, self.waiting_bytes = [], 0
 
 
 def _table_screen(body: pa.Table, contract: TableContract) -> BatchScreen:
@@ -187,7 +239,9 @@ def _line_screen(
         {name: flagged[lines[columns == column]] for column, name in enumerate(spec.variables)},
         good,
         (lambda: hashes) if spec.keys else None,
-        lambda rows: parse_lines(block.data, verdict.starts, rows, options, labels),
+        lambda rows: Lines(
+            gathered_lines(block.data, verdict.starts[rows], verdict.starts[rows + 1]), len(rows)
+        ),
     )
 
 
@@ -239,7 +293,7 @@ def screen_stream(
         else _line_screens(path, spec, contract, labels, width, scan)
     )
     spans: list[Span] = []
-    kept: list[pa.Table] = []
+    kept = KeptRows(delimiter, width, labels)
     kept_positions: list[np.ndarray] = []
     # Per batch, its 64-bit key hashes (8 bytes a row instead of the key texts) and their upper
     # halves sorted, the sort done on a worker while the pass goes on.
@@ -263,7 +317,7 @@ def screen_stream(
                 first_good[name] = start + at
             chosen = union([sample, screened.suspect, list(firsts.values())])
             if len(chosen):
-                kept.append(screened.take(chosen))
+                kept.add(screened.take(chosen))
                 kept_positions.append(chosen + start)
             if screened.hashes is not None:
                 if spill is None:
@@ -279,9 +333,7 @@ def screen_stream(
         key_parts = [hashes for hashes, _ in hashed]
         high_runs = [ordered for _, ordered in hashed]
         positions = np.concatenate([*kept_positions, np.array([], np.int64)])
-        # One chunk: every part of the file's judging takes rows from it (a take over a chunk per
-        # batch costs more than this one copy of the few rows kept).
-        first_pass = pa.concat_tables(kept).combine_chunks() if kept else _no_rows(labels)
+        first_pass = kept.table()
         found_rows = Rows(path, delimiter, width, labels, spans, first_pass, positions)
         duplicate = _exact_duplicates(key_parts, high_runs, spill, contract, found_rows)
     extra = difference(duplicate.positions, positions)

@@ -261,3 +261,29 @@ def test_rows_found_again_come_from_the_kept_rows_or_the_file_in_order(tmp_path,
     found = rows.at(wanted)
     assert found.column("sample_id").to_pylist() == [f"S{p:07d}" for p in wanted]
     assert found.column("lab").to_pylist() == [f"kept-{p}" if p in kept_at else "HERON" for p in wanted]
+
+
+@pytest.mark.parametrize("waiting_bytes", [1, 1 << 30])  # parsed as each comes, or all at the end
+def test_kept_rows_keep_file_order_across_lines_and_tables(monkeypatch, waiting_bytes):
+    monkeypatch.setattr(stream, "PARSE_BLOCK_BYTES", waiting_bytes)
+    labels = ["sample_id", "lab"]
+    kept = stream.KeptRows(",", 2, labels)
+    kept.add(stream.Lines(np.frombuffer(b"S0000001,HERON\nS0000002,\n", np.uint8), 2))
+    kept.add(pa.table({"sample_id": ["S0000003"], "lab": ["OTTER"]}))  # a block the numpy screen read
+    kept.add(stream.Lines(np.frombuffer(b"S0000004,KESTREL\n", np.uint8), 1))
+    kept.add(stream.Lines(np.frombuffer(b'"S0000005","PIKE"\n', np.uint8), 1))
+    table = kept.table()
+    assert table.column_names == labels
+    assert table.column("sample_id").num_chunks == 1
+    assert table.to_pydict() == {
+        "sample_id": ["S0000001", "S0000002", "S0000003", "S0000004", "S0000005"],
+        "lab": ["HERON", None, "OTTER", "KESTREL", "PIKE"],
+    }
+
+
+def test_kept_lines_that_arrow_reads_as_other_records_leave_the_file_to_the_ordinary_reader():
+    kept = stream.KeptRows(",", 2, ["sample_id", "lab"])
+    kept.add(stream.Lines(np.frombuffer(b"S0000001,HERON\nS0000002,OTTER\n", np.uint8), 1))
+    with pytest.raises(pa.ArrowInvalid):
+        kept.table()
+    assert stream.KeptRows(",", 2, ["sample_id", "lab"]).table().num_rows == 0
