@@ -214,6 +214,11 @@ def run_contract(contract: TableContract, frame: Frame) -> CheckedTable:
 NO_FAILURES = pd.DataFrame({name: pd.Series(dtype=object) for name in FAILURE_COLUMNS})
 
 
+KEY_TABLE_SPLIT_ROWS = 1000
+"""A table of its key columns alone with at least this many rows is validated in a run per check
+group (see `validated`); below it the extra runs cost more than they save."""
+
+
 def validated(
     schema: pa.DataFrameSchema,
     typed: pd.DataFrame,
@@ -226,13 +231,46 @@ def validated(
     on its own, so a one-column table with few distinct values (the doubtful cells of one column
     in a large file) is validated on the first row of each value, and each failure then stands for
     every row holding that value: pandera's work, and its failure cases, grow with the values.
-    With `per_value` False every row is validated (the result is the same; tests compare them).
+    A large table of the key columns alone (a large file's key part: rows whose key is shared or
+    has a doubtful cell) is validated in one run for the key, which needs every row, then one run
+    per column, each on the first row of each of its values, in the order pandera checks them.
+    With `per_value` False every row is validated in one run (the result is the same; tests
+    compare them).
 
-    Only one-column tables: splitting a wider one into a run per repeating column was measured
-    slower on ordinary files (each run costs pandera a few milliseconds, and most cells pass)."""
-    same = _one_column_repeats(schema, typed) if per_value else None
+    Not wider tables: splitting one into a run per repeating column was measured slower on
+    ordinary files (each run costs pandera a few milliseconds, and most cells pass)."""
+    if not per_value:
+        return _run(_validator(schema, typed), typed, kinds, None)
+    if _key_columns_alone(schema, typed):
+        key = pa.DataFrameSchema(unique=schema.unique, report_duplicates=schema.report_duplicates)
+        runs = [_run(key, typed, kinds, None)]
+        for name, column in schema.columns.items():
+            runs.append(_run(column, typed[[name]], kinds, repeats(typed[name], 2)))
+        failures = [f for f, _ in runs if len(f)]
+        merged = pd.concat(failures, ignore_index=True) if failures else NO_FAILURES.copy()
+        return merged, tuple(u for _, unrun in runs for u in unrun)
+    return _run(_validator(schema, typed), typed, kinds, _one_column_repeats(schema, typed))
+
+
+def _key_columns_alone(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> bool:
+    keys = [schema.unique] if isinstance(schema.unique, str) else list(schema.unique or ())
+    return (
+        len(typed) >= KEY_TABLE_SPLIT_ROWS
+        and bool(keys)
+        and not schema.checks
+        and set(typed.columns) == set(keys) == set(schema.columns)
+    )
+
+
+def _run(
+    validator: pa.DataFrameSchema | pa.Column,
+    typed: pd.DataFrame,
+    kinds: Mapping[tuple[str, int], str],
+    same: Repeats | None,
+) -> tuple[pd.DataFrame, tuple[tuple[str, str, str], ...]]:
+    """One pandera run on `typed`, or with `same` on the first row of each value, spread back."""
     try:
-        _validator(schema, typed).validate(typed if same is None else typed.iloc[same.first], lazy=True)
+        validator.validate(typed if same is None else typed.iloc[same.first], lazy=True)
     except SchemaErrors as error:
         failures = _failure_table(error, kinds)
         return (failures if same is None else _spread(failures, same, typed.index)), _unrun(error, kinds)

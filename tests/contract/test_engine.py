@@ -11,6 +11,7 @@ from hypothesis import strategies as st
 
 from linter.contract.engine import (
     FAILURE_COLUMNS,
+    KEY_TABLE_SPLIT_ROWS,
     checked,
     combined_codes,
     compile_schema,
@@ -157,6 +158,33 @@ def test_one_column_validated_once_per_value_fails_the_same_cells(variable, data
     wide_schema, wide_kinds = compile_schema(wide, {variable.name, "note"})
     whole, _ = validated(wide_schema, converted.typed.assign(note="written"), wide_kinds, per_value=False)
     pd.testing.assert_frame_equal(whole[whole["column"] == variable.name].reset_index(drop=True), every)
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.data())
+def test_a_large_key_table_validated_in_runs_fails_the_same_cells(data) -> None:
+    # A large file's key part holds the key columns alone: validated as one run for the key and
+    # one per column (each once per value), it must fail the same cells, in the same order, as
+    # one run over every row.
+    key = (ONE_COLUMN[0], ONE_COLUMN[1])  # site_id (pattern, not nullable) and analyte (codes)
+    pairs = data.draw(
+        st.lists(st.tuples(*(st.sampled_from(WRITTEN[v.name]) for v in key)), min_size=2, max_size=40)
+    )
+    picks = data.draw(st.lists(st.integers(0, len(pairs) - 1), min_size=40, max_size=40))
+    body = [list(pairs[picks[i % len(picks)]]) for i in range(KEY_TABLE_SPLIT_ROWS + len(pairs))]
+    table = Table(
+        "part.csv",
+        None,
+        pd.DataFrame([[v.name for v in key], *body], dtype=object),
+        tuple(range(1, len(body) + 2)),
+    )
+    contract = TableContract("part", "one analyte in one sample", ("site_id", "analyte"), key, missing=("",))
+    converted = run_contract(contract, first_row_header(table))
+    schema, kinds = compile_schema(contract, {"site_id", "analyte"})
+    runs, unrun_runs = validated(schema, converted.typed, kinds)
+    every, unrun_every = validated(schema, converted.typed, kinds, per_value=False)
+    pd.testing.assert_frame_equal(runs, every)
+    assert unrun_runs == unrun_every
 
 
 @given(
