@@ -49,9 +49,21 @@ class CheckedTable:
 
     @cached_property
     def _by_check(self) -> dict[tuple[str, str], pd.DataFrame]:
-        """Every rule family asks for its own checks, column by column: grouped once."""
-        groups = self.failures.groupby(["column", "kind"], sort=False)
-        return {(str(column), str(kind)): rows for (column, kind), rows in groups}
+        """Every rule family asks for its own checks, column by column: grouped once, each
+        group's rows in table order (as a pandas groupby gives them, at a fraction of its cost
+        on the few-row tables of a large file's parts)."""
+        columns = self.failures["column"].to_numpy(dtype=object)
+        kinds = self.failures["kind"].to_numpy(dtype=object)
+        column_code, kind_code = (pd.factorize(values)[0] for values in (columns, kinds))
+        named = np.flatnonzero((column_code >= 0) & (kind_code >= 0))  # a groupby drops the others
+        checks = combined_codes(column_code[named], kind_code[named])
+        ordered = np.argsort(checks, kind="stable")
+        order = named[ordered]
+        bounds = [*np.flatnonzero(np.diff(checks[ordered], prepend=-1)).tolist(), len(order)]
+        return {
+            (str(columns[order[a]]), str(kinds[order[a]])): self.failures.iloc[order[a:b]]
+            for a, b in zip(bounds[:-1], bounds[1:], strict=True)
+        }
 
     def raise_if_unrun(self, kind: str) -> None:
         """Raise when a check of `kind` never ran, so it surfaces as that inspector's failure, not silence."""

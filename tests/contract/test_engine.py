@@ -12,6 +12,7 @@ from hypothesis import strategies as st
 from linter.contract.engine import (
     FAILURE_COLUMNS,
     KEY_TABLE_SPLIT_ROWS,
+    CheckedTable,
     checked,
     combined_codes,
     compile_schema,
@@ -185,6 +186,34 @@ def test_a_large_key_table_validated_in_runs_fails_the_same_cells(data) -> None:
     every, unrun_every = validated(schema, converted.typed, kinds, per_value=False)
     pd.testing.assert_frame_equal(runs, every)
     assert unrun_runs == unrun_every
+
+
+@given(
+    st.lists(
+        st.tuples(
+            st.sampled_from(["site_id", "analyte", "result", None]),
+            st.sampled_from(["codes", "pattern", "unique", None]),
+            st.integers(2, 90),
+        ),
+        max_size=60,
+    )
+)
+def test_failures_are_grouped_by_check_as_a_pandas_groupby_groups_them(cases) -> None:
+    # Reference: pandas' own groupby over (column, kind), which the grouping replaced.
+    failures = pd.DataFrame(
+        {
+            "column": pd.Series([c for c, _, _ in cases], dtype=object),
+            "kind": pd.Series([k for _, k, _ in cases], dtype=object),
+            "row": pd.Series([r for _, _, r in cases], dtype=np.int64),
+            "value": pd.Series([str(r) for _, _, r in cases], dtype=object),
+        }
+    )
+    table = CheckedTable({}, pd.DataFrame(), failures)
+    expected = {key: rows for key, rows in failures.groupby(["column", "kind"], sort=False)}
+    for column in ("site_id", "analyte", "result"):
+        for kind in ("codes", "pattern", "unique"):
+            reference = expected.get((column, kind), failures.iloc[:0])
+            pd.testing.assert_frame_equal(table.failing(column, kind), reference)
 
 
 @given(
