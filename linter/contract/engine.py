@@ -6,6 +6,7 @@ import re
 from collections.abc import Collection, Mapping
 from dataclasses import dataclass
 from functools import cached_property
+from itertools import pairwise
 
 import numpy as np
 import pandas as pd
@@ -62,7 +63,7 @@ class CheckedTable:
         bounds = [*np.flatnonzero(np.diff(checks[ordered], prepend=-1)).tolist(), len(order)]
         return {
             (str(columns[order[a]]), str(kinds[order[a]])): self.failures.iloc[order[a:b]]
-            for a, b in zip(bounds[:-1], bounds[1:], strict=True)
+            for a, b in pairwise(bounds)
         }
 
     def raise_if_unrun(self, kind: str) -> None:
@@ -299,12 +300,13 @@ def _spread(failures: pd.DataFrame, same: Repeats, index: pd.Index) -> pd.DataFr
     # For case i, positions bounds[value[i]] ... bounds[value[i] + 1] - 1 of `order`.
     starts = np.repeat(bounds[value] - np.cumsum(counts) + counts, counts)
     rows = index.to_numpy()[order[starts + np.arange(len(case))]]
-    spread = failures.iloc[case].assign(row=rows)
-    # Pandera lists each check's failing rows in row order, one check after another.
-    block = pd.factorize(  # each check's number, in the order the checks come
-        combined_codes(*(pd.factorize(spread[c].to_numpy(dtype=object))[0] for c in ("column", "kind")))
+    # Pandera lists each check's failing rows in row order, one check after another. Every case
+    # is spread to at least its own row, so the checks come in the same order before and after.
+    check = pd.factorize(  # each case's check, numbered in the order the checks come
+        combined_codes(*(pd.factorize(failures[c].to_numpy(dtype=object))[0] for c in ("column", "kind")))
     )[0]
-    return spread.iloc[np.lexsort((rows, block))].reset_index(drop=True)
+    final = np.lexsort((rows, check[case]))
+    return failures.iloc[case[final]].assign(row=rows[final]).reset_index(drop=True)
 
 
 def _validator(schema: pa.DataFrameSchema, typed: pd.DataFrame) -> pa.DataFrameSchema | pa.Column:
