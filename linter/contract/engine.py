@@ -155,7 +155,10 @@ def _kind_of(row: pd.Series, kinds: Mapping[tuple[str, int], str]) -> str:
 def _unrun(error: SchemaErrors, kinds: Mapping[tuple[str, int], str]) -> tuple[tuple[str, str, str], ...]:
     """Checks pandera reports without a row: the check itself raised (e.g. an impossible comparison)."""
     cases = error.failure_cases
-    cases = cases[cases["index"].isna()]
+    rowless = np.flatnonzero(pd.isna(cases["index"].to_numpy(dtype=object)))
+    if not len(rowless):  # the usual case: skip building an empty table
+        return ()
+    cases = cases.iloc[rowless]
     return tuple((str(r["column"]), _kind_of(r, kinds), str(r["failure_case"])) for _, r in cases.iterrows())
 
 

@@ -188,6 +188,23 @@ def test_a_large_key_table_validated_in_runs_fails_the_same_cells(data) -> None:
     assert unrun_runs == unrun_every
 
 
+@pytest.mark.parametrize("per_value", [True, False])
+def test_a_check_that_raises_is_reported_as_unrun_beside_the_cells_that_failed(per_value) -> None:
+    def raises(values: pd.Series) -> pd.Series:
+        raise TypeError("cannot compare text with a number")
+
+    schema = pa.DataFrameSchema(
+        {"result": pa.Column("float64", checks=[pa.Check.ge(0), pa.Check(raises)], nullable=True)}
+    )
+    typed = pd.DataFrame({"result": [1.0, -2.0, None, -2.0]}, index=[2, 3, 4, 5])
+    failures, unrun = validated(schema, typed, {("result", 0): "range", ("result", 1): "range"}, per_value)
+    assert failures[["column", "kind", "row"]].values.tolist() == [
+        ["result", "range", 3],
+        ["result", "range", 5],
+    ]
+    assert unrun == (("result", "range", 'TypeError("cannot compare text with a number")'),)
+
+
 @given(
     st.lists(
         st.tuples(
